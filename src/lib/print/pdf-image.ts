@@ -1,0 +1,248 @@
+/**
+ * Images as PDF image XObjects, each written once per document.
+ *
+ * JPEG goes in as it is (DCTDecode, no re-encoding). PNG is decoded to pixels and written as
+ * our own FlateDecode image (ISO 32000-1 §8.9.5), with the alpha channel as a separate soft
+ * mask (§11.6.5.3) only when the picture has transparency. This is smaller and much faster
+ * than a general-purpose embedder that re-packs every PNG the same way.
+ */
+import { unzlibSync, zlibSync } from 'fflate';
+import { PDFDocument, PDFName, PDFRef } from 'pdf-lib';
+import type { ImageAsset } from './display-list';
+
+export interface DecodedPng {
+	widthPx: number;
+	heightPx: number;
+	/** 1 (grey) or 3 (RGB) colour samples per pixel, 8 bits each. */
+	channels: 1 | 3;
+	colour: Uint8Array;
+	/** One byte per pixel, or null when every pixel is opaque. */
+	alpha: Uint8Array | null;
+}
+
+const PNG_SIGNATURE = [137, 80, 78, 71, 13, 10, 26, 10];
+
+/**
+ * Decodes a non-interlaced PNG of any colour type and bit depth (PNG spec, ISO/IEC 15948).
+ * Returns null for interlaced files, which the caller decodes the slow way.
+ */
+export function decodePng(bytes: Uint8Array): DecodedPng | null {
+	for (let i = 0; i < 8; i++) if (bytes[i] !== PNG_SIGNATURE[i]) throw new Error('not a PNG file');
+	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+	let width = 0;
+	let height = 0;
+	let depth = 8;
+	let type = 0;
+	let interlace = 0;
+	let palette: Uint8Array | undefined;
+	let transparency: Uint8Array | undefined;
+	const data: Uint8Array[] = [];
+	for (let at = 8; at + 8 <= bytes.length; ) {
+		const length = view.getUint32(at);
+		const name = String.fromCharCode(bytes[at + 4], bytes[at + 5], bytes[at + 6], bytes[at + 7]);
+		const body = bytes.subarray(at + 8, at + 8 + length);
+		if (name === 'IHDR') {
+			width = view.getUint32(at + 8);
+			height = view.getUint32(at + 12);
+			depth = body[8];
+			type = body[9];
+			interlace = body[12];
+		} else if (name === 'PLTE') palette = body;
+		else if (name === 'tRNS') transparency = body;
+		else if (name === 'IDAT') data.push(body);
+		else if (name === 'IEND') break;
+		at += 12 + length;
+	}
+	if (interlace !== 0) return null;
+	const samples = { 0: 1, 2: 3, 3: 1, 4: 2, 6: 4 }[type];
+	if (!samples || !width || !height) throw new Error('unsupported PNG header');
+
+	const raw = unzlibSync(concat(data));
+	const bitsPerPixel = samples * depth;
+	const stride = Math.ceil((width * bitsPerPixel) / 8);
+	const bpp = Math.max(1, bitsPerPixel >> 3);
+	const rows = unfilter(raw, stride, height, bpp);
+
+	const isGrey = type === 0 || type === 4;
+	const channels: 1 | 3 = isGrey ? 1 : 3;
+	const colour = new Uint8Array(width * height * channels);
+	const alpha = new Uint8Array(width * height);
+	let opaque = true;
+	const max = (1 << depth) - 1;
+	const sample = (row: number, index: number): number => {
+		// Sample `index` of a row, scaled to 8 bits (16-bit keeps its high byte).
+		const base = row * stride;
+		if (depth === 8) return rows[base + index];
+		if (depth === 16) return rows[base + index * 2];
+		const bit = index * depth;
+		const v = (rows[base + (bit >> 3)] >> (8 - depth - (bit & 7))) & max;
+		return v;
+	};
+	const rawSample = (row: number, index: number): number => {
+		// Unscaled value, for palette indices and tRNS comparisons.
+		const base = row * stride;
+		if (depth === 16) return (rows[base + index * 2] << 8) | rows[base + index * 2 + 1];
+		if (depth === 8) return rows[base + index];
+		return sample(row, index);
+	};
+	const scale = depth < 8 ? 255 / max : 1;
+	const keyGrey = transparency && type === 0 ? (transparency[0] << 8) | transparency[1] : -1;
+	const keyRgb =
+		transparency && type === 2
+			? [0, 2, 4].map((o) => (transparency[o] << 8) | transparency[o + 1])
+			: undefined;
+
+	for (let y = 0; y < height; y++) {
+		for (let x = 0; x < width; x++) {
+			const p = y * width + x;
+			let a = 255;
+			if (type === 3) {
+				const i = rawSample(y, x);
+				if (!palette || i * 3 + 2 >= palette.length) throw new Error('PNG palette index out of range');
+				colour[p * 3] = palette[i * 3];
+				colour[p * 3 + 1] = palette[i * 3 + 1];
+				colour[p * 3 + 2] = palette[i * 3 + 2];
+				if (transparency && i < transparency.length) a = transparency[i];
+			} else if (isGrey) {
+				colour[p] = Math.round(sample(y, x * samples) * scale);
+				if (type === 4) a = sample(y, x * 2 + 1);
+				else if (rawSample(y, x) === keyGrey) a = 0;
+			} else {
+				for (let c = 0; c < 3; c++) colour[p * 3 + c] = sample(y, x * samples + c);
+				if (type === 6) a = sample(y, x * 4 + 3);
+				else if (
+					keyRgb &&
+					rawSample(y, x * 3) === keyRgb[0] &&
+					rawSample(y, x * 3 + 1) === keyRgb[1] &&
+					rawSample(y, x * 3 + 2) === keyRgb[2]
+				)
+					a = 0;
+			}
+			alpha[p] = a;
+			if (a !== 255) opaque = false;
+		}
+	}
+	return { widthPx: width, heightPx: height, channels, colour, alpha: opaque ? null : alpha };
+}
+
+/** PNG scanline filters 0–4 (None, Sub, Up, Average, Paeth), undone in place into a new buffer. */
+function unfilter(raw: Uint8Array, stride: number, height: number, bpp: number): Uint8Array {
+	const out = new Uint8Array(stride * height);
+	for (let y = 0; y < height; y++) {
+		const filter = raw[y * (stride + 1)];
+		const src = y * (stride + 1) + 1;
+		const dst = y * stride;
+		const up = dst - stride;
+		for (let i = 0; i < stride; i++) {
+			const left = i >= bpp ? out[dst + i - bpp] : 0;
+			const above = y > 0 ? out[up + i] : 0;
+			const corner = y > 0 && i >= bpp ? out[up + i - bpp] : 0;
+			let v = raw[src + i];
+			if (filter === 1) v += left;
+			else if (filter === 2) v += above;
+			else if (filter === 3) v += (left + above) >> 1;
+			else if (filter === 4) {
+				const p = left + above - corner;
+				const pa = Math.abs(p - left);
+				const pb = Math.abs(p - above);
+				const pc = Math.abs(p - corner);
+				v += pa <= pb && pa <= pc ? left : pb <= pc ? above : corner;
+			} else if (filter !== 0) throw new Error(`bad PNG filter ${filter}`);
+			out[dst + i] = v & 255;
+		}
+	}
+	return out;
+}
+
+function concat(parts: Uint8Array[]): Uint8Array {
+	const out = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
+	let at = 0;
+	for (const p of parts) {
+		out.set(p, at);
+		at += p.length;
+	}
+	return out;
+}
+
+/** Interlaced PNGs are rare in artwork; they go through jimp, which is slower but complete. */
+async function decodePngSlowly(bytes: Uint8Array): Promise<DecodedPng> {
+	const { Jimp } = await import('jimp');
+	const image = await Jimp.read(Buffer.from(bytes));
+	const { width, height, data } = image.bitmap;
+	const colour = new Uint8Array(width * height * 3);
+	const alpha = new Uint8Array(width * height);
+	let opaque = true;
+	for (let p = 0; p < width * height; p++) {
+		colour[p * 3] = data[p * 4];
+		colour[p * 3 + 1] = data[p * 4 + 1];
+		colour[p * 3 + 2] = data[p * 4 + 2];
+		alpha[p] = data[p * 4 + 3];
+		if (alpha[p] !== 255) opaque = false;
+	}
+	return { widthPx: width, heightPx: height, channels: 3, colour, alpha: opaque ? null : alpha };
+}
+
+/** Writes decoded pixels as a FlateDecode image XObject (plus soft mask) and returns its ref. */
+export function writePixelImage(doc: PDFDocument, png: DecodedPng): PDFRef {
+	const { context } = doc;
+	const common = { Type: 'XObject', Subtype: 'Image', Width: png.widthPx, Height: png.heightPx, BitsPerComponent: 8 };
+	let smask: PDFRef | undefined;
+	if (png.alpha) {
+		smask = context.register(
+			context.stream(zlibSync(png.alpha, { level: 6 }), { ...common, ColorSpace: 'DeviceGray', Filter: 'FlateDecode' })
+		);
+	}
+	return context.register(
+		context.stream(zlibSync(png.colour, { level: 6 }), {
+			...common,
+			ColorSpace: png.channels === 1 ? 'DeviceGray' : 'DeviceRGB',
+			Filter: 'FlateDecode',
+			...(smask ? { SMask: smask } : {})
+		})
+	);
+}
+
+/**
+ * One document's images: each asset is embedded on first use and its ref reused after that;
+ * each page names it once in its resources however often it is drawn there.
+ */
+export class PdfImageCache {
+	private refs = new Map<string, Promise<PDFRef>>();
+	private pageNames = new WeakMap<object, Map<string, PDFName>>();
+	/** How many image objects were written (for tests: once per asset per document). */
+	embedded = 0;
+
+	constructor(
+		private doc: PDFDocument,
+		private assets: ReadonlyMap<string, ImageAsset>
+	) {}
+
+	ref(imageId: string): Promise<PDFRef> {
+		let ref = this.refs.get(imageId);
+		if (!ref) {
+			ref = this.embed(imageId);
+			this.refs.set(imageId, ref);
+		}
+		return ref;
+	}
+
+	/** The resource name of the image on this page, adding it to the page once. */
+	async nameOn(page: { node: { newXObject(tag: string, ref: PDFRef): PDFName } }, imageId: string): Promise<PDFName> {
+		let names = this.pageNames.get(page);
+		if (!names) this.pageNames.set(page, (names = new Map()));
+		const known = names.get(imageId);
+		if (known) return known;
+		const name = page.node.newXObject('Im', await this.ref(imageId));
+		names.set(imageId, name);
+		return name;
+	}
+
+	private async embed(imageId: string): Promise<PDFRef> {
+		const asset = this.assets.get(imageId);
+		if (!asset) throw new Error(`image ${imageId} is not in the image table`);
+		this.embedded++;
+		if (asset.mime === 'image/jpeg') return (await this.doc.embedJpg(asset.bytes)).ref;
+		const png = decodePng(asset.bytes) ?? (await decodePngSlowly(asset.bytes));
+		return writePixelImage(this.doc, png);
+	}
+}
