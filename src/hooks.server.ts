@@ -1,0 +1,56 @@
+import type { Handle, ServerInit } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { authHandle } from '$lib/server/auth/authjs';
+import { startRuntime, db } from '$lib/server/runtime';
+import { findUser } from '$lib/server/users';
+import { userForToken } from '$lib/server/api-tokens';
+import { apiError } from '$lib/server/api';
+import { DataDirLockedError } from '$lib/server/db/lock';
+
+export const init: ServerInit = async () => {
+	try {
+		await startRuntime();
+	} catch (e) {
+		if (e instanceof DataDirLockedError) {
+			console.error(`Paddock cannot start: ${e.message}`);
+			process.exit(1);
+		}
+		throw e;
+	}
+};
+
+const WRITES = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+/**
+ * Who is calling: an API token (`Authorization: Bearer …`) or the session cookie.
+ * Cookie-authenticated writes to the JSON API must come from our own pages: SvelteKit checks
+ * the origin of form posts only, so JSON writes are checked here.
+ */
+const identify: Handle = async ({ event, resolve }) => {
+	event.locals.user = null;
+	const isApi = event.url.pathname.startsWith('/api/');
+	const bearer = event.request.headers.get('authorization')?.match(/^Bearer\s+(\S+)$/i)?.[1];
+	if (bearer) {
+		if (!isApi) return apiError(400, 'API tokens are accepted by /api/ routes only');
+		event.locals.user = await userForToken(await db(), bearer);
+		if (!event.locals.user) return apiError(401, 'This API token is unknown or revoked');
+		event.locals.via = 'token';
+	} else {
+		const session = await event.locals.auth();
+		const id = session?.user?.id;
+		const user = id ? await findUser(await db(), id) : undefined;
+		if (user) {
+			event.locals.user = { id: user.id, email: user.email, name: user.name };
+			event.locals.via = 'cookie';
+		}
+		if (isApi && WRITES.has(event.request.method) && event.locals.via === 'cookie') {
+			const origin = event.request.headers.get('origin');
+			const site = event.request.headers.get('sec-fetch-site');
+			const sameOrigin = origin ? origin === event.url.origin : site === 'same-origin';
+			if (!sameOrigin) return apiError(403, 'Cross-site requests are refused', 'cross_site');
+		}
+	}
+	return resolve(event);
+};
+
+export const handle = sequence(authHandle, identify);

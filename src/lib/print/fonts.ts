@@ -1,0 +1,46 @@
+/**
+ * The one typeface of every card: Roboto Slab, shipped with the app (never a system font,
+ * so output does not depend on the machine). resvg reads the woff2 files as they are;
+ * pdf-lib and the text measurer need TrueType, so the woff2 is decompressed once per process.
+ */
+import { readFile } from 'node:fs/promises';
+import { createRequire } from 'node:module';
+import fontkit from '@pdf-lib/fontkit';
+import wawoff from 'wawoff2';
+import type { FontWeight } from './display-list';
+
+const require = createRequire(import.meta.url);
+
+const FILES: Record<FontWeight, string> = {
+	regular: '@fontsource/roboto-slab/files/roboto-slab-latin-400-normal.woff2',
+	bold: '@fontsource/roboto-slab/files/roboto-slab-latin-700-normal.woff2'
+};
+
+export const FONT_FAMILY = 'Roboto Slab';
+
+export interface LoadedFont {
+	weight: FontWeight;
+	woff2: Uint8Array;
+	ttf: Uint8Array;
+	/** fontkit font, for measuring advance widths and metrics. */
+	metrics: fontkit.Font;
+}
+
+export type FontSet = Record<FontWeight, LoadedFont>;
+
+let loading: Promise<FontSet> | undefined;
+
+async function loadOne(weight: FontWeight): Promise<LoadedFont> {
+	const woff2 = new Uint8Array(await readFile(require.resolve(FILES[weight])));
+	const ttf = new Uint8Array(await wawoff.decompress(woff2));
+	return { weight, woff2, ttf, metrics: fontkit.create(Buffer.from(ttf)) };
+}
+
+/** Both weights, loaded once per process. */
+export function loadFonts(): Promise<FontSet> {
+	loading ??= Promise.all([loadOne('regular'), loadOne('bold')]).then(([regular, bold]) => ({
+		regular,
+		bold
+	}));
+	return loading;
+}

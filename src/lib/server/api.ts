@@ -1,0 +1,122 @@
+/**
+ * The JSON API's conventions: errors as `{ error: { code, message } }` with the right status,
+ * bodies parsed with a size cap and validated with the thing's zod schema.
+ */
+import { json, isHttpError, isRedirect, type RequestHandler } from '@sveltejs/kit';
+import type { z } from 'zod';
+
+const CODES: Record<number, string> = {
+	400: 'bad_request',
+	401: 'unauthenticated',
+	403: 'forbidden',
+	404: 'not_found',
+	405: 'method_not_allowed',
+	409: 'conflict',
+	410: 'gone',
+	413: 'too_large',
+	415: 'unsupported_media_type',
+	422: 'invalid',
+	429: 'too_many_requests',
+	500: 'internal'
+};
+
+export class ApiError extends Error {
+	constructor(
+		readonly status: number,
+		message: string,
+		readonly code = CODES[status] ?? 'error',
+		readonly details?: unknown
+	) {
+		super(message);
+	}
+}
+
+export function apiError(status: number, message: string, code?: string, details?: unknown) {
+	return json(
+		{ error: { code: code ?? CODES[status] ?? 'error', message, ...(details ? { details } : {}) } },
+		{ status }
+	);
+}
+
+/** Wraps a handler so every failure answers as JSON. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export function api<H extends RequestHandler<any, any>>(handler: H): H {
+	return (async (event: Parameters<H>[0]) => {
+		try {
+			return await handler(event);
+		} catch (e) {
+			if (e instanceof ApiError) return apiError(e.status, e.message, e.code, e.details);
+			if (isHttpError(e)) return apiError(e.status, e.body.message);
+			if (isRedirect(e)) throw e;
+			// Domain refusals (TeamError and the like) carry a 4xx status and a message for people.
+			if (e instanceof Error && 'status' in e && typeof e.status === 'number' && e.status < 500) {
+				return apiError(e.status, e.message);
+			}
+			console.error(e);
+			return apiError(500, 'Something went wrong on our side');
+		}
+	}) as H;
+}
+
+export const JSON_LIMIT_BYTES = 1024 * 1024;
+
+/** Reads at most `limit` bytes of the body, refusing larger ones with 413 before reading them all. */
+export async function readBody(request: Request, limit: number): Promise<Uint8Array> {
+	const declared = Number(request.headers.get('content-length') ?? 'NaN');
+	if (declared > limit) throw new ApiError(413, `The body is larger than ${limit} bytes`);
+	if (!request.body) return new Uint8Array();
+	const reader = request.body.getReader();
+	const chunks: Uint8Array[] = [];
+	let size = 0;
+	for (;;) {
+		const { done, value } = await reader.read();
+		if (done) break;
+		size += value.byteLength;
+		if (size > limit) {
+			await reader.cancel();
+			throw new ApiError(413, `The body is larger than ${limit} bytes`);
+		}
+		chunks.push(value);
+	}
+	const out = new Uint8Array(size);
+	let at = 0;
+	for (const c of chunks) {
+		out.set(c, at);
+		at += c.byteLength;
+	}
+	return out;
+}
+
+/** Parses a JSON body against a schema; 400 with the field errors when it does not fit. */
+export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
+	const type = request.headers.get('content-type') ?? '';
+	if (!type.includes('application/json')) {
+		throw new ApiError(415, 'Send the body as application/json');
+	}
+	const bytes = await readBody(request, JSON_LIMIT_BYTES);
+	let value: unknown;
+	try {
+		value = JSON.parse(new TextDecoder().decode(bytes));
+	} catch {
+		throw new ApiError(400, 'The body is not valid JSON', 'malformed_json');
+	}
+	const parsed = schema.safeParse(value);
+	if (!parsed.success) {
+		const issues = parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
+		throw new ApiError(
+			400,
+			issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)).join('; '),
+			'invalid',
+			issues
+		);
+	}
+	return parsed.data;
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** An id from the path; malformed ids are simply not found. */
+export function idParam(value: string | undefined, what = 'thing'): string {
+	if (!value || !UUID.test(value)) throw new ApiError(404, `No such ${what}`);
+	return value;
+}

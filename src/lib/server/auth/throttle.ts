@@ -1,0 +1,41 @@
+/**
+ * Slowing down password guessing: failed sign-ins are counted per account and per address over
+ * a window; past the limit further attempts are refused (429) until the window moves on.
+ */
+import { and, eq, gt, lt, count, or } from 'drizzle-orm';
+import type { Db } from '../db';
+import { signInFailures } from '../db/schema';
+
+export const WINDOW_MS = 15 * 60 * 1000;
+export const MAX_PER_ACCOUNT = 5;
+export const MAX_PER_ADDRESS = 20;
+
+const accountKey = (email: string) => `email:${email.trim().toLowerCase()}`;
+const addressKey = (ip: string) => `ip:${ip}`;
+
+async function failures(db: Db, key: string): Promise<number> {
+	const since = new Date(Date.now() - WINDOW_MS);
+	const [row] = await db
+		.select({ n: count() })
+		.from(signInFailures)
+		.where(and(eq(signInFailures.key, key), gt(signInFailures.createdAt, since)));
+	return row.n;
+}
+
+/** True when this account or this address has failed too often lately. */
+export async function signInRefused(db: Db, email: string, ip: string): Promise<boolean> {
+	const [a, b] = await Promise.all([failures(db, accountKey(email)), failures(db, addressKey(ip))]);
+	return a >= MAX_PER_ACCOUNT || b >= MAX_PER_ADDRESS;
+}
+
+export async function recordFailure(db: Db, email: string, ip: string): Promise<void> {
+	await db.insert(signInFailures).values([{ key: accountKey(email) }, { key: addressKey(ip) }]);
+	// Old rows serve no purpose; drop them as we go.
+	await db
+		.delete(signInFailures)
+		.where(lt(signInFailures.createdAt, new Date(Date.now() - WINDOW_MS)));
+}
+
+export async function clearFailures(db: Db, email: string): Promise<void> {
+	await db.delete(signInFailures).where(or(eq(signInFailures.key, accountKey(email))));
+}

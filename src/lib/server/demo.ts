@@ -1,0 +1,38 @@
+/**
+ * Demo mode: on first start with an empty database, one team with an account per role and
+ * the demo game. These accounts exist only in demo mode (PADDOCK_DEMO=0 turns it off).
+ */
+import { count } from 'drizzle-orm';
+import type { Db } from './db';
+import { users, memberships, type Role } from './db/schema';
+import { createUser } from './users';
+import { createTeam } from './teams';
+import { createGame } from './games';
+
+export const DEMO_PASSWORD = 'paddock-demo';
+export const DEMO_ROLES: Role[] = ['owner', 'designer', 'artist', 'printer', 'reviewer'];
+export const demoEmail = (role: Role) => `${role}@paddock.test`;
+
+const NAMES: Record<Role, string> = {
+	owner: 'Olive Ashdown',
+	designer: 'Dara Fenwick',
+	artist: 'Ari Quillon',
+	printer: 'Pim Castellan',
+	reviewer: 'Rue Marchetti'
+};
+
+export async function seedDemo(db: Db): Promise<boolean> {
+	const [{ n }] = await db.select({ n: count() }).from(users);
+	if (n > 0) return false;
+	const accounts = new Map<Role, string>();
+	for (const role of DEMO_ROLES) {
+		const user = await createUser(db, { email: demoEmail(role), name: NAMES[role], password: DEMO_PASSWORD });
+		accounts.set(role, user.id);
+	}
+	const team = await createTeam(db, accounts.get('owner')!, 'Mossbank Games');
+	for (const role of DEMO_ROLES.filter((r) => r !== 'owner')) {
+		await db.insert(memberships).values({ teamId: team.id, userId: accounts.get(role)!, role });
+	}
+	await createGame(db, { teamId: team.id, name: 'Slowpoke Meadow Derby', userId: accounts.get('designer')! });
+	return true;
+}

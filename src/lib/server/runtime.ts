@@ -1,0 +1,64 @@
+/**
+ * The app's long-lived parts: the database, the mail path and the demo seed. Started once per
+ * process (kept on globalThis so dev reloads reuse them) and closed on shutdown.
+ */
+import { openDatabase, type Database, type Db } from './db';
+import { caughtMail } from './db/schema';
+import { startCatcher } from './mail/catcher';
+import { configureMail } from './mail';
+import { config } from './config';
+
+interface Runtime {
+	database: Database;
+	stopCatcher?: () => Promise<void>;
+	catching: boolean;
+}
+
+const slot = globalThis as typeof globalThis & { __paddock?: Promise<Runtime> };
+
+/** Wires mail for a database: a real server when SMTP_URL is set, the local catcher otherwise. */
+export async function startMail(db: Db, smtpUrl: string | null) {
+	if (smtpUrl) {
+		configureMail({ smtpUrl, from: config.mailFrom });
+		return { catching: false };
+	}
+	const catcher = await startCatcher(async (m) => {
+		await db.insert(caughtMail).values(m);
+	});
+	configureMail({ smtpUrl: `smtp://127.0.0.1:${catcher.port}`, from: config.mailFrom });
+	return { catching: true, stop: catcher.stop };
+}
+
+async function start(): Promise<Runtime> {
+	const database = await openDatabase(config.dataDir);
+	const mail = await startMail(database.db, config.smtpUrl);
+	if (config.demo) {
+		const { seedDemo } = await import('./demo');
+		await seedDemo(database.db);
+	}
+	const runtime: Runtime = { database, stopCatcher: mail.stop, catching: mail.catching };
+	const stop = async () => {
+		await runtime.stopCatcher?.();
+		await database.close();
+	};
+	process.once('sveltekit:shutdown', () => void stop());
+	return runtime;
+}
+
+export function startRuntime(): Promise<Runtime> {
+	slot.__paddock ??= start();
+	return slot.__paddock;
+}
+
+/** Tests put their own (in-memory) database here. */
+export function useRuntime(database: Database, catching = true) {
+	slot.__paddock = Promise.resolve({ database, catching });
+}
+
+export async function db(): Promise<Db> {
+	return (await startRuntime()).database.db;
+}
+
+export async function mailIsCaught(): Promise<boolean> {
+	return (await startRuntime()).catching;
+}

@@ -1,0 +1,79 @@
+/** Accounts: creating, finding, resetting passwords. */
+import { eq, sql, and, isNull, gt } from 'drizzle-orm';
+import type { Db } from './db';
+import { users, passwordResets } from './db/schema';
+import { hashPassword } from './auth/passwords';
+import { newToken, sha256 } from './auth/secrets';
+
+export type User = typeof users.$inferSelect;
+
+export async function findUserByEmail(db: Db, email: string): Promise<User | undefined> {
+	const [user] = await db
+		.select()
+		.from(users)
+		.where(sql`lower(${users.email}) = ${email.trim().toLowerCase()}`);
+	return user;
+}
+
+export async function findUser(db: Db, id: string): Promise<User | undefined> {
+	const [user] = await db.select().from(users).where(eq(users.id, id));
+	return user;
+}
+
+export class EmailTakenError extends Error {
+	constructor() {
+		super('An account with this e-mail address exists already');
+	}
+}
+
+export async function createUser(
+	db: Db,
+	input: { email: string; name: string; password: string }
+): Promise<User> {
+	if (await findUserByEmail(db, input.email)) throw new EmailTakenError();
+	const [user] = await db
+		.insert(users)
+		.values({
+			email: input.email.trim().toLowerCase(),
+			name: input.name.trim(),
+			passwordHash: await hashPassword(input.password)
+		})
+		.returning();
+	return user;
+}
+
+export const RESET_TTL_MS = 60 * 60 * 1000;
+
+/** A one-time reset token for the account, or null when there is no such account. */
+export async function startPasswordReset(db: Db, email: string) {
+	const user = await findUserByEmail(db, email);
+	if (!user) return null;
+	const token = newToken();
+	await db.insert(passwordResets).values({
+		userId: user.id,
+		tokenHash: sha256(token),
+		expiresAt: new Date(Date.now() + RESET_TTL_MS)
+	});
+	return { user, token };
+}
+
+/** Sets the new password if the token is valid, unused and fresh; false otherwise. */
+export async function finishPasswordReset(db: Db, token: string, password: string) {
+	const passwordHash = await hashPassword(password);
+	return db.transaction(async (tx) => {
+		const [reset] = await tx
+			.update(passwordResets)
+			.set({ usedAt: new Date() })
+			.where(
+				and(
+					eq(passwordResets.tokenHash, sha256(token)),
+					isNull(passwordResets.usedAt),
+					gt(passwordResets.expiresAt, new Date())
+				)
+			)
+			.returning();
+		if (!reset) return false;
+		await tx.update(users).set({ passwordHash }).where(eq(users.id, reset.userId));
+		return true;
+	});
+}

@@ -1,0 +1,33 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { gameCreateSchema } from '$lib/schemas/account';
+import { requireRole, may } from '$lib/server/guard';
+import { createGame, gamesOf } from '$lib/server/games';
+import { findTeam } from '$lib/server/teams';
+import { db } from '$lib/server/runtime';
+
+export const load = async ({ locals, params }) => {
+	const d = await db();
+	const { role } = await requireRole(d, locals, params.teamId, 'team.read');
+	const team = (await findTeam(d, params.teamId))!;
+	const games = await gamesOf(d, params.teamId);
+	return {
+		team: { id: team.id, name: team.name },
+		role,
+		mayCreate: may(role, 'game.create'),
+		games: games.map((g) => ({ id: g.id, name: g.name, slug: g.slug, updatedAt: g.updatedAt })),
+		form: await superValidate(zod4(gameCreateSchema))
+	};
+};
+
+export const actions = {
+	createGame: async ({ request, locals, params }) => {
+		const d = await db();
+		const { user } = await requireRole(d, locals, params.teamId, 'game.create');
+		const form = await superValidate(request, zod4(gameCreateSchema));
+		if (!form.valid) return fail(400, { form });
+		const game = await createGame(d, { ...form.data, teamId: params.teamId, userId: user.id });
+		redirect(303, `/games/${game.id}`);
+	}
+};

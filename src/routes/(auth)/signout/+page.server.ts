@@ -1,0 +1,6 @@
+import { redirect } from '@sveltejs/kit';
+import { signOut } from '$lib/server/auth/authjs';
+
+export const load = () => redirect(303, '/');
+
+export const actions = { default: signOut };

@@ -1,0 +1,22 @@
+import type { RequestHandler } from './$types';
+import { json } from '@sveltejs/kit';
+import { api, readJson } from '$lib/server/api';
+import { requireRole } from '$lib/server/guard';
+import { db } from '$lib/server/runtime';
+import { changeRole, removeMember } from '$lib/server/teams';
+import { roleChangeSchema } from '$lib/schemas/account';
+
+export const PATCH: RequestHandler = api(async ({ locals, params, request }) => {
+	const d = await db();
+	const { user } = await requireRole(d, locals, params.teamId, 'members.manage');
+	const { role } = await readJson(request, roleChangeSchema);
+	await changeRole(d, params.teamId, params.userId, role, user.id);
+	return json({ ok: true });
+});
+
+export const DELETE: RequestHandler = api(async ({ locals, params }) => {
+	const d = await db();
+	const { user } = await requireRole(d, locals, params.teamId, 'members.manage');
+	await removeMember(d, params.teamId, params.userId, user.id);
+	return json({ ok: true });
+});
