@@ -15,6 +15,7 @@ import {
 	concatTransformationMatrix,
 	drawObject,
 	endPath,
+	LineJoinStyle,
 	lineTo,
 	moveTo,
 	PDFDocument,
@@ -25,6 +26,7 @@ import {
 	pushGraphicsState,
 	rectangle,
 	rgb,
+	setLineJoin,
 	type Color
 } from 'pdf-lib';
 import type { Colour, DisplayItem, FaceLayout, FontWeight, ImageAsset } from './display-list';
@@ -35,8 +37,6 @@ import { PdfImageCache } from './pdf-image';
 
 export type ColourMode = 'rgb' | 'cmyk';
 
-/** Stroke width when an item has a stroke colour but no width (a fine rule, 0.25 mm). */
-export const DEFAULT_STROKE_MM = 0.25;
 
 /** Bézier handle length for a quarter circle: 4/3 · (√2 − 1). */
 const KAPPA = 0.5522847498;
@@ -177,15 +177,17 @@ export class PdfFaceWriter {
 		const k = PT_PER_MM;
 		switch (item.type) {
 			case 'rect': {
-				if (!item.fill && !item.stroke) return;
+				const strokeMm = item.strokeMm ?? 0;
+				// As in the SVG backend: a stroke needs both a colour and a width.
+				const stroked = !!item.stroke && strokeMm > 0;
+				if (!item.fill && !stroked) return;
 				const fill = item.fill ? { color: this.paint(item.fill) } : {};
-				const strokeMm = item.strokeMm ?? DEFAULT_STROKE_MM;
 				if (item.radiusMm && item.radiusMm > 0) {
 					// Path units are mm (drawSvgPath scales them), so the border width stays in mm.
 					page.drawSvgPath(roundedRectPath(item.xMm, item.yMm, item.wMm, item.hMm, item.radiusMm), {
 						...pathOrigin,
 						...fill,
-						...(item.stroke ? { borderColor: this.paint(item.stroke), borderWidth: strokeMm } : {})
+						...(stroked ? { borderColor: this.paint(item.stroke!), borderWidth: strokeMm } : {})
 					});
 				} else {
 					page.drawRectangle({
@@ -194,22 +196,21 @@ export class PdfFaceWriter {
 						width: item.wMm * k,
 						height: item.hMm * k,
 						...fill,
-						...(item.stroke ? { borderColor: this.paint(item.stroke), borderWidth: strokeMm * k } : {})
+						...(stroked ? { borderColor: this.paint(item.stroke!), borderWidth: strokeMm * k } : {})
 					});
 				}
 				return;
 			}
 			case 'ellipse': {
-				if (!item.fill && !item.stroke) return;
+				const stroked = !!item.stroke && (item.strokeMm ?? 0) > 0;
+				if (!item.fill && !stroked) return;
 				page.drawEllipse({
 					x: X(item.cxMm),
 					y: Y(item.cyMm),
 					xScale: item.rxMm * k,
 					yScale: item.ryMm * k,
 					...(item.fill ? { color: this.paint(item.fill) } : {}),
-					...(item.stroke
-						? { borderColor: this.paint(item.stroke), borderWidth: (item.strokeMm ?? DEFAULT_STROKE_MM) * k }
-						: {})
+					...(stroked ? { borderColor: this.paint(item.stroke!), borderWidth: item.strokeMm! * k } : {})
 				});
 				return;
 			}
@@ -224,14 +225,16 @@ export class PdfFaceWriter {
 				return;
 			}
 			case 'path': {
-				if (!item.fill && !item.stroke) return;
+				const stroked = !!item.stroke && (item.strokeMm ?? 0) > 0;
+				if (!item.fill && !stroked) return;
+				// Round joins like the SVG backend; drawSvgPath inherits them from the enclosing state.
+				page.pushOperators(pushGraphicsState(), setLineJoin(LineJoinStyle.Round));
 				page.drawSvgPath(item.d, {
 					...pathOrigin,
 					...(item.fill ? { color: this.paint(item.fill) } : {}),
-					...(item.stroke
-						? { borderColor: this.paint(item.stroke), borderWidth: item.strokeMm ?? DEFAULT_STROKE_MM }
-						: {})
+					...(stroked ? { borderColor: this.paint(item.stroke!), borderWidth: item.strokeMm! } : {})
 				});
+				page.pushOperators(popGraphicsState());
 				return;
 			}
 			case 'text': {
