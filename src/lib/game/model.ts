@@ -14,7 +14,7 @@ import { z } from 'zod';
 export const IdSchema = z
 	.string()
 	.min(1)
-	.max(96)
+	.max(160)
 	.regex(/^[A-Za-z0-9_.:-]+$/, 'Ids use letters, digits and _ . : - only');
 export type Id = z.infer<typeof IdSchema>;
 
@@ -315,18 +315,22 @@ export const WagerDataSchema = z.object({
 	tier: z.int().min(1).max(12),
 	moneyTableId: IdSchema
 });
-/** One per player count: the deal table and the track length. */
+/**
+ * One per player count: the deal table and the track length. Every count is taken from the
+ * movement deck (movement and rogue cards shuffled together) at the start of a stage.
+ */
 export const SetupDataSchema = z.object({
 	type: z.literal('setup'),
 	players: z.int().min(2).max(12),
+	/** Cards dealt to each player. */
 	handSize: count,
-	/** Movement cards removed face down before the stage. */
+	/** Cards set aside face down, out of the stage. */
 	discards: count,
-	/** Cards each player adds from their hand to the shared deck (per player). */
+	/** Cards dealt straight into the shared deck. */
 	toSharedDeck: count,
-	/** Movement cards laid face up for everyone to see. */
+	/** Cards laid face up beside the track for everyone to see (not in the shared deck). */
 	faceUp: count,
-	/** Cards dealt from the remaining deck into the shared deck. */
+	/** Cards added from the remaining deck to the shared deck once the hands are dealt. */
 	extraFromDeck: count,
 	/** Number of track tiles laid, start and finish included. */
 	trackLength: z.int().min(2).max(99)
@@ -470,6 +474,8 @@ export interface ReferenceProblem {
 /**
  * What a schema alone cannot see: duplicate ids and names, cards pointing at missing kinds,
  * runners or money tables, card data of the wrong type for its kind, art assigned to nothing.
+ * Each of these breaks something (rendering, CSV by name, import); softer advice such as too
+ * few runners belongs to the deck check.
  */
 export function findReferenceProblems(game: Game): ReferenceProblem[] {
 	const problems: ReferenceProblem[] = [];
@@ -492,8 +498,6 @@ export function findReferenceProblems(game: Game): ReferenceProblem[] {
 		if (runnerNames.has(key)) problems.push({ path: `runners[${i}].name`, message: `Two runners are called “${r.name}”` });
 		runnerNames.add(key);
 	});
-	if (game.runners.length > 0 && game.runners.length < RUNNERS_MIN)
-		problems.push({ path: 'runners', message: `A race needs at least ${RUNNERS_MIN} runners` });
 
 	const runners = new Set(game.runners.map((r) => r.id));
 	const tables = new Set(game.moneyTables.map((t) => t.id));

@@ -1,0 +1,111 @@
+import { describe, expect, it } from 'vitest';
+import { cardCount, checkDeal, checkDeck, deckSupply, kindTotals, type DeckSupply } from './deck-check';
+import { demoGame } from './demo';
+import type { SetupData } from './model';
+
+const supply = (deckCards: number, tiles = 16): DeckSupply => ({
+	movementCards: deckCards,
+	rogueCards: 0,
+	deckCards,
+	tiles,
+	startTiles: 1,
+	finishTiles: 1
+});
+const setup = (patch: Partial<SetupData>): SetupData => ({
+	type: 'setup',
+	players: 4,
+	handSize: 5,
+	discards: 3,
+	toSharedDeck: 8,
+	faceUp: 2,
+	extraFromDeck: 2,
+	trackLength: 14,
+	...patch
+});
+
+describe('checkDeal (worked by hand)', () => {
+	it('4 players × 5 + 3 + 8 + 2 + 2 = 35 of 40 leaves 5, shared deck 8 + 2 = 10', () => {
+		const d = checkDeal(setup({}), supply(40));
+		expect(d).toMatchObject({ handCards: 20, neededCards: 35, remainder: 5, sharedDeckCards: 10, ok: true });
+		expect(d.issues).toEqual([{ severity: 'info', message: '4 players: 5 cards stay out of the stage', players: 4 }]);
+	});
+	it('a deal that uses the deck exactly leaves nothing and passes', () => {
+		const d = checkDeal(setup({}), supply(35));
+		expect(d.remainder).toBe(0);
+		expect(d.ok).toBe(true);
+		expect(d.issues).toEqual([]);
+	});
+	it('6 players × 6 + 3 + 8 + 2 + 2 = 51 of 40 is 11 short', () => {
+		const d = checkDeal(setup({ players: 6, handSize: 6 }), supply(40));
+		expect(d.remainder).toBe(-11);
+		expect(d.ok).toBe(false);
+		expect(d.issues[0].message).toBe(
+			'6 players: the deal needs 51 movement cards (6 × 6 in hand, 3 discarded, 8 to the shared deck, ' +
+				'2 face up, 2 extra from the deck) but the deck has 40: 11 short'
+		);
+	});
+	it('an empty shared deck is impossible', () => {
+		const d = checkDeal(setup({ toSharedDeck: 0, extraFromDeck: 0 }), supply(40));
+		expect(d.ok).toBe(false);
+		expect(d.issues.map((i) => i.message)).toContain(
+			'4 players: the shared deck would be empty, so a stage would end before it starts'
+		);
+	});
+	it('a track longer than the tiles is impossible', () => {
+		const d = checkDeal(setup({ trackLength: 18 }), supply(40, 16));
+		expect(d.ok).toBe(false);
+		expect(d.issues.map((i) => i.message)).toContain('4 players: the track is 18 tiles long but the game has only 16 tiles');
+	});
+	it('no hand is allowed but worth a warning', () => {
+		const d = checkDeal(setup({ handSize: 0 }), supply(40));
+		expect(d.ok).toBe(true);
+		expect(d.issues.some((i) => i.severity === 'warning')).toBe(true);
+	});
+});
+
+describe('checkDeck on the demo game', () => {
+	const game = demoGame();
+	it('counts 6 runners × 3 steps × 2 copies + 2 beetle steps × 2 copies = 40 cards to deal', () => {
+		expect(deckSupply(game)).toEqual({ movementCards: 36, rogueCards: 4, deckCards: 40, tiles: 16, startTiles: 1, finishTiles: 1 });
+	});
+	it('passes for every player count 2..8', () => {
+		const check = checkDeck(game);
+		expect(check.deals.map((d) => d.players)).toEqual([2, 3, 4, 5, 6, 7, 8]);
+		expect(check.issues.filter((i) => i.severity !== 'info')).toEqual([]);
+		expect(check.ok).toBe(true);
+		// 2 players: 2 × 7 + 4 + 10 + 2 + 2 = 32, remainder 8, shared deck 12.
+		expect(check.deals[0]).toMatchObject({ neededCards: 32, remainder: 8, sharedDeckCards: 12 });
+	});
+	it('totals per kind and for the game, with copies', () => {
+		const totals = Object.fromEntries(kindTotals(game).map((k) => [k.kindId, [k.designs, k.cards]]));
+		expect(totals).toEqual({
+			'kd-movement': [18, 36],
+			'kd-rogue': [2, 4],
+			'kd-wager': [54, 54], // 3 bet types × 6 runners × 3 tiers
+			'kd-setup': [7, 7],
+			'kd-hazard': [4, 8],
+			'kd-aid': [2, 16],
+			'kd-tile': [16, 16]
+		});
+		expect(checkDeck(game).totalCards).toBe(36 + 4 + 54 + 7 + 8 + 16 + 16);
+		expect(cardCount(game.cards)).toBe(141);
+	});
+	it('flags a second setup card for one player count, a gap, and lopsided runners', () => {
+		const g = demoGame();
+		g.cards = g.cards.filter((c) => !(c.data.type === 'setup' && c.data.players === 5));
+		const four = g.cards.find((c) => c.data.type === 'setup' && c.data.players === 4)!;
+		g.cards.push({ ...four, id: 'dup', name: 'Another 4' });
+		const firstMove = g.cards.find((c) => c.data.type === 'movement')!;
+		firstMove.copies = 5; // Rosehip 1: 5 + 2 + 2 = 9 cards
+		const messages = checkDeck(g).issues.map((i) => i.message);
+		expect(messages).toContain('4 players have 2 setup cards (Setup for 4 players, Another 4); keep one');
+		expect(messages).toContain('No setup card for 5 players');
+		expect(messages.some((m) => m.startsWith('Runners have different numbers of movement cards: Rosehip 9, Saffron 6'))).toBe(true);
+		expect(checkDeck(g).ok).toBe(false);
+	});
+	it('flags a track without start or finish tile', () => {
+		const g = demoGame();
+		g.cards = g.cards.filter((c) => !(c.data.type === 'tile' && c.data.role === 'finish'));
+		expect(checkDeck(g).issues.map((i) => i.message)).toContain('The track has no finish tile');
+	});
+});
