@@ -106,7 +106,8 @@ const u16 = (d: Uint8Array, at: number) => d[at] | (d[at + 1] << 8);
 const u32 = (d: Uint8Array, at: number) => (d[at] | (d[at + 1] << 8) | (d[at + 2] << 16) | (d[at + 3] << 24)) >>> 0;
 
 /**
- * The zip's central directory (APPNOTE.TXT §4.3.12, §4.3.16), read without inflating anything.
+ * The zip's central directory (PKWARE APPNOTE.TXT §4.3.12 entries, §4.3.16 end record; section
+ * numbers from memory), read without inflating anything.
  * Zip64 and encrypted entries are refused: a game bundle never needs them.
  */
 function readDirectory(zip: Uint8Array): DirectoryEntry[] {
