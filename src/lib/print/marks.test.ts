@@ -24,7 +24,8 @@ const inside = (a: BoxMm, r: Imposition) =>
 	a.yMm >= r.marginMm - 1e-9 &&
 	a.xMm + a.widthMm <= r.sheetWidthMm - r.marginMm + 1e-9 &&
 	a.yMm + a.heightMm <= r.sheetHeightMm - r.marginMm + 1e-9;
-const fixedWidth = (text: string) => ({ text, widthMm: (pt: number) => text.length * pt * 0.55 / 2.8346 });
+const widthMm = (text: string, pt: number) => (text.length * pt * 0.55) / PT_PER_MM;
+const fixedWidth = (text: string) => ({ texts: [text], widthMm });
 
 describe('crop marks', () => {
 	it('marks every cut line outside the bleed and inside the printable area (A4 butted poker)', () => {
@@ -66,7 +67,7 @@ describe('crop marks', () => {
 			expect(m.label, `${layout} on ${sheet.label}`).toBeDefined();
 			const l = m.label!;
 			const em = l.sizePt / PT_PER_MM;
-			const box = { xMm: l.xMm, yMm: l.baselineMm - 0.95 * em, widthMm: fixedWidth(l.text).widthMm(l.sizePt), heightMm: 1.18 * em };
+			const box = { xMm: l.xMm, yMm: l.baselineMm - 0.95 * em, widthMm: widthMm(l.text, l.sizePt), heightMm: 1.18 * em };
 			const where = `${layout} on ${sheet.label}: ${JSON.stringify({ l, box, grid: r.gridBox })}`;
 			expect(inside(box, r), where).toBe(true);
 			expect(overlaps(box, r.gridBox), where).toBe(false);

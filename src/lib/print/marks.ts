@@ -49,9 +49,10 @@ export interface SheetMarks {
 export interface SheetMarksOptions {
 	cropMarks: boolean;
 	label?: {
-		text: string;
-		/** Width of the text at a font size, in mm (measured with the font that will draw it). */
-		widthMm: (sizePt: number) => number;
+		/** What to print, best first: a shorter text is used when a longer one has no room. */
+		texts: string[];
+		/** Width of a text at a font size, in mm (measured with the font that will draw it). */
+		widthMm: (text: string, sizePt: number) => number;
 	};
 }
 
@@ -145,13 +146,14 @@ function placeLabel(
 	const marksX = [...(cropMarks ? imp.cutsXMm : []), ...(imp.layout === 'fold' ? imp.foldsXMm : [])].sort((a, b) => a - b);
 	const hasMarks = marksX.length > 0;
 
+	for (const candidate of text.texts)
 	for (const sizePt of LABEL_SIZES_PT) {
 		const emMm = sizePt / PT_PER_MM;
 		const heightMm = (ASCENT_EM + DESCENT_EM) * emMm;
-		const widthMm = text.widthMm(sizePt);
+		const widthMm = text.widthMm(candidate, sizePt);
 		if (widthMm > W - 2 * m) continue;
 		const at = (band: Band, xMm: number): SheetLabel => ({
-			text: text.text,
+			text: candidate,
 			xMm,
 			// Sit on the printable edge of the band (the edge farthest from the cards).
 			baselineMm: band.side === 'bottom' ? band.endMm - DESCENT_EM * emMm : band.endMm + ASCENT_EM * emMm,

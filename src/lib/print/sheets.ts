@@ -1,0 +1,223 @@
+/**
+ * The imposed sheet PDF: every card of a game laid out on sheets for home printing or a shop.
+ *
+ * Cards of one size (trim and bleed) share sheets; each size gets its own. A sheet's front page
+ * carries the cards, crop marks and a label; with duplex, the back page follows straight after
+ * it, each back placed behind its own front (see ./duplex.ts). The fold layout puts fronts and
+ * backs on one page instead. An optional last page is the cutting guide.
+ *
+ * `planSheets` is the pure part (which card goes where); `buildSheetPdf` draws the plan.
+ */
+import { PDFDocument, type PDFPage } from 'pdf-lib';
+import type { FaceLayout, ImageAsset } from './display-list';
+import { faceHeightMm } from './display-list';
+import { backSlots, type BackOffsetMm, type DuplexMode } from './duplex';
+import { impose, type ImposeLayout, type Imposition, type Orientation, type Slot } from './impose';
+import { drawCuttingGuide } from './cutting-guide';
+import { loadFonts, type FontSet } from './fonts';
+import { CROP_MARK, drawSheetMarks, sheetMarks } from './marks';
+import { mmToPt, paperSize, PT_PER_MM, type PaperSpec } from './paper';
+import { PdfFaceWriter, type ColourMode } from './pdf';
+
+export interface SheetFace {
+	kindKey: string;
+	front: FaceLayout;
+	/** The card's own back (track tiles differ per tile) or a kind's shared back. */
+	back?: FaceLayout;
+	copies: number;
+}
+
+export interface SheetOptions {
+	paper: PaperSpec;
+	marginMm: number;
+	layout: ImposeLayout;
+	/** 'none' prints fronts only (except in the fold layout, which has its backs on the front page). */
+	duplex: DuplexMode;
+	marks: boolean;
+	/** How many complete sets of the cards to print. */
+	sets: number;
+	backOffsetMm?: BackOffsetMm;
+	colour: ColourMode;
+	cuttingGuide: boolean;
+	orientation?: Orientation | 'auto';
+	gutterMm?: number;
+}
+
+export interface SheetPdfInput {
+	title: string;
+	versionLabel: string;
+	/** As it should read on the label, e.g. 2025-06-01. */
+	date: string;
+	faces: SheetFace[];
+	images?: ImageAsset[] | ReadonlyMap<string, ImageAsset>;
+	options: SheetOptions;
+	fonts?: FontSet;
+}
+
+export interface PlacedCard {
+	slot: Slot;
+	face: FaceLayout;
+	kindKey: string;
+}
+
+export interface PlannedPage {
+	side: 'front' | 'back';
+	/** 1-based physical sheet number across the whole document. */
+	sheet: number;
+	cards: PlacedCard[];
+}
+
+export interface SheetGroup {
+	trimWidthMm: number;
+	trimHeightMm: number;
+	bleedMm: number;
+	kindKeys: string[];
+	imposition: Imposition;
+	cardCount: number;
+	pages: PlannedPage[];
+}
+
+export interface SheetPlan {
+	groups: SheetGroup[];
+	sheetCount: number;
+	warnings: string[];
+}
+
+/** Crop marks want this much room outside the bleed; kept free only when it costs no cards. */
+const MARK_ROOM_MM = CROP_MARK.gapMm + CROP_MARK.lengthMm;
+
+export function planSheets(input: Pick<SheetPdfInput, 'faces' | 'options'>): SheetPlan {
+	const o = input.options;
+	const paper = paperSize(o.paper);
+	const sets = Math.max(1, Math.floor(o.sets || 1));
+	const warnings: string[] = [];
+
+	// Group card instances by size, keeping first-seen order; sets repeat the whole deck.
+	const bySize = new Map<string, { faces: SheetFace[]; front: FaceLayout }>();
+	for (const f of input.faces) {
+		if (f.back && (f.back.trimWidthMm !== f.front.trimWidthMm || f.back.trimHeightMm !== f.front.trimHeightMm))
+			throw new Error(`the back of "${f.kindKey}" is not the size of its front`);
+		const key = `${f.front.trimWidthMm}×${f.front.trimHeightMm}+${f.front.bleedMm}`;
+		if (!bySize.has(key)) bySize.set(key, { faces: [], front: f.front });
+		bySize.get(key)!.faces.push(f);
+	}
+
+	const groups: SheetGroup[] = [];
+	let sheet = 0;
+	for (const { faces, front } of bySize.values()) {
+		const instances: SheetFace[] = [];
+		for (let s = 0; s < sets; s++) for (const f of faces) for (let c = 0; c < Math.max(0, f.copies); c++) instances.push(f);
+		if (!instances.length) continue;
+		const base = {
+			sheet: paper,
+			marginMm: o.marginMm,
+			trimWidthMm: front.trimWidthMm,
+			trimHeightMm: front.trimHeightMm,
+			bleedMm: front.bleedMm,
+			layout: o.layout,
+			orientation: o.orientation ?? 'auto',
+			gutterMm: o.gutterMm
+		};
+		const tight = impose(base);
+		if (!tight.ok) throw new Error(`${faces.map((f) => f.kindKey).join(', ')}: ${tight.error}`);
+		const roomy = o.marks ? impose({ ...base, markSpaceMm: MARK_ROOM_MM }) : tight;
+		const imp = roomy.ok && roomy.cardsPerSheet >= tight.cardsPerSheet ? roomy : tight;
+
+		const fold = o.layout === 'fold';
+		const duplex = !fold && o.duplex !== 'none';
+		const fronts = imp.slots.filter((s) => s.side === 'front');
+		const foldBacks = imp.slots.filter((s) => s.side === 'back');
+		const backs = duplex ? backSlots(imp, o.duplex as 'long' | 'short', o.backOffsetMm) : [];
+		const frontIndex = new Map(imp.slots.map((s, i) => [s, i]));
+		const pages: PlannedPage[] = [];
+		for (let at = 0; at < instances.length; at += fronts.length) {
+			const chunk = instances.slice(at, at + fronts.length);
+			sheet++;
+			const front: PlannedPage = { side: 'front', sheet, cards: [] };
+			const back: PlannedPage = { side: 'back', sheet, cards: [] };
+			chunk.forEach((f, i) => {
+				front.cards.push({ slot: fronts[i], face: f.front, kindKey: f.kindKey });
+				if (f.back && fold) front.cards.push({ slot: foldBacks[i], face: f.back, kindKey: f.kindKey });
+				if (f.back && duplex) back.cards.push({ slot: backs[frontIndex.get(fronts[i])!], face: f.back, kindKey: f.kindKey });
+			});
+			pages.push(front);
+			if (back.cards.length) pages.push(back);
+		}
+		if (o.duplex === 'none' && !fold && faces.some((f) => f.back))
+			warnings.push(`backs of ${faces.map((f) => f.kindKey).join(', ')} are not printed without duplex`);
+		groups.push({
+			trimWidthMm: front.trimWidthMm,
+			trimHeightMm: front.trimHeightMm,
+			bleedMm: front.bleedMm,
+			kindKeys: [...new Set(faces.map((f) => f.kindKey))],
+			imposition: imp,
+			cardCount: instances.length,
+			pages
+		});
+	}
+	return { groups, sheetCount: sheet, warnings };
+}
+
+export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
+	const o = input.options;
+	const plan = planSheets(input);
+	const doc = await PDFDocument.create();
+	doc.setTitle(`${input.title} — ${input.versionLabel} — sheets`);
+	doc.setProducer('Paddock');
+	doc.setCreator('Paddock');
+	const writer = await PdfFaceWriter.create(doc, {
+		fonts: input.fonts ?? (await loadFonts()),
+		images: input.images,
+		colour: o.colour
+	});
+	const labelFont = writer.font('regular');
+	const labelColour = writer.paint({ hex: '#000000', cmyk: [0, 0, 0, 1] });
+	const k = PT_PER_MM;
+
+	for (const group of plan.groups) {
+		const imp = group.imposition;
+		const W = imp.sheetWidthMm;
+		const H = imp.sheetHeightMm;
+		const size = `${fmt(group.trimWidthMm)} × ${fmt(group.trimHeightMm)} mm`;
+		for (const planned of group.pages) {
+			const page = doc.addPage([mmToPt(W), mmToPt(H)]);
+			page.setMediaBox(0, 0, mmToPt(W), mmToPt(H));
+			for (const card of planned.cards) await drawCard(writer, page, card, H);
+			const where = `sheet ${planned.sheet} of ${plan.sheetCount} ${planned.side}`;
+			const texts = [
+				`${input.title} · ${input.versionLabel} · ${size} · ${where} · ${input.date}`,
+				`${input.title} · ${input.versionLabel} · ${where} · ${input.date}`,
+				`${input.versionLabel} · ${where}`
+			];
+			if (imp.layout === 'fold' && planned.side === 'front')
+				texts.unshift(`${texts[1]} · fold on the dashed marks, glue the blank sides together`);
+			const marks = sheetMarks(imp, {
+				// Marks go on the front only: that is the side that gets cut.
+				cropMarks: o.marks && planned.side === 'front',
+				label: { texts, widthMm: (t, pt) => labelFont.widthOfTextAtSize(t, pt) / k }
+			});
+			if (planned.side === 'back') marks.lines = [];
+			drawSheetMarks(page, marks, H, { font: labelFont, labelColour });
+		}
+	}
+	if (o.cuttingGuide) drawCuttingGuide(doc, writer, { title: input.title, versionLabel: input.versionLabel, plan, options: o });
+	return doc.save();
+}
+
+async function drawCard(writer: PdfFaceWriter, page: PDFPage, card: PlacedCard, sheetHeightMm: number): Promise<void> {
+	const { bleedBox, clipBox } = card.slot;
+	const k = PT_PER_MM;
+	// The slot is in mm from the sheet's top-left; the face is placed by its bottom-left corner in pt.
+	await writer.drawFace(page, card.face, {
+		xPt: bleedBox.xMm * k,
+		yPt: (sheetHeightMm - bleedBox.yMm - faceHeightMm(card.face)) * k,
+		clipPt: {
+			xPt: clipBox.xMm * k,
+			yPt: (sheetHeightMm - clipBox.yMm - clipBox.heightMm) * k,
+			widthPt: clipBox.widthMm * k,
+			heightPt: clipBox.heightMm * k
+		}
+	});
+}
+
+const fmt = (v: number) => String(Math.round(v * 100) / 100);
