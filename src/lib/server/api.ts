@@ -34,7 +34,8 @@ export class ApiError extends Error {
 export function apiError(status: number, message: string, code?: string, details?: unknown) {
 	return json(
 		{ error: { code: code ?? CODES[status] ?? 'error', message, ...(details ? { details } : {}) } },
-		{ status }
+		// A refused body may be left unread: close the connection rather than reuse it.
+		{ status, headers: status === 413 ? { connection: 'close' } : {} }
 	);
 }
 

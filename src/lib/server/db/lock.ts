@@ -38,7 +38,7 @@ export function lockDataDir(dataDir: string): () => void {
 		} catch (e) {
 			if ((e as NodeJS.ErrnoException).code !== 'EEXIST') throw e;
 			const pid = Number(readFileSync(file, 'utf8').trim());
-			if (pid && pid !== process.pid && alive(pid)) {
+			if (pid && alive(pid)) {
 				throw new DataDirLockedError(
 					`The data directory ${dataDir} is in use by another Paddock process (pid ${pid}). ` +
 						`Stop that process first, or set PADDOCK_DATA_DIR to another directory.`

@@ -1,0 +1,34 @@
+import { defineConfig } from '@playwright/test';
+import { E2E_DATA_DIR, E2E_PORT, CHROMIUM } from './tests/e2e/env';
+
+export default defineConfig({
+	testDir: 'tests/e2e',
+	timeout: 60_000,
+	fullyParallel: false,
+	workers: 1,
+	reporter: [['list']],
+	use: {
+		baseURL: `http://localhost:${E2E_PORT}`,
+		launchOptions: {
+			executablePath: CHROMIUM,
+			args: [
+				'--headless',
+				'--no-sandbox',
+				'--disable-gpu',
+				'--disable-quic',
+				'--no-first-run',
+				'--disable-background-networking',
+				'--disable-component-update',
+				'--disable-sync'
+			]
+		}
+	},
+	webServer: {
+		command: 'node scripts/start.js',
+		url: `http://localhost:${E2E_PORT}/signin`,
+		timeout: 240_000,
+		reuseExistingServer: false,
+		stdout: 'pipe',
+		env: { PORT: String(E2E_PORT), PADDOCK_DATA_DIR: E2E_DATA_DIR, PADDOCK_DEMO: '1' }
+	}
+});

@@ -1,0 +1,129 @@
+/**
+ * Integration tests run the real route modules against an in-memory PGlite with the real
+ * migrations, the demo seed and the local mail catcher. A request is a plain Request plus the
+ * RequestEvent fields our handlers read; `locals.user` says who is calling.
+ */
+import { isHttpError, isRedirect, isActionFailure } from '@sveltejs/kit';
+import { eq } from 'drizzle-orm';
+import { openDatabase, type Db } from '$lib/server/db';
+import { useRuntime, startMail } from '$lib/server/runtime';
+import { seedDemo, DEMO_ROLES, demoEmail } from '$lib/server/demo';
+import { findUserByEmail, createUser } from '$lib/server/users';
+import { createTeam } from '$lib/server/teams';
+import { games, type Role } from '$lib/server/db/schema';
+
+export type Who = Role | 'anonymous' | 'outsider';
+export const EVERYONE: Who[] = [...DEMO_ROLES, 'anonymous', 'outsider'];
+
+export interface Caller {
+	id: string;
+	email: string;
+	name: string;
+}
+
+export interface World {
+	db: Db;
+	teamId: string;
+	gameId: string;
+	outsiderTeamId: string;
+	callers: Record<Who, Caller | null>;
+	close: () => Promise<void>;
+}
+
+export async function openWorld(): Promise<World> {
+	const database = await openDatabase(null);
+	const mail = await startMail(database.db, null);
+	useRuntime(database, true);
+	await seedDemo(database.db);
+	const callers = { anonymous: null } as Record<Who, Caller | null>;
+	for (const role of DEMO_ROLES) {
+		const u = (await findUserByEmail(database.db, demoEmail(role)))!;
+		callers[role] = { id: u.id, email: u.email, name: u.name };
+	}
+	const outsider = await createUser(database.db, {
+		email: 'outsider@elsewhere.test',
+		name: 'Out Sider',
+		password: 'outsider-pass-1'
+	});
+	callers.outsider = { id: outsider.id, email: outsider.email, name: outsider.name };
+	const outsiderTeam = await createTeam(database.db, outsider.id, 'Elsewhere Games');
+	const [game] = await database.db.select().from(games);
+	return {
+		db: database.db,
+		teamId: game.teamId,
+		gameId: game.id,
+		outsiderTeamId: outsiderTeam.id,
+		callers,
+		close: async () => {
+			await mail.stop?.();
+			await database.close();
+		}
+	};
+}
+
+interface Call {
+	method?: string;
+	path?: string;
+	params?: Record<string, string>;
+	json?: unknown;
+	form?: Record<string, string>;
+	body?: BodyInit;
+	headers?: Record<string, string>;
+}
+
+export function fakeEvent(user: Caller | null, call: Call = {}) {
+	const url = new URL(call.path ?? '/', 'http://localhost:3000');
+	const headers = new Headers(call.headers);
+	let body: BodyInit | undefined = call.body;
+	if (call.json !== undefined) {
+		headers.set('content-type', 'application/json');
+		body = JSON.stringify(call.json);
+	} else if (call.form) {
+		const fd = new FormData();
+		for (const [k, v] of Object.entries(call.form)) fd.set(k, v);
+		body = fd;
+	}
+	const jar = new Map<string, string>();
+	return {
+		request: new Request(url, { method: call.method ?? (body ? 'POST' : 'GET'), headers, body }),
+		url,
+		params: call.params ?? {},
+		route: { id: null },
+		locals: { user, via: user ? ('cookie' as const) : undefined, auth: async () => null },
+		cookies: {
+			get: (n: string) => jar.get(n),
+			getAll: () => [...jar].map(([name, value]) => ({ name, value })),
+			set: (n: string, v: string) => void jar.set(n, v),
+			delete: (n: string) => void jar.delete(n),
+			serialize: () => ''
+		},
+		getClientAddress: () => '127.0.0.1',
+		setHeaders: () => {},
+		fetch,
+		platform: undefined,
+		isDataRequest: false,
+		isSubRequest: false,
+		isRemoteRequest: false,
+		tracing: { enabled: false, root: {}, current: {} }
+	};
+}
+
+/** Runs a load, action or API handler and reports the HTTP status it amounts to. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export async function statusOf(run: () => Promise<any>): Promise<number> {
+	try {
+		const result = await run();
+		if (result instanceof Response) return result.status;
+		if (isActionFailure(result)) return result.status;
+		return 200;
+	} catch (e) {
+		if (isHttpError(e)) return e.status;
+		if (isRedirect(e)) return e.status;
+		throw e;
+	}
+}
+
+export async function gameOf(db: Db, id: string) {
+	const [g] = await db.select().from(games).where(eq(games.id, id));
+	return g;
+}
