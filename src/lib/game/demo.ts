@@ -63,7 +63,7 @@ export const DEMO_MONEY_TABLES: MoneyTable[] = [
 const poker = cardSize('poker');
 const paper = '#f7f3e8';
 const ink = '#2b2620';
-const backArt = { mode: 'shared', template: 'back-art', params: {}, artSlot: 'backArt' } as const;
+const backArt = { mode: 'shared', template: 'back', params: {}, artSlot: 'backArt' } as const;
 
 export const DEMO_KINDS: CardKind[] = [
 	{
@@ -73,7 +73,7 @@ export const DEMO_KINDS: CardKind[] = [
 		size: poker,
 		bleed: 'metric',
 		template: 'movement',
-		params: { backgroundHex: paper, inkHex: ink, frameMm: 1.2, cornerRadiusMm: 3, titlePt: 14, bodyPt: 9, show: { portrait: true, symbol: true } },
+		params: { backgroundHex: paper, inkHex: ink, frameMm: 1.2, cornerRadiusMm: 3, titlePt: 14, bodyPt: 9, show: { art: true } },
 		back: backArt,
 		fields: [],
 		artSlots: ['portrait', 'backArt']
@@ -98,7 +98,7 @@ export const DEMO_KINDS: CardKind[] = [
 		size: cardSize('bridge'),
 		bleed: 'metric',
 		template: 'wager',
-		params: { backgroundHex: paper, inkHex: ink, accentHex: '#d9a441', frameMm: 1, cornerRadiusMm: 3, titlePt: 12, bodyPt: 8, show: { portrait: true, moneyTable: true, tier: true } },
+		params: { backgroundHex: paper, inkHex: ink, accentHex: '#d9a441', frameMm: 1, cornerRadiusMm: 3, titlePt: 12, bodyPt: 8, show: { art: true, tier: true } },
 		back: backArt,
 		fields: [],
 		artSlots: ['portrait', 'backArt']
@@ -133,8 +133,9 @@ export const DEMO_KINDS: CardKind[] = [
 		type: 'custom',
 		size: poker,
 		bleed: 'metric',
-		template: 'aid',
-		params: { backgroundHex: paper, inkHex: ink, frameMm: 1, cornerRadiusMm: 3, titlePt: 13, bodyPt: 8.5 },
+		template: 'custom',
+		// The aid's text needs the whole face: no picture on the front.
+		params: { backgroundHex: paper, inkHex: ink, frameMm: 1, cornerRadiusMm: 3, titlePt: 13, bodyPt: 8.5, show: { art: false, labels: false } },
 		back: backArt,
 		fields: ['title', 'body'],
 		artSlots: ['backArt']
@@ -146,9 +147,9 @@ export const DEMO_KINDS: CardKind[] = [
 		size: cardSize('tarot', true),
 		bleed: 'metric',
 		template: 'tile-front',
-		params: { backgroundHex: '#7a5a3a', inkHex: '#fdf8ec', frameMm: 0, cornerRadiusMm: 0, titlePt: 18, bodyPt: 9 },
+		params: { backgroundHex: '#cdb083', frameMm: 0, cornerRadiusMm: 0 },
 		// Double-sided: each tile's back shows its own reverse side.
-		back: { mode: 'per-card', template: 'tile-back', params: { backgroundHex: '#6a4d31', inkHex: '#fdf8ec' } },
+		back: { mode: 'per-card', template: 'tile-back', params: { backgroundHex: '#bb9868' } },
 		fields: [],
 		artSlots: ['ground']
 	}
