@@ -11,6 +11,10 @@ import { seedDemo, DEMO_ROLES, demoEmail } from '$lib/server/demo';
 import { findUserByEmail, createUser } from '$lib/server/users';
 import { createTeam } from '$lib/server/teams';
 import { games, type Role } from '$lib/server/db/schema';
+import { useArtRoot } from '$lib/server/art-files';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 
 export type Who = Role | 'anonymous' | 'outsider';
 export const EVERYONE: Who[] = [...DEMO_ROLES, 'anonymous', 'outsider'];
@@ -31,6 +35,7 @@ export interface World {
 }
 
 export async function openWorld(): Promise<World> {
+	useArtRoot(mkdtempSync(join(tmpdir(), 'paddock-art-')));
 	const database = await openDatabase(null);
 	const mail = await startMail(database.db, null);
 	useRuntime(database, true);
@@ -110,7 +115,7 @@ export function fakeEvent(user: Caller | null, call: Call = {}) {
 
 /** Runs a load, action or API handler and reports the HTTP status it amounts to. */
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
-export async function statusOf(run: () => Promise<any>): Promise<number> {
+export async function statusOf(run: () => unknown): Promise<number> {
 	try {
 		const result = await run();
 		if (result instanceof Response) return result.status;

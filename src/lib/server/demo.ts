@@ -7,7 +7,8 @@ import type { Db } from './db';
 import { users, memberships, type Role } from './db/schema';
 import { createUser } from './users';
 import { createTeam } from './teams';
-import { createGame } from './games';
+import { createGameFrom } from './game-io';
+import { demoGameWithArt } from '$lib/game/demo-art';
 
 export const DEMO_PASSWORD = 'paddock-demo';
 export const DEMO_ROLES: Role[] = ['owner', 'designer', 'artist', 'printer', 'reviewer'];
@@ -33,6 +34,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
 	for (const role of DEMO_ROLES.filter((r) => r !== 'owner')) {
 		await db.insert(memberships).values({ teamId: team.id, userId: accounts.get(role)!, role });
 	}
-	await createGame(db, { teamId: team.id, name: 'Slowpoke Meadow Derby', userId: accounts.get('designer')! });
+	const { game, art } = await demoGameWithArt();
+	await createGameFrom(db, { teamId: team.id, userId: accounts.get('designer')!, game, art });
 	return true;
 }

@@ -164,3 +164,73 @@ export const caughtMail = pgTable('caught_mail', {
 	text: text('text').notNull(),
 	createdAt: createdAt()
 });
+
+/* ------------------------------------------------------------- game content */
+
+/** The collections of a game's editable objects; each object is validated by its zod schema. */
+export const COLLECTIONS = ['runner', 'moneyTable', 'kind', 'card', 'art'] as const;
+export type Collection = (typeof COLLECTIONS)[number];
+
+/**
+ * One editable object of a game (a runner, money table, card kind, card or art asset) as the
+ * JSON its schema in src/lib/game/model.ts describes. `version` guards against lost updates:
+ * a save names the version it was based on and is refused when the row has moved on.
+ */
+export const gameObjects = pgTable(
+	'game_objects',
+	{
+		gameId: uuid('game_id')
+			.notNull()
+			.references(() => games.id, { onDelete: 'cascade' }),
+		collection: text('collection', { enum: COLLECTIONS }).notNull(),
+		id: text('id').notNull(),
+		/** Order within the collection, as the designer arranged it. */
+		position: integer('position').notNull().default(0),
+		data: jsonb('data').$type<Record<string, unknown>>().notNull(),
+		version: integer('version').notNull().default(1),
+		updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [primaryKey({ columns: [t.gameId, t.collection, t.id] })]
+);
+
+/** Game-wide settings that are not objects of their own (the rogue runner). */
+export const gameSettings = pgTable('game_settings', {
+	gameId: uuid('game_id')
+		.primaryKey()
+		.references(() => games.id, { onDelete: 'cascade' }),
+	data: jsonb('data').$type<Record<string, unknown>>().notNull().default({}),
+	version: integer('version').notNull().default(1)
+});
+
+/** Art files, content-addressed: the bytes live under the data directory, named by SHA-256. */
+export const artFiles = pgTable('art_files', {
+	sha256: text('sha256').primaryKey(),
+	mime: text('mime').notNull(),
+	bytes: integer('bytes').notNull(),
+	widthPx: integer('width_px').notNull(),
+	heightPx: integer('height_px').notNull(),
+	dpiX: integer('dpi_x'),
+	dpiY: integer('dpi_y'),
+	createdAt: createdAt()
+});
+
+/** Every file an art asset has had; replacing art adds a row and keeps the earlier ones. */
+export const artVersions = pgTable(
+	'art_versions',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		gameId: uuid('game_id')
+			.notNull()
+			.references(() => games.id, { onDelete: 'cascade' }),
+		artId: text('art_id').notNull(),
+		number: integer('number').notNull(),
+		sha256: text('sha256')
+			.notNull()
+			.references(() => artFiles.sha256),
+		fileName: text('file_name').notNull(),
+		uploadedBy: uuid('uploaded_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: createdAt()
+	},
+	(t) => [uniqueIndex('art_versions_number').on(t.gameId, t.artId, t.number)]
+);

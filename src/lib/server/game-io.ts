@@ -1,0 +1,69 @@
+/** Whole games in and out: the demo seed, bundle export and bundle import. */
+import { eq } from 'drizzle-orm';
+import type { Db } from './db';
+import { artVersions } from './db/schema';
+import { readBundle, writeBundle } from '$lib/game/bundle';
+import type { Game } from '$lib/game/model';
+import { createGame, type Game as GameRow } from './games';
+import { loadGame, writeGameContent, gameProblems, StoreError } from './game-store';
+import { storeArtFile, readArtFile } from './art-files';
+import { logActivity } from './activity';
+
+/** Creates a game in the team from a whole document and its art bytes (by SHA-256). */
+export async function createGameFrom(
+	db: Db,
+	input: { teamId: string; userId: string; game: Game; art: Map<string, Uint8Array> }
+): Promise<GameRow> {
+	const problems = gameProblems(input.game);
+	if (problems.length) throw new StoreError(400, `The game has problems: ${problems.slice(0, 5).join('; ')}`);
+	for (const asset of input.game.art) {
+		if (!input.art.has(asset.sha256)) throw new StoreError(400, `Art file ${asset.fileName} is missing`);
+	}
+	// Files first: they are content-addressed, so a failed import leaves nothing that points at them.
+	for (const asset of input.game.art) {
+		await storeArtFile(db, input.art.get(asset.sha256)!, asset);
+	}
+	return db.transaction(async (tx) => {
+		const t = tx as unknown as Db;
+		const row = await createGame(t, {
+			teamId: input.teamId,
+			name: input.game.name,
+			userId: input.userId,
+			bleedStandard: input.game.bleedStandard,
+			defaultCardSize: input.game.defaultSize.preset === 'custom' ? 'poker' : input.game.defaultSize.preset
+		});
+		await writeGameContent(t, row.id, input.game, input.userId);
+		if (input.game.art.length) {
+			await tx.insert(artVersions).values(
+				input.game.art.map((a) => ({
+					gameId: row.id,
+					artId: a.id,
+					number: 1,
+					sha256: a.sha256,
+					fileName: a.fileName,
+					uploadedBy: input.userId
+				}))
+			);
+		}
+		return row;
+	});
+}
+
+export async function exportBundle(db: Db, gameId: string): Promise<{ game: Game; zip: Uint8Array }> {
+	const game = await loadGame(db, gameId);
+	const art = new Map<string, Uint8Array>();
+	for (const asset of game.art) art.set(asset.sha256, await readArtFile(asset.sha256));
+	return { game, zip: writeBundle(game, art) };
+}
+
+/** Imports a bundle as a new game of the team; a damaged or foreign zip throws BundleError. */
+export async function importBundle(db: Db, input: { teamId: string; userId: string; zip: Uint8Array }) {
+	const { game, art } = readBundle(input.zip);
+	const row = await createGameFrom(db, { teamId: input.teamId, userId: input.userId, game, art });
+	await logActivity(db, { teamId: input.teamId, gameId: row.id, userId: input.userId, action: 'game.imported', detail: { name: game.name } });
+	return row;
+}
+
+export async function artHistory(db: Db, gameId: string) {
+	return db.select().from(artVersions).where(eq(artVersions.gameId, gameId));
+}

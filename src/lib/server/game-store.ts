@@ -1,0 +1,297 @@
+/**
+ * A game's objects in the database, assembled into the `Game` of src/lib/game/model.ts and
+ * saved back one object at a time. Every save names the version it was based on; a save from
+ * a stale form is refused (409) and the newer data kept. Every change is checked against the
+ * whole game (references between objects) before it is written.
+ */
+import { and, asc, eq, max, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import type { Db } from './db';
+import { games, gameObjects, gameSettings, type Collection } from './db/schema';
+import {
+	ArtAssetSchema,
+	CardKindSchema,
+	CardSchema,
+	GAME_FORMAT_VERSION,
+	MoneyTableSchema,
+	RogueRunnerSchema,
+	RunnerSchema,
+	findReferenceProblems,
+	validateMoneyTable,
+	type Game
+} from '$lib/game/model';
+import { logActivity } from './activity';
+
+export const OBJECT_SCHEMAS = {
+	runner: RunnerSchema,
+	moneyTable: MoneyTableSchema,
+	kind: CardKindSchema,
+	card: CardSchema,
+	art: ArtAssetSchema
+} as const satisfies Record<Collection, z.ZodType>;
+
+export type ObjectOf<C extends Collection> = z.infer<(typeof OBJECT_SCHEMAS)[C]>;
+
+/** Where each collection sits in the Game document. */
+const FIELD: Record<Collection, 'runners' | 'moneyTables' | 'kinds' | 'cards' | 'art'> = {
+	runner: 'runners',
+	moneyTable: 'moneyTables',
+	kind: 'kinds',
+	card: 'cards',
+	art: 'art'
+};
+
+export const SettingsSchema = z.object({ rogueRunner: RogueRunnerSchema.optional() });
+
+/** A refusal with an HTTP status and a message for people; `current` is the newer object on 409. */
+export class StoreError extends Error {
+	constructor(
+		readonly status: 400 | 404 | 409,
+		message: string,
+		readonly current?: unknown
+	) {
+		super(message);
+	}
+}
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+type Conn = Db | Tx;
+
+/** The whole game as one document, each object carrying its row version. */
+export async function loadGame(db: Conn, gameId: string): Promise<Game> {
+	const [game] = await db.select().from(games).where(eq(games.id, gameId));
+	if (!game) throw new StoreError(404, 'No such game');
+	const [settings] = await db.select().from(gameSettings).where(eq(gameSettings.gameId, gameId));
+	const rows = await db
+		.select()
+		.from(gameObjects)
+		.where(eq(gameObjects.gameId, gameId))
+		.orderBy(asc(gameObjects.position), asc(gameObjects.id));
+	const doc: Game = {
+		formatVersion: GAME_FORMAT_VERSION,
+		name: game.name,
+		slug: game.slug,
+		bleedStandard: game.bleedStandard,
+		defaultSize: defaultSizeOf(game.defaultCardSize),
+		runners: [],
+		moneyTables: [],
+		kinds: [],
+		cards: [],
+		art: [],
+		version: game.version
+	};
+	const rogue = settings ? SettingsSchema.parse(settings.data).rogueRunner : undefined;
+	if (rogue) doc.rogueRunner = rogue;
+	for (const row of rows) {
+		(doc[FIELD[row.collection]] as unknown[]).push({ ...row.data, version: row.version });
+	}
+	return doc;
+}
+
+function defaultSizeOf(preset: string): Game['defaultSize'] {
+	const sizes: Record<string, [number, number]> = {
+		poker: [63.5, 88.9],
+		bridge: [57.15, 88.9],
+		mini: [44, 68],
+		tarot: [70, 120],
+		square: [70, 70]
+	};
+	const [widthMm, heightMm] = sizes[preset] ?? sizes.poker;
+	return { preset: (preset in sizes ? preset : 'poker') as 'poker', widthMm, heightMm };
+}
+
+/** Problems that would break the game: broken references, money tables missing a place. */
+export function gameProblems(game: Game): string[] {
+	const problems = findReferenceProblems(game).map((p) => p.message);
+	const field = game.runners.length;
+	if (field > 0) {
+		for (const table of game.moneyTables) {
+			const check = validateMoneyTable(table, field);
+			problems.push(...check.problems.filter((p) => p.severity === 'error').map((p) => p.message));
+		}
+	}
+	return problems;
+}
+
+function parseObject<C extends Collection>(collection: C, value: unknown): ObjectOf<C> {
+	const parsed = OBJECT_SCHEMAS[collection].safeParse(value);
+	if (!parsed.success) {
+		throw new StoreError(
+			400,
+			parsed.error.issues
+				.slice(0, 5)
+				.map((i) => `${i.path.join('.') || collection}: ${i.message}`)
+				.join('; ')
+		);
+	}
+	return parsed.data as ObjectOf<C>;
+}
+
+function stripVersion<T extends { version?: number }>(obj: T): Omit<T, 'version'> {
+	const { version: _version, ...rest } = obj;
+	return rest;
+}
+
+async function touchGame(tx: Conn, gameId: string) {
+	await tx
+		.update(games)
+		.set({ version: sql`${games.version} + 1`, updatedAt: new Date() })
+		.where(eq(games.id, gameId));
+}
+
+export interface Change {
+	collection: Collection;
+	/** The object to write; absent with `remove`. */
+	object?: unknown;
+	id: string;
+	/** The version the caller saw; null for a new object; undefined skips the check (imports). */
+	baseVersion?: number | null;
+	remove?: boolean;
+}
+
+/**
+ * Applies changes in one transaction: each is validated, version-checked and written; then the
+ * game as a whole is checked. Anything wrong and nothing is written.
+ */
+export async function applyChanges(
+	db: Db,
+	gameId: string,
+	changes: Change[],
+	by: { userId: string; teamId: string; action: string }
+): Promise<Game> {
+	return db.transaction(async (tx) => {
+		for (const change of changes) {
+			const [row] = await tx
+				.select()
+				.from(gameObjects)
+				.where(
+					and(
+						eq(gameObjects.gameId, gameId),
+						eq(gameObjects.collection, change.collection),
+						eq(gameObjects.id, change.id)
+					)
+				)
+				.for('update');
+			if (change.baseVersion !== undefined) {
+				if (change.baseVersion === null && row) {
+					throw new StoreError(409, `A ${change.collection} with id ${change.id} exists already`, {
+						...row.data,
+						version: row.version
+					});
+				}
+				if (change.baseVersion !== null && !row) {
+					throw new StoreError(404, `No ${change.collection} with id ${change.id}`);
+				}
+				if (row && change.baseVersion !== null && row.version !== change.baseVersion) {
+					throw new StoreError(
+						409,
+						`Someone saved this ${change.collection} after you opened it (your version ${change.baseVersion}, now ${row.version}). Your changes were not saved; reload to see theirs.`,
+						{ ...row.data, version: row.version }
+					);
+				}
+			}
+			if (change.remove) {
+				if (!row) throw new StoreError(404, `No ${change.collection} with id ${change.id}`);
+				await tx
+					.delete(gameObjects)
+					.where(
+						and(
+							eq(gameObjects.gameId, gameId),
+							eq(gameObjects.collection, change.collection),
+							eq(gameObjects.id, change.id)
+						)
+					);
+				continue;
+			}
+			const object = parseObject(change.collection, change.object);
+			if (object.id !== change.id) throw new StoreError(400, 'The id in the body differs from the id in the path');
+			const data = stripVersion(object) as Record<string, unknown>;
+			if (row) {
+				await tx
+					.update(gameObjects)
+					.set({ data, version: row.version + 1, updatedBy: by.userId, updatedAt: new Date() })
+					.where(
+						and(
+							eq(gameObjects.gameId, gameId),
+							eq(gameObjects.collection, change.collection),
+							eq(gameObjects.id, change.id)
+						)
+					);
+			} else {
+				const [{ last }] = await tx
+					.select({ last: max(gameObjects.position) })
+					.from(gameObjects)
+					.where(and(eq(gameObjects.gameId, gameId), eq(gameObjects.collection, change.collection)));
+				await tx.insert(gameObjects).values({
+					gameId,
+					collection: change.collection,
+					id: change.id,
+					position: (last ?? -1) + 1,
+					data,
+					updatedBy: by.userId
+				});
+			}
+		}
+		const game = await loadGame(tx, gameId);
+		const problems = gameProblems(game);
+		if (problems.length) {
+			throw new StoreError(400, problems.slice(0, 5).join('; ') + (problems.length > 5 ? ` (and ${problems.length - 5} more)` : ''));
+		}
+		await touchGame(tx, gameId);
+		await logActivity(tx as unknown as Db, {
+			teamId: by.teamId,
+			gameId,
+			userId: by.userId,
+			action: by.action,
+			detail: { changes: changes.length, ids: changes.slice(0, 20).map((c) => `${c.collection}:${c.id}`) }
+		});
+		return { ...game, version: game.version! + 1 };
+	});
+}
+
+/** Replaces the game's settings (the rogue runner), version-checked like an object. */
+export async function saveSettings(
+	db: Db,
+	gameId: string,
+	settings: z.infer<typeof SettingsSchema>,
+	baseVersion: number | null,
+	by: { userId: string; teamId: string }
+) {
+	return db.transaction(async (tx) => {
+		const [row] = await tx.select().from(gameSettings).where(eq(gameSettings.gameId, gameId)).for('update');
+		const current = row?.version ?? 0;
+		if (baseVersion !== null && baseVersion !== current) {
+			throw new StoreError(409, 'Someone changed these settings after you opened them; reload to see theirs.');
+		}
+		if (row) {
+			await tx.update(gameSettings).set({ data: settings, version: current + 1 }).where(eq(gameSettings.gameId, gameId));
+		} else {
+			await tx.insert(gameSettings).values({ gameId, data: settings, version: 1 });
+		}
+		const game = await loadGame(tx, gameId);
+		const problems = gameProblems(game);
+		if (problems.length) throw new StoreError(400, problems.slice(0, 5).join('; '));
+		await touchGame(tx, gameId);
+		await logActivity(tx as unknown as Db, { teamId: by.teamId, gameId, userId: by.userId, action: 'game.settings' });
+	});
+}
+
+/** Writes a whole game document into an existing (empty) game: the import and seed path. */
+export async function writeGameContent(db: Db, gameId: string, game: Game, userId: string | null) {
+	await db.transaction(async (tx) => {
+		if (game.rogueRunner) {
+			await tx.insert(gameSettings).values({ gameId, data: { rogueRunner: game.rogueRunner } });
+		}
+		const rows = (Object.keys(FIELD) as Collection[]).flatMap((collection) =>
+			(game[FIELD[collection]] as { id: string; version?: number }[]).map((obj, position) => ({
+				gameId,
+				collection,
+				id: obj.id,
+				position,
+				data: stripVersion(obj) as Record<string, unknown>,
+				updatedBy: userId
+			}))
+		);
+		for (let i = 0; i < rows.length; i += 200) await tx.insert(gameObjects).values(rows.slice(i, i + 200));
+	});
+}

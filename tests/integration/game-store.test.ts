@@ -1,0 +1,75 @@
+/**
+ * The game store: the demo game round-trips through the database, stale saves are refused and
+ * keep the newer data, broken references are refused, and bundles import exactly.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { openWorld, type World } from './harness';
+import { loadGame, applyChanges, StoreError } from '$lib/server/game-store';
+import { exportBundle, importBundle } from '$lib/server/game-io';
+import { demoGame } from '$lib/game/demo';
+import { BundleError } from '$lib/game/bundle';
+import { games } from '$lib/server/db/schema';
+import { zipSync, strToU8 } from 'fflate';
+
+let w: World;
+beforeAll(async () => {
+	w = await openWorld();
+});
+afterAll(async () => w?.close());
+
+const strip = <T>(g: T): T => JSON.parse(JSON.stringify(g, (k, v) => (k === 'version' ? undefined : v)));
+
+describe('game store', () => {
+	it('holds the demo game exactly as the model made it', async () => {
+		const stored = await loadGame(w.db, w.gameId);
+		const made = demoGame();
+		expect(strip(stored.runners)).toEqual(strip(made.runners));
+		expect(strip(stored.cards)).toEqual(strip(made.cards));
+		expect(strip(stored.kinds)).toEqual(strip(made.kinds));
+		expect(stored.rogueRunner?.name).toBe(made.rogueRunner?.name);
+		expect(stored.art.length).toBeGreaterThan(0);
+	});
+
+	it('refuses a stale save and keeps the newer data', async () => {
+		const by = { userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' };
+		const game = await loadGame(w.db, w.gameId);
+		const table = game.moneyTables[0];
+		const v = table.version!;
+		await applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: table.id, baseVersion: v, object: { ...table, name: 'Tab one' } }], by);
+		const stale = applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: table.id, baseVersion: v, object: { ...table, name: 'Tab two' } }], by);
+		await expect(stale).rejects.toMatchObject({ status: 409 });
+		const after = await loadGame(w.db, w.gameId);
+		expect(after.moneyTables[0].name).toBe('Tab one');
+		expect(after.moneyTables[0].version).toBe(v + 1);
+	});
+
+	it('refuses a change that breaks a reference, writing nothing', async () => {
+		const by = { userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' };
+		const before = await loadGame(w.db, w.gameId);
+		const runner = before.runners[0];
+		const removal = applyChanges(w.db, w.gameId, [{ collection: 'runner', id: runner.id, baseVersion: runner.version!, remove: true }], by);
+		await expect(removal).rejects.toBeInstanceOf(StoreError);
+		const after = await loadGame(w.db, w.gameId);
+		expect(after.runners).toHaveLength(before.runners.length);
+		expect(after.version).toBe(before.version);
+	});
+
+	it('exports a bundle that imports into another team as the same game', async () => {
+		const { game, zip } = await exportBundle(w.db, w.gameId);
+		const row = await importBundle(w.db, { teamId: w.outsiderTeamId, userId: w.callers.outsider!.id, zip });
+		const copy = await loadGame(w.db, row.id);
+		expect(strip({ ...copy, slug: 'x' })).toEqual(strip({ ...game, slug: 'x' }));
+		const again = await exportBundle(w.db, row.id);
+		expect(again.game.cards).toHaveLength(game.cards.length);
+	});
+
+	it('refuses a damaged or foreign zip and creates nothing', async () => {
+		const { zip } = await exportBundle(w.db, w.gameId);
+		const before = (await w.db.select().from(games)).length;
+		const by = { teamId: w.teamId, userId: w.callers.designer!.id };
+		await expect(importBundle(w.db, { ...by, zip: zip.slice(0, zip.length - 100) })).rejects.toBeInstanceOf(BundleError);
+		const foreign = zipSync({ 'readme.txt': strToU8('not a game') });
+		await expect(importBundle(w.db, { ...by, zip: foreign })).rejects.toThrow(/game/i);
+		expect((await w.db.select().from(games)).length).toBe(before);
+	});
+});
