@@ -146,45 +146,46 @@ function placeLabel(
 	const marksX = [...(cropMarks ? imp.cutsXMm : []), ...(imp.layout === 'fold' ? imp.foldsXMm : [])].sort((a, b) => a - b);
 	const hasMarks = marksX.length > 0;
 
-	for (const candidate of text.texts)
-	for (const sizePt of LABEL_SIZES_PT) {
-		const emMm = sizePt / PT_PER_MM;
-		const heightMm = (ASCENT_EM + DESCENT_EM) * emMm;
-		const widthMm = text.widthMm(candidate, sizePt);
-		if (widthMm > W - 2 * m) continue;
-		const at = (band: Band, xMm: number): SheetLabel => ({
-			text: candidate,
-			xMm,
-			// Sit on the printable edge of the band (the edge farthest from the cards).
-			baselineMm: band.side === 'bottom' ? band.endMm - DESCENT_EM * emMm : band.endMm + ASCENT_EM * emMm,
-			sizePt
-		});
-		const centred = Math.min(Math.max((W - widthMm) / 2, m), W - m - widthMm);
-		// 1. Beyond full-length marks.
-		for (const band of bands) {
-			const depth = room[band.side];
-			if (depth >= heightMm + (hasMarks ? CROP_MARK.lengthMm + CLEARANCE_MM : 0)) return at(band, centred);
-		}
-		// 2. Between two marks, marks kept whole.
-		for (const band of bands) {
-			if (room[band.side] < heightMm) continue;
-			const stops = [m, ...marksX, W - m];
-			// The widest gap between marks; of equal ones, the one nearest the middle of the sheet.
-			let best = { from: 0, to: 0 };
-			const offCentre = (a: number, b: number) => Math.abs((a + b) / 2 - W / 2);
-			for (let i = 1; i < stops.length; i++) {
-				const [from, to] = [stops[i - 1], stops[i]];
-				const wider = to - from - (best.to - best.from);
-				if (wider > 1e-6 || (wider > -1e-6 && offCentre(from, to) < offCentre(best.from, best.to))) best = { from, to };
+	for (const candidate of text.texts) {
+		for (const sizePt of LABEL_SIZES_PT) {
+			const emMm = sizePt / PT_PER_MM;
+			const heightMm = (ASCENT_EM + DESCENT_EM) * emMm;
+			const widthMm = text.widthMm(candidate, sizePt);
+			if (widthMm > W - 2 * m) continue;
+			const at = (band: Band, xMm: number): SheetLabel => ({
+				text: candidate,
+				xMm,
+				// Sit on the printable edge of the band (the edge farthest from the cards).
+				baselineMm: band.side === 'bottom' ? band.endMm - DESCENT_EM * emMm : band.endMm + ASCENT_EM * emMm,
+				sizePt
+			});
+			const centred = Math.min(Math.max((W - widthMm) / 2, m), W - m - widthMm);
+			// 1. Beyond full-length marks.
+			for (const band of bands) {
+				const depth = room[band.side];
+				if (depth >= heightMm + (hasMarks ? CROP_MARK.lengthMm + CLEARANCE_MM : 0)) return at(band, centred);
 			}
-			if (best.to - best.from >= widthMm + 2 * CLEARANCE_MM) return at(band, (best.from + best.to - widthMm) / 2);
-		}
-		// 3. Beyond shortened marks.
-		for (const band of bands) {
-			const depth = room[band.side];
-			if (depth >= heightMm + CLEARANCE_MM + CROP_MARK.minLengthMm) {
-				limit[band.side] = depth - heightMm - CLEARANCE_MM;
-				return at(band, centred);
+			// 2. Between two marks, marks kept whole.
+			for (const band of bands) {
+				if (room[band.side] < heightMm) continue;
+				const stops = [m, ...marksX, W - m];
+				// The widest gap between marks; of equal ones, the one nearest the middle of the sheet.
+				let best = { from: 0, to: 0 };
+				const offCentre = (a: number, b: number) => Math.abs((a + b) / 2 - W / 2);
+				for (let i = 1; i < stops.length; i++) {
+					const [from, to] = [stops[i - 1], stops[i]];
+					const wider = to - from - (best.to - best.from);
+					if (wider > 1e-6 || (wider > -1e-6 && offCentre(from, to) < offCentre(best.from, best.to))) best = { from, to };
+				}
+				if (best.to - best.from >= widthMm + 2 * CLEARANCE_MM) return at(band, (best.from + best.to - widthMm) / 2);
+			}
+			// 3. Beyond shortened marks.
+			for (const band of bands) {
+				const depth = room[band.side];
+				if (depth >= heightMm + CLEARANCE_MM + CROP_MARK.minLengthMm) {
+					limit[band.side] = depth - heightMm - CLEARANCE_MM;
+					return at(band, centred);
+				}
 			}
 		}
 	}

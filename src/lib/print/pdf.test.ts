@@ -7,6 +7,7 @@ import { loadFonts } from './fonts';
 import { mmToPt } from './paper';
 import { decodePng, writePixelImage } from './pdf-image';
 import { hexToCmyk, PdfFaceWriter } from './pdf';
+import { renderFacePng } from './png';
 import { pdftotext, greyAtMm, inkedPixelsMm, meanGreyMm, qpdfCheck, qpdfContents, qpdfJson, rasterGrey } from './testing/poppler';
 
 const black = { hex: '#000000' };
@@ -160,6 +161,32 @@ describe('PDF face backend', () => {
 		expect(cmykText).not.toMatch(/ rg\n/);
 		const rgbText = qpdfContents((await render({ face, colour: 'rgb' })).bytes);
 		expect(rgbText).toMatch(/1 0 0 rg/);
+	});
+
+	it('looks the same as the SVG backend rendered by resvg (mean grey difference under 3 levels)', async () => {
+		const face = sampleFace();
+		const assets = [await jpegAsset(), await halfTransparentPng()];
+		const doc = await PDFDocument.create();
+		const writer = await PdfFaceWriter.create(doc, { fonts: await loadFonts(), images: assets });
+		const wMm = face.trimWidthMm + 2 * face.bleedMm;
+		const hMm = face.trimHeightMm + 2 * face.bleedMm;
+		await writer.drawFace(doc.addPage([mmToPt(wMm), mmToPt(hMm)]), face, { xPt: 0, yPt: 0 });
+		const dpi = 100;
+		const fromPdf = rasterGrey(await doc.save(), 1, dpi);
+		const svgPng = await renderFacePng(face, new Map(assets.map((a) => [a.id, a])), { dpi, background: '#ffffff' });
+		const fromSvg = (await Jimp.read(Buffer.from(svgPng.png))).bitmap;
+		const w = Math.min(fromPdf.width, fromSvg.width);
+		const h = Math.min(fromPdf.height, fromSvg.height);
+		let diff = 0;
+		for (let y = 0; y < h; y++)
+			for (let x = 0; x < w; x++) {
+				const i = (y * fromSvg.width + x) * 4;
+				// ITU-R BT.601 luma, as poppler's grey output uses.
+				const grey = 0.299 * fromSvg.data[i] + 0.587 * fromSvg.data[i + 1] + 0.114 * fromSvg.data[i + 2];
+				diff += Math.abs(grey - fromPdf.data[y * fromPdf.width + x]);
+			}
+		// Edges anti-alias a little differently in the two renderers; the pictures must agree on average.
+		expect(diff / (w * h)).toBeLessThan(3);
 	});
 
 	it('converts hex to CMYK by the complement formula', () => {

@@ -196,7 +196,6 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 				cropMarks: o.marks && planned.side === 'front',
 				label: { texts, widthMm: (t, pt) => labelFont.widthOfTextAtSize(t, pt) / k }
 			});
-			if (planned.side === 'back') marks.lines = [];
 			drawSheetMarks(page, marks, H, { font: labelFont, labelColour });
 		}
 	}
