@@ -21,10 +21,21 @@ import * as newTeamPage from '../../src/routes/(app)/teams/new/+page.server';
 import * as gamePage from '../../src/routes/(app)/games/[gameId=id]/+page.server';
 import * as accountPage from '../../src/routes/(app)/account/+page.server';
 import * as mailPage from '../../src/routes/(app)/mail/+page.server';
+import * as gameApi from '../../src/routes/api/v1/games/[gameId=id]/+server';
+import * as collectionApi from '../../src/routes/api/v1/games/[gameId=id]/[collection=collection]/+server';
+import * as objectApi from '../../src/routes/api/v1/games/[gameId=id]/[collection=collection]/[objectId]/+server';
+import * as bundleApi from '../../src/routes/api/v1/games/[gameId=id]/bundle.zip/+server';
+import * as importApi from '../../src/routes/api/v1/teams/[teamId=id]/games/import/+server';
+import * as deckApi from '../../src/routes/api/v1/games/[gameId=id]/deck-check/+server';
+import * as settingsApi from '../../src/routes/api/v1/games/[gameId=id]/settings/+server';
+import { loadGame, applyChanges } from '$lib/server/game-store';
+import { exportBundle } from '$lib/server/game-io';
 
 let world: World;
+let bundle: Uint8Array;
 beforeAll(async () => {
 	world = await openWorld();
+	bundle = (await exportBundle(world.db, world.gameId)).zip;
 });
 afterAll(async () => world?.close());
 
@@ -41,6 +52,23 @@ const as = (w: World, who: Who, call: Parameters<typeof fakeEvent>[1] = {}) =>
 const signedIn = { anonymous: 401 };
 const members = { anonymous: 401, outsider: 404 };
 const onlyOwner = { owner: 200, designer: 403, artist: 403, printer: 403, reviewer: 403, ...members };
+const readers = { owner: 200, designer: 200, artist: 200, printer: 403, reviewer: 200, ...members };
+const designers = { owner: 200, designer: 200, artist: 403, printer: 403, reviewer: 403, ...members };
+const artEditors = { ...designers, artist: 200 };
+const game = (w: World) => loadGame(w.db, w.gameId);
+const g = (w: World, extra: Record<string, string> = {}) => ({ gameId: w.gameId, ...extra });
+
+/** A throw-away money table, made by the designer, for a caller to delete. */
+async function scratchTable(w: World) {
+	const id = `scratch-${randomUUID()}`;
+	await applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id, baseVersion: null, object: { id, name: id, rows: [], otherCoins: 0 } }], {
+		userId: w.callers.designer!.id,
+		teamId: w.teamId,
+		action: 'test'
+	});
+	return id;
+}
+
 const editors = { owner: 303, designer: 303, artist: 403, printer: 403, reviewer: 403, ...members };
 
 const ROWS: Row[] = [
@@ -133,6 +161,84 @@ const ROWS: Row[] = [
 		run: (w, who) => statusOf(() => mailPage.load(as(w, who))),
 		// Owners read caught mail (the outsider owns a team of their own); only their teams' messages.
 		expect: { default: 403, owner: 200, outsider: 200, anonymous: 401 }
+	},
+	{
+		route: 'GET /api/v1/games/{gameId}',
+		run: (w, who) => statusOf(() => gameApi.GET(as(w, who, { params: g(w) }))),
+		expect: { ...readers, default: 200 }
+	},
+	{
+		route: 'GET /api/v1/games/{gameId}/cards',
+		run: (w, who) => statusOf(() => collectionApi.GET(as(w, who, { params: g(w, { collection: 'cards' }) }))),
+		expect: { ...readers, default: 200 }
+	},
+	{
+		route: 'POST /api/v1/games/{gameId}/money-tables',
+		run: (w, who) =>
+			statusOf(() =>
+				collectionApi.POST(
+					as(w, who, { params: g(w, { collection: 'money-tables' }), json: { name: `Table by ${who}`, rows: [{ place: 1, coins: 5 }], otherCoins: -1 } })
+				)
+			),
+		expect: { ...designers, owner: 201, designer: 201, default: 403 }
+	},
+	{
+		route: 'PUT /api/v1/games/{gameId}/runners/{id}',
+		run: async (w, who) => {
+			const runner = (await game(w)).runners[0];
+			return statusOf(() =>
+				objectApi.PUT(as(w, who, { method: 'PUT', params: g(w, { collection: 'runners', objectId: runner.id }), json: { ...runner, name: `${runner.name.slice(0, 20)} ${who}` } }))
+			);
+		},
+		expect: { ...designers, default: 403 }
+	},
+	{
+		route: 'PUT /api/v1/games/{gameId}/art/{id} (status, assignment)',
+		run: async (w, who) => {
+			const art = (await game(w)).art[0];
+			return statusOf(() =>
+				objectApi.PUT(as(w, who, { method: 'PUT', params: g(w, { collection: 'art', objectId: art.id }), json: { ...art, status: 'sketch' } }))
+			);
+		},
+		expect: { ...artEditors, default: 403 }
+	},
+	{
+		route: 'DELETE /api/v1/games/{gameId}/money-tables/{id}',
+		run: async (w, who) => {
+			const id = await scratchTable(w);
+			return statusOf(() =>
+				objectApi.DELETE(as(w, who, { method: 'DELETE', path: '/?version=1', params: g(w, { collection: 'money-tables', objectId: id }) }))
+			);
+		},
+		expect: { ...designers, default: 403 }
+	},
+	{
+		route: 'GET /api/v1/games/{gameId}/bundle.zip',
+		run: (w, who) => statusOf(() => bundleApi.GET(as(w, who, { params: g(w) }))),
+		expect: { ...readers, default: 200 }
+	},
+	{
+		route: 'GET /api/v1/games/{gameId}/deck-check',
+		run: (w, who) => statusOf(() => deckApi.GET(as(w, who, { params: g(w) }))),
+		expect: { ...readers, default: 200 }
+	},
+	{
+		route: 'PUT /api/v1/games/{gameId}/settings',
+		run: async (w, who) => {
+			const rogue = (await game(w)).rogueRunner!;
+			return statusOf(() =>
+				settingsApi.PUT(as(w, who, { method: 'PUT', params: g(w), json: { version: rogue.version, rogueRunner: rogue } }))
+			);
+		},
+		expect: { ...designers, default: 403 }
+	},
+	{
+		route: 'POST /api/v1/teams/{teamId}/games/import',
+		run: (w, who) =>
+			statusOf(() =>
+				importApi.POST(as(w, who, { params: { teamId: w.teamId }, body: bundle, headers: { 'content-type': 'application/zip' } }))
+			),
+		expect: { ...designers, owner: 201, designer: 201, default: 403 }
 	},
 	// These make every caller the owner of a new team, so they come last.
 	{

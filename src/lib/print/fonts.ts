@@ -38,9 +38,12 @@ async function loadOne(weight: FontWeight): Promise<LoadedFont> {
 
 /** Both weights, loaded once per process. */
 export function loadFonts(): Promise<FontSet> {
-	loading ??= Promise.all([loadOne('regular'), loadOne('bold')]).then(([regular, bold]) => ({
-		regular,
-		bold
-	}));
+	// One at a time: wawoff2 returns a view into its wasm heap, which the next call overwrites,
+	// so each result is copied (in loadOne) before the next decompression starts.
+	loading ??= (async () => {
+		const regular = await loadOne('regular');
+		const bold = await loadOne('bold');
+		return { regular, bold };
+	})();
 	return loading;
 }

@@ -51,7 +51,9 @@ export function api<H extends RequestHandler<any, any>>(handler: H): H {
 			if (isRedirect(e)) throw e;
 			// Domain refusals (TeamError and the like) carry a 4xx status and a message for people.
 			if (e instanceof Error && 'status' in e && typeof e.status === 'number' && e.status < 500) {
-				return apiError(e.status, e.message);
+				// A refused stale save carries the newer object, so the client can show it.
+				const current = 'current' in e && e.current !== undefined ? { current: e.current } : undefined;
+				return apiError(e.status, e.message, undefined, current);
 			}
 			console.error(e);
 			return apiError(500, 'Something went wrong on our side');

@@ -33,7 +33,7 @@ export const OBJECT_SCHEMAS = {
 export type ObjectOf<C extends Collection> = z.infer<(typeof OBJECT_SCHEMAS)[C]>;
 
 /** Where each collection sits in the Game document. */
-const FIELD: Record<Collection, 'runners' | 'moneyTables' | 'kinds' | 'cards' | 'art'> = {
+export const COLLECTION_FIELD: Record<Collection, 'runners' | 'moneyTables' | 'kinds' | 'cards' | 'art'> = {
 	runner: 'runners',
 	moneyTable: 'moneyTables',
 	kind: 'kinds',
@@ -81,9 +81,10 @@ export async function loadGame(db: Conn, gameId: string): Promise<Game> {
 		version: game.version
 	};
 	const rogue = settings ? SettingsSchema.parse(settings.data).rogueRunner : undefined;
-	if (rogue) doc.rogueRunner = rogue;
+	// The rogue runner is saved with the settings, so it carries their version.
+	if (rogue) doc.rogueRunner = { ...rogue, version: settings.version };
 	for (const row of rows) {
-		(doc[FIELD[row.collection]] as unknown[]).push({ ...row.data, version: row.version });
+		(doc[COLLECTION_FIELD[row.collection]] as unknown[]).push({ ...row.data, version: row.version });
 	}
 	return doc;
 }
@@ -249,6 +250,9 @@ export async function applyChanges(
 	});
 }
 
+const stripRogueVersion = (s: z.infer<typeof SettingsSchema>) =>
+	s.rogueRunner ? { rogueRunner: stripVersion(s.rogueRunner) } : {};
+
 /** Replaces the game's settings (the rogue runner), version-checked like an object. */
 export async function saveSettings(
 	db: Db,
@@ -264,9 +268,9 @@ export async function saveSettings(
 			throw new StoreError(409, 'Someone changed these settings after you opened them; reload to see theirs.');
 		}
 		if (row) {
-			await tx.update(gameSettings).set({ data: settings, version: current + 1 }).where(eq(gameSettings.gameId, gameId));
+			await tx.update(gameSettings).set({ data: stripRogueVersion(settings), version: current + 1 }).where(eq(gameSettings.gameId, gameId));
 		} else {
-			await tx.insert(gameSettings).values({ gameId, data: settings, version: 1 });
+			await tx.insert(gameSettings).values({ gameId, data: stripRogueVersion(settings), version: 1 });
 		}
 		const game = await loadGame(tx, gameId);
 		const problems = gameProblems(game);
@@ -280,10 +284,10 @@ export async function saveSettings(
 export async function writeGameContent(db: Db, gameId: string, game: Game, userId: string | null) {
 	await db.transaction(async (tx) => {
 		if (game.rogueRunner) {
-			await tx.insert(gameSettings).values({ gameId, data: { rogueRunner: game.rogueRunner } });
+			await tx.insert(gameSettings).values({ gameId, data: { rogueRunner: stripVersion(game.rogueRunner) } });
 		}
-		const rows = (Object.keys(FIELD) as Collection[]).flatMap((collection) =>
-			(game[FIELD[collection]] as { id: string; version?: number }[]).map((obj, position) => ({
+		const rows = (Object.keys(COLLECTION_FIELD) as Collection[]).flatMap((collection) =>
+			(game[COLLECTION_FIELD[collection]] as { id: string; version?: number }[]).map((obj, position) => ({
 				gameId,
 				collection,
 				id: obj.id,

@@ -1,0 +1,41 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { z } from 'zod';
+import { api, readJson } from '$lib/server/api';
+import { requireGameRole } from '$lib/server/guard';
+import { applyChanges, loadGame, COLLECTION_FIELD } from '$lib/server/game-store';
+import type { Collection } from '$lib/server/db/schema';
+import { collectionOf, requireGameEdit } from '$lib/server/game-access';
+import { db } from '$lib/server/runtime';
+import { newId } from '$lib/game/model';
+
+export const GET: RequestHandler = api(async ({ locals, params }) => {
+	const d = await db();
+	const collection = collectionOf(params.collection);
+	await requireGameRole(d, locals, params.gameId, 'game.read');
+	const game = await loadGame(d, params.gameId);
+	if (collection === 'card') {
+		const kinds = new Map(game.kinds.map((k) => [k.id, k]));
+		return json({
+			cards: game.cards.map((c) => ({ ...c, kind: kinds.get(c.kindId)?.type, kindName: kinds.get(c.kindId)?.name }))
+		});
+	}
+	return json({ [COLLECTION_FIELD[collection]]: game[COLLECTION_FIELD[collection]] });
+});
+
+/** Creates an object; the body is the object without version (an id is made when absent). */
+export const POST: RequestHandler = api(async ({ locals, params, request }) => {
+	const d = await db();
+	const collection = collectionOf(params.collection);
+	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
+	const body = await readJson(request, z.looseObject({ id: z.string().optional() }));
+	const id = body.id ?? newId();
+	const after = await applyChanges(
+		d,
+		params.gameId,
+		[{ collection, id, baseVersion: null, object: { ...body, id } }],
+		{ userId: user.id, teamId: game.teamId, action: `${collection}.created` }
+	);
+	const made = (after[COLLECTION_FIELD[collection]] as { id: string }[]).find((o) => o.id === id);
+	return json({ [collection]: made }, { status: 201 });
+});

@@ -1,0 +1,56 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { z } from 'zod';
+import { api, ApiError, readJson } from '$lib/server/api';
+import { requireGameRole } from '$lib/server/guard';
+import { applyChanges, loadGame, COLLECTION_FIELD } from '$lib/server/game-store';
+import type { Collection } from '$lib/server/db/schema';
+import { collectionOf, objectIdParam, requireGameEdit } from '$lib/server/game-access';
+import { db } from '$lib/server/runtime';
+
+async function findObject(gameId: string, collection: Collection, id: string) {
+	const game = await loadGame(await db(), gameId);
+	const found = (game[COLLECTION_FIELD[collection]] as { id: string }[]).find((o) => o.id === id);
+	if (!found) throw new ApiError(404, `No such ${collection}`);
+	return found;
+}
+
+export const GET: RequestHandler = api(async ({ locals, params }) => {
+	const collection = collectionOf(params.collection);
+	const id = objectIdParam(params.objectId);
+	await requireGameRole(await db(), locals, params.gameId, 'game.read');
+	return json({ [collection]: await findObject(params.gameId, collection, id) });
+});
+
+/** Saves an object; `version` in the body is the version the editor started from. */
+export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
+	const d = await db();
+	const collection = collectionOf(params.collection);
+	const id = objectIdParam(params.objectId);
+	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
+	const body = await readJson(request, z.looseObject({ version: z.int().min(0) }));
+	const { version, ...object } = body;
+	const after = await applyChanges(
+		d,
+		params.gameId,
+		[{ collection, id, baseVersion: version, object: { ...object, id } }],
+		{ userId: user.id, teamId: game.teamId, action: `${collection}.saved` }
+	);
+	return json({ [collection]: (after[COLLECTION_FIELD[collection]] as { id: string }[]).find((o) => o.id === id) });
+});
+
+/** Deletes an object; `?version=` is the version the person saw. */
+export const DELETE: RequestHandler = api(async ({ locals, params, url }) => {
+	const d = await db();
+	const collection = collectionOf(params.collection);
+	const id = objectIdParam(params.objectId);
+	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
+	const version = Number(url.searchParams.get('version'));
+	if (!Number.isInteger(version) || version < 1) throw new ApiError(400, 'Say which version you are deleting: ?version=N');
+	await applyChanges(d, params.gameId, [{ collection, id, baseVersion: version, remove: true }], {
+		userId: user.id,
+		teamId: game.teamId,
+		action: `${collection}.deleted`
+	});
+	return json({ ok: true });
+});

@@ -1,0 +1,17 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { z } from 'zod';
+import { api, readJson } from '$lib/server/api';
+import { requireGameRole } from '$lib/server/guard';
+import { saveSettings, SettingsSchema } from '$lib/server/game-store';
+import { db } from '$lib/server/runtime';
+
+/** Game-wide settings: the rogue runner. `version` is the settings version the editor saw (0 if none). */
+export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
+	const d = await db();
+	const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.edit');
+	const body = await readJson(request, SettingsSchema.extend({ version: z.int().min(0) }));
+	const { version, ...settings } = body;
+	await saveSettings(d, params.gameId, settings, version, { userId: user.id, teamId: game.teamId });
+	return json({ ok: true });
+});

@@ -1,0 +1,31 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { api, ApiError, readBody } from '$lib/server/api';
+import { requireRole } from '$lib/server/guard';
+import { importBundle } from '$lib/server/game-io';
+import { BundleError, MAX_BUNDLE_UNCOMPRESSED_BYTES } from '$lib/game/bundle';
+import { db } from '$lib/server/runtime';
+
+/** A game bundle as the request body (application/zip) or as the `file` of a multipart form. */
+export const POST: RequestHandler = api(async ({ locals, params, request }) => {
+	const d = await db();
+	const { user } = await requireRole(d, locals, params.teamId, 'game.create');
+	let zip: Uint8Array;
+	if ((request.headers.get('content-type') ?? '').startsWith('multipart/form-data')) {
+		const declared = Number(request.headers.get('content-length') ?? 0);
+		if (declared > MAX_BUNDLE_UNCOMPRESSED_BYTES) throw new ApiError(413, 'The bundle is too large');
+		const file = (await request.formData()).get('file');
+		if (!(file instanceof File)) throw new ApiError(400, 'Send the bundle as the form field "file"');
+		zip = new Uint8Array(await file.arrayBuffer());
+	} else {
+		zip = await readBody(request, MAX_BUNDLE_UNCOMPRESSED_BYTES);
+	}
+	if (zip.byteLength === 0) throw new ApiError(400, 'The request has no bundle in it');
+	try {
+		const game = await importBundle(d, { teamId: params.teamId, userId: user.id, zip });
+		return json({ id: game.id, name: game.name, slug: game.slug }, { status: 201 });
+	} catch (e) {
+		if (e instanceof BundleError) throw new ApiError(400, e.message, 'bad_bundle');
+		throw e;
+	}
+});
