@@ -1,0 +1,84 @@
+/**
+ * PNG backend: SVG (from ./svg.ts) → PNG through resvg (WebAssembly), with the shipped fonts only.
+ */
+import { readFile } from 'node:fs/promises';
+import { createRequire } from 'node:module';
+import { initWasm, Resvg } from '@resvg/resvg-wasm';
+import { faceWidthMm, type FaceLayout } from './display-list';
+import { FONT_FAMILY, loadFonts } from './fonts';
+import { renderSvg, type ImageSource, type SvgOptions } from './svg';
+
+/** 1 in = 25.4 mm exactly (international inch, 1959). */
+const MM_PER_INCH = 25.4;
+
+let ready: Promise<void> | undefined;
+
+/**
+ * resvg's wasm may be initialised only once per process; every caller here shares this promise.
+ * Another module of the process may have initialised it first, which is just as good.
+ */
+export function resvgReady(): Promise<void> {
+	ready ??= (async () => {
+		const wasmPath = createRequire(import.meta.url).resolve('@resvg/resvg-wasm/index_bg.wasm');
+		try {
+			await initWasm(await readFile(wasmPath));
+		} catch (e) {
+			if (!String((e as Error).message).includes('Already initialized')) throw e;
+		}
+	})();
+	return ready;
+}
+
+/** Pixels across `mm` at `dpi`, rounded to whole pixels. */
+export const mmToPx = (mm: number, dpi: number) => Math.round((mm / MM_PER_INCH) * dpi);
+
+export interface PngOptions {
+	/** Width of the SVG's canvas in mm (the face with its bleed). */
+	widthMm: number;
+	dpi: number;
+	/** CSS colour behind the artwork; transparent unless given. */
+	background?: string;
+}
+
+export interface RenderedPng {
+	png: Uint8Array;
+	widthPx: number;
+	heightPx: number;
+}
+
+/** Rasterise an SVG at `dpi`: the output is round(widthMm / 25.4 × dpi) pixels wide. */
+export async function svgToPng(svg: string, opts: PngOptions): Promise<RenderedPng> {
+	const [, fonts] = await Promise.all([resvgReady(), loadFonts()]);
+	const font = {
+		fontBuffers: [fonts.regular.woff2, fonts.bold.woff2],
+		// Output must never depend on the machine's fonts.
+		loadSystemFonts: false,
+		defaultFontFamily: FONT_FAMILY,
+		serifFamily: FONT_FAMILY
+	};
+	const resvg = new Resvg(svg, {
+		fitTo: { mode: 'width', value: mmToPx(opts.widthMm, opts.dpi) },
+		background: opts.background,
+		font
+	});
+	try {
+		const image = resvg.render();
+		try {
+			return { png: image.asPng(), widthPx: image.width, heightPx: image.height };
+		} finally {
+			image.free();
+		}
+	} finally {
+		resvg.free();
+	}
+}
+
+/** One face (with bleed) as PNG, e.g. the per-card 300 dpi files. */
+export function renderFacePng(
+	face: FaceLayout,
+	images: ImageSource,
+	opts: { dpi: number; svg?: SvgOptions; background?: string }
+): Promise<RenderedPng> {
+	const svg = renderSvg(face, images, opts.svg);
+	return svgToPng(svg, { widthMm: faceWidthMm(face), dpi: opts.dpi, background: opts.background });
+}
