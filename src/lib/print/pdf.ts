@@ -251,9 +251,9 @@ export class PdfFaceWriter {
 			case 'image': {
 				const name = await this.images.nameOn(page, item.imageId);
 				const ops: PDFOperator[] = [pushGraphicsState()];
-				if (item.radiusMm && item.radiusMm > 0) {
-					ops.push(...roundedRectOps(X(item.xMm), Y(item.yMm + item.hMm), item.wMm * k, item.hMm * k, item.radiusMm * k), clip(), endPath());
-				}
+				// Cover-fit images overhang their slot: clip to the slot (or the image's own box).
+				const box = item.clip ?? item;
+				ops.push(...roundedRectOps(X(box.xMm), Y(box.yMm + box.hMm), box.wMm * k, box.hMm * k, (item.radiusMm ?? 0) * k), clip(), endPath());
 				// The image's unit square maps onto the box (ISO 32000-1 §8.9.5: images are drawn in the unit square).
 				ops.push(concatTransformationMatrix(item.wMm * k, 0, 0, item.hMm * k, X(item.xMm), Y(item.yMm + item.hMm)), drawObject(name), popGraphicsState());
 				page.pushOperators(...ops);

@@ -1,0 +1,37 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { z } from 'zod';
+import { api, ApiError, readJson } from '$lib/server/api';
+import { requireGameRole } from '$lib/server/guard';
+import { loadGame } from '$lib/server/game-store';
+import { renderFace } from '$lib/server/faces';
+import { db } from '$lib/server/runtime';
+import { CardKindSchema, CardSchema } from '$lib/game/model';
+
+const PreviewSchema = z.object({
+	/** The kind and card as they stand in the editor, saved or not. */
+	kind: CardKindSchema,
+	card: CardSchema.optional(),
+	side: z.enum(['front', 'back']),
+	guides: z.object({ trim: z.boolean(), bleed: z.boolean(), safe: z.boolean() }).optional()
+});
+
+/** Live preview: lays out the editor's unsaved kind and card against the saved game. Writes nothing. */
+export const POST: RequestHandler = api(async ({ locals, params, request }) => {
+	const d = await db();
+	await requireGameRole(d, locals, params.gameId, 'game.read');
+	const input = await readJson(request, PreviewSchema);
+	if (input.card && input.card.data.type !== input.kind.type) {
+		throw new ApiError(400, `A ${input.kind.type} card kind cannot show ${input.card.data.type} data`);
+	}
+	const game = await loadGame(d, params.gameId);
+	const { svg, layout } = await renderFace({
+		game,
+		kind: input.kind,
+		card: input.card,
+		side: input.side,
+		guides: input.guides ?? false,
+		artUrl: (sha) => `/api/v1/games/${params.gameId}/art-files/${sha}`
+	});
+	return json({ svg, warnings: layout.warnings });
+});
