@@ -1,11 +1,26 @@
-import { requireGameRole, may } from '$lib/server/guard';
+import { error } from '@sveltejs/kit';
+import { requireGameRole } from '$lib/server/guard';
+import { loadGame } from '$lib/server/game-store';
+import { checkDeck } from '$lib/game/deck-check';
 import { db } from '$lib/server/runtime';
 
+/** The overview: what the game holds, the deck check per player count, export and import. */
 export const load = async ({ locals, params }) => {
-	const { role, game } = await requireGameRole(await db(), locals, params.gameId, 'release.read');
+	const d = await db();
+	const { role } = await requireGameRole(d, locals, params.gameId, 'release.read');
+	if (role === 'printer') return { printerOnly: true as const };
+	const game = await loadGame(d, params.gameId);
+	if (!game) error(404, 'No such game');
+	const deck = checkDeck(game);
 	return {
-		role,
-		mayRead: may(role, 'game.read'),
-		game: { id: game.id, name: game.name, teamId: game.teamId, bleedStandard: game.bleedStandard, defaultCardSize: game.defaultCardSize }
+		printerOnly: false as const,
+		counts: {
+			runners: game.runners.length,
+			moneyTables: game.moneyTables.length,
+			kinds: game.kinds.length,
+			art: game.art.length
+		},
+		rogue: game.rogueRunner?.name ?? null,
+		deck
 	};
 };

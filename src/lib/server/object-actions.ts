@@ -1,0 +1,53 @@
+/**
+ * Form actions that save or delete one game object (runner, money table, card kind, card, art):
+ * the same zod schema validates the form as the API, the version the form was opened at guards
+ * against lost updates, and every refusal comes back as a message on the form.
+ */
+import { fail, type RequestEvent } from '@sveltejs/kit';
+import { superValidate, message } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { requireGameRole } from './guard';
+import { applyChanges, OBJECT_SCHEMAS, StoreError } from './game-store';
+import { editPermission } from './game-access';
+import type { Collection } from './db/schema';
+import { db } from './runtime';
+
+export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, collection: Collection) {
+	const d = await db();
+	const { user, game } = await requireGameRole(d, event.locals, event.params.gameId, editPermission(collection));
+	const form = await superValidate(event.request, zod4(OBJECT_SCHEMAS[collection]));
+	if (!form.valid) return fail(400, { form });
+	const { version, ...object } = form.data as { id: string; version?: number };
+	try {
+		await applyChanges(
+			d,
+			game.id,
+			[{ collection, id: object.id, baseVersion: version ?? null, object }],
+			{ userId: user.id, teamId: game.teamId, action: `${collection}.saved` }
+		);
+	} catch (e) {
+		if (e instanceof StoreError) return message(form, e.message, { status: e.status });
+		throw e;
+	}
+	return message(form, 'Saved.');
+}
+
+export async function deleteObjectAction(event: RequestEvent<{ gameId: string }>, collection: Collection) {
+	const d = await db();
+	const { user, game } = await requireGameRole(d, event.locals, event.params.gameId, editPermission(collection));
+	const body = await event.request.formData();
+	const id = String(body.get('id') ?? '');
+	const version = Number(body.get('version'));
+	if (!id || !Number.isInteger(version)) return fail(400, { deleteError: 'Say what to delete and its version' });
+	try {
+		await applyChanges(d, game.id, [{ collection, id, baseVersion: version, remove: true }], {
+			userId: user.id,
+			teamId: game.teamId,
+			action: `${collection}.deleted`
+		});
+	} catch (e) {
+		if (e instanceof StoreError) return fail(e.status, { deleteError: e.message });
+		throw e;
+	}
+	return { deleted: id };
+}
