@@ -41,6 +41,15 @@ export const COLLECTION_FIELD: Record<Collection, 'runners' | 'moneyTables' | 'k
 	art: 'art'
 };
 
+/** What people call each collection, for messages. */
+const NOUN: Record<Collection, string> = {
+	runner: 'runner',
+	moneyTable: 'money table',
+	kind: 'card kind',
+	card: 'card',
+	art: 'art piece'
+};
+
 export const SettingsSchema = z.object({ rogueRunner: RogueRunnerSchema.optional() });
 
 /** A refusal with an HTTP status and a message for people; `current` is the newer object on 409. */
@@ -175,24 +184,24 @@ export async function applyChanges(
 				.for('update');
 			if (change.baseVersion !== undefined) {
 				if (change.baseVersion === null && row) {
-					throw new StoreError(409, `A ${change.collection} with id ${change.id} exists already`, {
+					throw new StoreError(409, `A ${NOUN[change.collection]} with id ${change.id} exists already`, {
 						...row.data,
 						version: row.version
 					});
 				}
 				if (change.baseVersion !== null && !row) {
-					throw new StoreError(404, `No ${change.collection} with id ${change.id}`);
+					throw new StoreError(404, `No ${NOUN[change.collection]} with id ${change.id}`);
 				}
 				if (row && change.baseVersion !== null && row.version !== change.baseVersion) {
 					throw new StoreError(
 						409,
-						`Someone saved this ${change.collection} after you opened it (your version ${change.baseVersion}, now ${row.version}). Your changes were not saved; reload to see theirs.`,
+						`Someone saved this ${NOUN[change.collection]} after you opened it (your version ${change.baseVersion}, now ${row.version}). Your changes were not saved; reload to see theirs.`,
 						{ ...row.data, version: row.version }
 					);
 				}
 			}
 			if (change.remove) {
-				if (!row) throw new StoreError(404, `No ${change.collection} with id ${change.id}`);
+				if (!row) throw new StoreError(404, `No ${NOUN[change.collection]} with id ${change.id}`);
 				await tx
 					.delete(gameObjects)
 					.where(
