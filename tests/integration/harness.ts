@@ -4,6 +4,7 @@
  * RequestEvent fields our handlers read; `locals.user` says who is calling.
  */
 import { isHttpError, isRedirect, isActionFailure } from '@sveltejs/kit';
+import { stringify } from 'devalue';
 import { eq } from 'drizzle-orm';
 import { openDatabase, type Db } from '$lib/server/db';
 import { useRuntime, startMail } from '$lib/server/runtime';
@@ -131,4 +132,9 @@ export async function statusOf(run: () => unknown): Promise<number> {
 export async function gameOf(db: Db, id: string) {
 	const [g] = await db.select().from(games).where(eq(games.id, id));
 	return g;
+}
+
+/** The body superforms posts for `dataType: 'json'` forms. */
+export function superformJson(data: unknown): Record<string, string> {
+	return { __superform_json: stringify(data) };
 }

@@ -8,8 +8,9 @@ import { openWorld, EVERYONE, type World } from './harness';
 import type { Row } from './role-table';
 import * as foundation from './role-rows/foundation';
 import * as gameData from './role-rows/game';
+import * as gamePages from './role-rows/game-pages';
 
-const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...foundation.lastRows];
+const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...foundation.lastRows];
 
 let world: World;
 beforeAll(async () => {
