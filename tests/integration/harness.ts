@@ -72,7 +72,7 @@ interface Call {
 	path?: string;
 	params?: Record<string, string>;
 	json?: unknown;
-	form?: Record<string, string>;
+	form?: Record<string, string | Blob>;
 	body?: BodyInit;
 	headers?: Record<string, string>;
 }

@@ -2,6 +2,8 @@
 import type { Row } from '../role-table';
 import { as, g, game, readers, designers } from '../role-table';
 import { statusOf, superformJson } from '../harness';
+import * as teamPage from '../../../src/routes/(app)/teams/[teamId=id]/+page.server';
+import { exportBundle } from '$lib/server/game-io';
 import * as overview from '../../../src/routes/(app)/games/[gameId=id]/+page.server';
 import * as runnersPage from '../../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
 import * as tablesPage from '../../../src/routes/(app)/games/[gameId=id]/money-tables/+page.server';
@@ -16,6 +18,15 @@ const team = { default: 200, anonymous: 401, outsider: 404 };
 const saves = { ...designers };
 
 export const rows: Row[] = [
+	{
+		route: 'action /teams/{teamId}?/importGame',
+		run: async (w, who) => {
+			const zip = (await exportBundle(w.db, w.gameId)).zip;
+			const bundle = new File([Buffer.from(zip)], 'game.zip', { type: 'application/zip' });
+			return statusOf(() => teamPage.actions.importGame(as(w, who, { params: { teamId: w.teamId }, form: { bundle } })));
+		},
+		expect: { ...designers, owner: 303, designer: 303, default: 403 }
+	},
 	{ route: 'load /games/{gameId} (overview)', run: (w, who) => statusOf(() => overview.load(as(w, who, { params: g(w) }))), expect: team },
 	{ route: 'load /games/{gameId}/runners', run: (w, who) => statusOf(() => runnersPage.load(as(w, who, { params: g(w) }))), expect: { ...readers, default: 200 } },
 	{
@@ -25,6 +36,14 @@ export const rows: Row[] = [
 			return statusOf(() =>
 				runnersPage.actions.save(as(w, who, { params: g(w), form: superformJson({ ...r, name: `${r.name.slice(0, 20)} ${who}` }) }))
 			);
+		},
+		expect: { ...saves, default: 403 }
+	},
+	{
+		route: 'action /games/{gameId}/runners?/saveRogue',
+		run: async (w, who) => {
+			const rogue = (await game(w)).rogueRunner!;
+			return statusOf(() => runnersPage.actions.saveRogue(as(w, who, { params: g(w), path: '/?/saveRogue', form: { ...superformJson(rogue), __superform_id: 'rogue' } })));
 		},
 		expect: { ...saves, default: 403 }
 	},

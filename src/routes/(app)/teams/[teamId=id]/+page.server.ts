@@ -6,6 +6,9 @@ import { requireRole, may } from '$lib/server/guard';
 import { createGame, gamesOf } from '$lib/server/games';
 import { findTeam } from '$lib/server/teams';
 import { db } from '$lib/server/runtime';
+import { importBundle } from '$lib/server/game-io';
+import { StoreError } from '$lib/server/game-store';
+import { BundleError, MAX_BUNDLE_UNCOMPRESSED_BYTES } from '$lib/game/bundle';
 
 export const load = async ({ locals, params }) => {
 	const d = await db();
@@ -29,5 +32,21 @@ export const actions = {
 		if (!form.valid) return fail(400, { form });
 		const game = await createGame(d, { ...form.data, teamId: params.teamId, userId: user.id });
 		redirect(303, `/games/${game.id}`);
+	},
+	importGame: async ({ request, locals, params }) => {
+		const d = await db();
+		const { user } = await requireRole(d, locals, params.teamId, 'game.create');
+		const declared = Number(request.headers.get('content-length') ?? 0);
+		if (declared > MAX_BUNDLE_UNCOMPRESSED_BYTES) return fail(413, { importError: 'The bundle is too large.' });
+		const file = (await request.formData()).get('bundle');
+		if (!(file instanceof File) || file.size === 0) return fail(400, { importError: 'Choose a game bundle (.zip) to import.' });
+		let gameId: string;
+		try {
+			gameId = (await importBundle(d, { teamId: params.teamId, userId: user.id, zip: new Uint8Array(await file.arrayBuffer()) })).id;
+		} catch (e) {
+			if (e instanceof BundleError || e instanceof StoreError) return fail(400, { importError: `Nothing was imported: ${e.message}` });
+			throw e;
+		}
+		redirect(303, `/games/${gameId}`);
 	}
 };

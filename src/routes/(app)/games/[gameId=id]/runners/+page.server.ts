@@ -1,10 +1,11 @@
-import { superValidate } from 'sveltekit-superforms';
+import { fail } from '@sveltejs/kit';
+import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireGameRole } from '$lib/server/guard';
-import { loadGame } from '$lib/server/game-store';
+import { loadGame, saveSettings, StoreError } from '$lib/server/game-store';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/object-actions';
 import { db } from '$lib/server/runtime';
-import { RunnerSchema, newId, type Runner } from '$lib/game/model';
+import { RunnerSchema, RogueRunnerSchema, newId, type Runner, type RogueRunner } from '$lib/game/model';
 
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
@@ -24,11 +25,35 @@ export const load = async ({ locals, params, url }) => {
 		runners: game.runners,
 		rogue: game.rogueRunner ?? null,
 		isNew: !chosen && editing === blank,
-		form: await superValidate(editing, zod4(RunnerSchema), { errors: false })
+		form: await superValidate(editing, zod4(RunnerSchema), { errors: false }),
+		rogueForm: await superValidate(game.rogueRunner ?? blankRogue(), zod4(RogueRunnerSchema), { id: 'rogue', errors: false })
 	};
 };
 
+const blankRogue = (): RogueRunner => ({
+	id: newId(),
+	name: '',
+	colourHex: '#3a3a3a',
+	cmyk: { c: 0, m: 0, y: 0, k: 80 },
+	symbol: 'cross'
+});
+
 export const actions = {
 	save: (event) => saveObjectAction(event, 'runner'),
+	/** The rogue runner lives in the game's settings, versioned like an object. */
+	saveRogue: async ({ locals, params, request }) => {
+		const d = await db();
+		const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.edit');
+		const form = await superValidate(request, zod4(RogueRunnerSchema), { id: 'rogue' });
+		if (!form.valid) return fail(400, { rogueForm: form });
+		const { version, ...rogueRunner } = form.data;
+		try {
+			await saveSettings(d, game.id, { rogueRunner }, version ?? 0, { userId: user.id, teamId: game.teamId });
+		} catch (e) {
+			if (e instanceof StoreError) return message(form, e.message, { status: e.status });
+			throw e;
+		}
+		return message(form, 'Saved.');
+	},
 	delete: (event) => deleteObjectAction(event, 'runner')
 };
