@@ -9,8 +9,9 @@ import type { Row } from './role-table';
 import * as foundation from './role-rows/foundation';
 import * as gameData from './role-rows/game';
 import * as gamePages from './role-rows/game-pages';
+import * as proofRows from './role-rows/proofs';
 
-const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...foundation.lastRows];
+const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...foundation.lastRows];
 
 let world: World;
 beforeAll(async () => {

@@ -13,7 +13,9 @@ import {
 	primaryKey,
 	uniqueIndex,
 	index,
-	pgEnum
+	pgEnum,
+	doublePrecision,
+	boolean
 } from 'drizzle-orm/pg-core';
 
 export const ROLES = ['owner', 'designer', 'artist', 'printer', 'reviewer'] as const;
@@ -234,3 +236,116 @@ export const artVersions = pgTable(
 	},
 	(t) => [uniqueIndex('art_versions_number').on(t.gameId, t.artId, t.number)]
 );
+
+/* ----------------------------------------------------------- proofs, review */
+
+/**
+ * A proof: an immutable snapshot of the game (its data and the exact art files, which are
+ * content-addressed and never deleted), numbered per game. Released proofs are what printers see.
+ */
+export const proofs = pgTable(
+	'proofs',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		gameId: uuid('game_id')
+			.notNull()
+			.references(() => games.id, { onDelete: 'cascade' }),
+		number: integer('number').notNull(),
+		description: text('description').notNull(),
+		snapshot: jsonb('snapshot').$type<Record<string, unknown>>().notNull(),
+		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: createdAt(),
+		releasedAt: timestamp('released_at', { withTimezone: true }),
+		releasedBy: uuid('released_by').references(() => users.id, { onDelete: 'set null' }),
+		withdrawnAt: timestamp('withdrawn_at', { withTimezone: true }),
+		withdrawnBy: uuid('withdrawn_by').references(() => users.id, { onDelete: 'set null' }),
+		withdrawNote: text('withdraw_note')
+	},
+	(t) => [uniqueIndex('proofs_game_number').on(t.gameId, t.number)]
+);
+
+export const SIDES = ['front', 'back'] as const;
+
+/** A comment pinned to a spot on one face of a card of a proof (mm from the face's top-left, bleed included), or a reply. */
+export const proofComments = pgTable(
+	'proof_comments',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		proofId: uuid('proof_id')
+			.notNull()
+			.references(() => proofs.id, { onDelete: 'cascade' }),
+		/** The thread's first comment; null for a first comment itself. */
+		threadId: uuid('thread_id'),
+		cardId: text('card_id').notNull(),
+		side: text('side', { enum: SIDES }).notNull(),
+		xMm: doublePrecision('x_mm').notNull(),
+		yMm: doublePrecision('y_mm').notNull(),
+		body: text('body').notNull(),
+		authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: createdAt(),
+		resolvedAt: timestamp('resolved_at', { withTimezone: true }),
+		resolvedBy: uuid('resolved_by').references(() => users.id, { onDelete: 'set null' })
+	},
+	(t) => [index('proof_comments_proof').on(t.proofId, t.createdAt)]
+);
+
+export const VERDICTS = ['approve', 'changes'] as const;
+
+export const proofVerdicts = pgTable(
+	'proof_verdicts',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		proofId: uuid('proof_id')
+			.notNull()
+			.references(() => proofs.id, { onDelete: 'cascade' }),
+		reviewerId: uuid('reviewer_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		verdict: text('verdict', { enum: VERDICTS }).notNull(),
+		note: text('note').notNull().default(''),
+		createdAt: createdAt()
+	},
+	(t) => [index('proof_verdicts_proof').on(t.proofId)]
+);
+
+/** People who asked for no e-mail about a game. */
+export const mutes = pgTable(
+	'mutes',
+	{
+		userId: uuid('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		gameId: uuid('game_id')
+			.notNull()
+			.references(() => games.id, { onDelete: 'cascade' }),
+		createdAt: createdAt()
+	},
+	(t) => [primaryKey({ columns: [t.userId, t.gameId] })]
+);
+
+/* ---------------------------------------------------------- printer profiles */
+
+export const PAPERS = ['a4', 'a3', 'letter', 'tabloid', 'custom'] as const;
+export const SHEET_LAYOUTS = ['spaced', 'butted', 'fold'] as const;
+export const DUPLEX_MODES = ['none', 'long', 'short'] as const;
+
+/** How a team's printer (home or shop) takes sheets: kept by printers and designers. */
+export const printerProfiles = pgTable('printer_profiles', {
+	id: uuid('id').primaryKey().defaultRandom(),
+	teamId: uuid('team_id')
+		.notNull()
+		.references(() => teams.id, { onDelete: 'cascade' }),
+	name: text('name').notNull(),
+	paper: text('paper', { enum: PAPERS }).notNull().default('a4'),
+	customWidthMm: doublePrecision('custom_width_mm'),
+	customHeightMm: doublePrecision('custom_height_mm'),
+	marginMm: doublePrecision('margin_mm').notNull().default(5),
+	layout: text('layout', { enum: SHEET_LAYOUTS }).notNull().default('spaced'),
+	marks: boolean('marks').notNull().default(true),
+	duplex: text('duplex', { enum: DUPLEX_MODES }).notNull().default('long'),
+	backOffsetXMm: doublePrecision('back_offset_x_mm').notNull().default(0),
+	backOffsetYMm: doublePrecision('back_offset_y_mm').notNull().default(0),
+	colour: text('colour', { enum: ['rgb', 'cmyk'] }).notNull().default('rgb'),
+	version: integer('version').notNull().default(1),
+	createdAt: createdAt()
+});

@@ -1,0 +1,22 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { z } from 'zod';
+import { api, readJson } from '$lib/server/api';
+import { requireGameRole } from '$lib/server/guard';
+import { setMuted, isMuted } from '$lib/server/proofs';
+import { db } from '$lib/server/runtime';
+
+export const GET: RequestHandler = api(async ({ locals, params }) => {
+	const d = await db();
+	const { user } = await requireGameRole(d, locals, params.gameId, 'release.read');
+	return json({ muted: await isMuted(d, user.id, params.gameId) });
+});
+
+/** `{ muted: true }` stops this game's e-mail to the caller; false starts it again. */
+export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
+	const d = await db();
+	const { user } = await requireGameRole(d, locals, params.gameId, 'release.read');
+	const { muted } = await readJson(request, z.object({ muted: z.boolean() }));
+	await setMuted(d, user.id, params.gameId, muted);
+	return json({ muted });
+});

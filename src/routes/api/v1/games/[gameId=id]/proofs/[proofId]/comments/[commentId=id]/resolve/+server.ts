@@ -1,0 +1,13 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { api } from '$lib/server/api';
+import { requireProof } from '$lib/server/proof-access';
+import { resolveComment } from '$lib/server/proofs';
+import { db } from '$lib/server/runtime';
+
+export const POST: RequestHandler = api(async ({ locals, params }) => {
+	const d = await db();
+	const { proof, user } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.comment');
+	const comment = await resolveComment(d, proof, params.commentId, user.id);
+	return json({ comment });
+});

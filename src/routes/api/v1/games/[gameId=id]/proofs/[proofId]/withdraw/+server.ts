@@ -1,0 +1,15 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { api, readJson } from '$lib/server/api';
+import { requireProof } from '$lib/server/proof-access';
+import { withdrawProof, WithdrawSchema } from '$lib/server/proofs';
+import { db } from '$lib/server/runtime';
+
+export const POST: RequestHandler = api(async ({ locals, params, request }) => {
+	const d = await db();
+	const { proof, user } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.release');
+	const hasBody = Number(request.headers.get('content-length') ?? 0) > 0;
+	const { note } = hasBody ? await readJson(request, WithdrawSchema) : { note: '' };
+	const withdrawn = await withdrawProof(d, proof, user, note);
+	return json({ proof: { id: withdrawn.id, number: withdrawn.number, withdrawnAt: withdrawn.withdrawnAt } });
+});
