@@ -12,6 +12,7 @@ import { proofComments, proofVerdicts, proofs, caughtMail } from '$lib/server/db
 import { compareGames } from '$lib/game/compare';
 import * as proofFace from '../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/cards/[cardId]/face.svg/+server';
 import * as releaseApi from '../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/release/+server';
+import * as proofPdf from '../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/print.pdf/+server';
 
 let w: World;
 beforeAll(async () => {
@@ -30,6 +31,12 @@ async function faceText(proofId: string, cardId: string) {
 	return res.text();
 }
 
+async function pdfOf(proofId: string) {
+	const res = await proofPdf.GET(ev('designer', { params: { gameId: w.gameId, proofId }, path: '/?paper=a4&layout=butted&duplex=long&marks=1' }));
+	expect(res.status).toBe(200);
+	return new Uint8Array(await res.arrayBuffer());
+}
+
 async function mailTo(email: string) {
 	await new Promise((r) => setTimeout(r, 200));
 	return w.db.select().from(caughtMail).where(eq(caughtMail.to, email));
@@ -42,6 +49,7 @@ describe('proofs', () => {
 		const wager = game.cards.find((c) => c.data.type === 'wager')!;
 		const table = game.moneyTables.find((t) => wager.data.type === 'wager' && t.id === wager.data.moneyTableId)!;
 		const before = await faceText(p1.id, wager.id);
+		const pdfBefore = await pdfOf(p1.id);
 
 		// Edit: one card's name, one money table (which reaches every wager card printing it).
 		const movement = game.cards.find((c) => c.data.type === 'movement')!;
@@ -52,6 +60,9 @@ describe('proofs', () => {
 		const p2 = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'second round' });
 
 		expect(await faceText(p1.id, wager.id)).toBe(before);
+		// Byte for byte: the proof's PDF is built from its snapshot, dated by the proof.
+		expect(Buffer.compare(Buffer.from(await pdfOf(p1.id)), Buffer.from(pdfBefore))).toBe(0);
+		expect(Buffer.compare(Buffer.from(await pdfOf(p2.id)), Buffer.from(pdfBefore))).not.toBe(0);
 		expect(await faceText(p2.id, wager.id)).not.toBe(before);
 
 		const diff = compareGames(snapshotOf(p1), snapshotOf(p2));

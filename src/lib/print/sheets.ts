@@ -18,6 +18,7 @@ import { loadFonts, type FontSet } from './fonts';
 import { CROP_MARK, drawSheetMarks, sheetMarks } from './marks';
 import { mmToPt, paperSize, PT_PER_MM, type PaperSpec } from './paper';
 import { PdfFaceWriter, type ColourMode } from './pdf';
+import type { EncodedImageStore } from './pdf-image';
 
 export interface SheetFace {
 	kindKey: string;
@@ -52,6 +53,10 @@ export interface SheetPdfInput {
 	images?: ImageAsset[] | ReadonlyMap<string, ImageAsset>;
 	options: SheetOptions;
 	fonts?: FontSet;
+	/** Encoded image pixels kept between documents (see ./pdf-image.ts). */
+	imageStore?: EncodedImageStore;
+	/** Called after each page is drawn, with the pages done and the document's page count. */
+	onPage?: (done: number, total: number) => void;
 }
 
 export interface PlacedCard {
@@ -165,14 +170,25 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 	doc.setTitle(`${input.title} — ${input.versionLabel} — sheets`);
 	doc.setProducer('Paddock');
 	doc.setCreator('Paddock');
+	// The label's date is the document's date too, so the same input gives the same bytes.
+	const stamp = new Date(`${input.date}T00:00:00Z`);
+	if (!Number.isNaN(stamp.getTime())) {
+		doc.setCreationDate(stamp);
+		doc.setModificationDate(stamp);
+	}
 	const writer = await PdfFaceWriter.create(doc, {
 		fonts: input.fonts ?? (await loadFonts()),
 		images: input.images,
-		colour: o.colour
+		colour: o.colour,
+		imageStore: input.imageStore,
+		// A card printed many times is drawn once and placed by reference.
+		faceForms: true
 	});
 	const labelFont = writer.font('regular');
 	const labelColour = writer.paint({ hex: '#000000', cmyk: [0, 0, 0, 1] });
 	const k = PT_PER_MM;
+	const totalPages = plan.groups.reduce((n, g) => n + g.pages.length, 0) + (o.cuttingGuide ? 1 : 0);
+	let pagesDone = 0;
 
 	for (const group of plan.groups) {
 		const imp = group.imposition;
@@ -197,9 +213,13 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 				label: { texts, widthMm: (t, pt) => labelFont.widthOfTextAtSize(t, pt) / k }
 			});
 			drawSheetMarks(page, marks, H, { font: labelFont, labelColour });
+			input.onPage?.(++pagesDone, totalPages);
 		}
 	}
-	if (o.cuttingGuide) drawCuttingGuide(doc, writer, { title: input.title, versionLabel: input.versionLabel, plan, options: o });
+	if (o.cuttingGuide) {
+		drawCuttingGuide(doc, writer, { title: input.title, versionLabel: input.versionLabel, plan, options: o });
+		input.onPage?.(++pagesDone, totalPages);
+	}
 	return doc.save();
 }
 

@@ -1,0 +1,47 @@
+/**
+ * The download routes of the working game and of a proof share these handlers: the sheet PDF,
+ * one card's press PDF and the PNG zip. A proof's files are built from its snapshot only.
+ */
+import type { RequestEvent } from '@sveltejs/kit';
+import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, fileStem } from './printing';
+import { ApiError } from './api';
+import { db } from './runtime';
+
+type Ev = RequestEvent<{ gameId: string; proofId?: string; cardId?: string }>;
+
+export async function sheetsPdf(event: Ev) {
+	const d = await db();
+	const source = await printSource(d, event.locals, event.params.gameId, event.params.proofId);
+	const options = await printOptions(d, source, event.url.searchParams);
+	const { onProgress: _none, ...plain } = options;
+	const result = await runPrint({ type: 'sheets', game: source.game, art: await artBytes(source.game), options: plain });
+	await logDownload(d, source, 'sheets');
+	return fileResponse(result.bytes, 'application/pdf', `${fileStem(source)}-sheets.pdf`, result.warnings);
+}
+
+export async function pressPdf(event: Ev) {
+	const d = await db();
+	const source = await printSource(d, event.locals, event.params.gameId, event.params.proofId);
+	const cardId = event.params.cardId!;
+	if (!source.game.cards.some((c) => c.id === cardId)) throw new ApiError(404, 'No such card');
+	const colour = event.url.searchParams.get('colour') === 'rgb' ? 'rgb' : 'cmyk';
+	const marks = event.url.searchParams.get('marks') === '1';
+	const result = await runPrint({
+		type: 'press',
+		game: source.game,
+		art: await artBytes(source.game),
+		cardId,
+		options: { colour, cropMarks: marks }
+	});
+	await logDownload(d, source, `press:${cardId}`);
+	return fileResponse(result.bytes, 'application/pdf', `${fileStem(source)}-${cardId}.pdf`, result.warnings);
+}
+
+export async function cardsZip(event: Ev) {
+	const d = await db();
+	const source = await printSource(d, event.locals, event.params.gameId, event.params.proofId);
+	const dpi = Number(event.url.searchParams.get('dpi') ?? 300);
+	const result = await runPrint({ type: 'pngs', game: source.game, art: await artBytes(source.game), options: { dpi } });
+	await logDownload(d, source, 'pngs');
+	return fileResponse(result.bytes, 'application/zip', `${fileStem(source)}-cards-${dpi}dpi.zip`, result.warnings);
+}

@@ -1,0 +1,201 @@
+/**
+ * Print files for the app: what to print (the working game, or exactly a proof's snapshot), the
+ * options (query parameters or a printer profile), and the builds, which run in the print
+ * engine's worker pool so the app stays responsive. Jobs started from the print page report
+ * their progress and keep their result for a while for download.
+ */
+import { randomUUID } from 'node:crypto';
+import { requireGameRole, may } from './guard';
+import { ApiError } from './api';
+import { loadGame } from './game-store';
+import { readArtFile } from './art-files';
+import { requireProof } from './proof-access';
+import { snapshotOf } from './proofs';
+import { findProfile } from './printer-profiles';
+import { logActivity } from './activity';
+import type { Db } from './db';
+import type { Game } from '$lib/game/model';
+import { printPool, PrintBusyError, type PrintJob, type PrintJobResult } from '$lib/print/pool';
+import { parsePrintOptions, PrintOptionsError, type GamePdfOptions } from '$lib/print/job';
+import { profileQuery } from '$lib/schemas/printing';
+
+export interface PrintSource {
+	game: Game;
+	gameId: string;
+	teamId: string;
+	userId: string;
+	/** "proof 3" or "working copy", printed in the sheet label. */
+	versionLabel: string;
+	proofNumber?: number;
+	/** Fixed for a proof, so its files come out the same every time. */
+	date: string;
+}
+
+/** The working game (readers of the game) or a proof (printers: released proofs only). */
+export async function printSource(db: Db, locals: App.Locals, gameId: string, proofKey?: string): Promise<PrintSource> {
+	if (proofKey) {
+		const { proof, user, game } = await requireProof(db, locals, gameId, proofKey);
+		return {
+			game: snapshotOf(proof),
+			gameId,
+			teamId: game.teamId,
+			userId: user.id,
+			versionLabel: `proof ${proof.number}`,
+			proofNumber: proof.number,
+			date: proof.createdAt.toISOString().slice(0, 10)
+		};
+	}
+	const { user, game, role } = await requireGameRole(db, locals, gameId, 'release.read');
+	if (!may(role, 'game.read')) throw new ApiError(403, 'Printers print released proofs; open the proof to download its files');
+	return {
+		game: await loadGame(db, gameId),
+		gameId,
+		teamId: game.teamId,
+		userId: user.id,
+		versionLabel: `working copy v${game.version}`,
+		date: new Date().toISOString().slice(0, 10)
+	};
+}
+
+export async function artBytes(game: Game): Promise<Map<string, Uint8Array>> {
+	const art = new Map<string, Uint8Array>();
+	for (const a of game.art) if (!art.has(a.sha256)) art.set(a.sha256, await readArtFile(a.sha256));
+	return art;
+}
+
+/** Options from the query: either `profile=<id>` (a printer profile of the team) or the parameters themselves. */
+export async function printOptions(db: Db, source: PrintSource, query: URLSearchParams): Promise<GamePdfOptions> {
+	const raw: Record<string, string> = Object.fromEntries(query);
+	const profileId = raw.profile;
+	delete raw.profile;
+	let values = raw;
+	if (profileId) {
+		if (!/^[0-9a-f-]{36}$/i.test(profileId)) throw new ApiError(404, 'No such printer profile in this team');
+		const profile = await findProfile(db, source.teamId, profileId);
+		// The profile's settings; a query may still choose sets and kinds.
+		values = { ...profileQuery(profile), ...(raw.sets ? { sets: raw.sets } : {}), ...(raw.kinds ? { kinds: raw.kinds } : {}) };
+	}
+	try {
+		return { ...parsePrintOptions(values), title: source.game.name, versionLabel: source.versionLabel, date: source.date };
+	} catch (e) {
+		if (e instanceof PrintOptionsError) throw new ApiError(400, e.message);
+		throw e;
+	}
+}
+
+/** Runs a job in the pool; engine refusals become 400 (or 404), a full queue 503. */
+export async function runPrint(job: PrintJob, onProgress?: (done: number, total: number) => void): Promise<PrintJobResult> {
+	try {
+		return await printPool().run(job, { onProgress, affinity: job.game.slug });
+	} catch (e) {
+		if (e instanceof PrintBusyError) throw new ApiError(503, e.message, 'busy');
+		const status = (e as { status?: number }).status;
+		if ((e as Error).name === 'PrintOptionsError' || status === 400 || status === 404) {
+			throw new ApiError(status === 404 ? 404 : 400, (e as Error).message);
+		}
+		throw e;
+	}
+}
+
+export async function logDownload(db: Db, source: PrintSource, what: string) {
+	await logActivity(db, {
+		teamId: source.teamId,
+		gameId: source.gameId,
+		userId: source.userId,
+		action: 'print.downloaded',
+		detail: { what, ...(source.proofNumber ? { proof: source.proofNumber } : {}) }
+	});
+}
+
+export function fileResponse(bytes: Uint8Array, type: string, name: string, warnings: string[] = []) {
+	return new Response(Buffer.from(bytes), {
+		headers: {
+			'content-type': type,
+			'content-disposition': `attachment; filename="${name}"`,
+			'x-paddock-warnings': String(warnings.length),
+			'cache-control': 'private, no-store'
+		}
+	});
+}
+
+export const fileStem = (source: PrintSource) =>
+	`${source.game.slug}${source.proofNumber ? `-proof-${source.proofNumber}` : ''}`;
+
+/* ---------------------------------------------------------------- jobs */
+
+interface Job {
+	id: string;
+	userId: string;
+	gameId: string;
+	state: 'queued' | 'running' | 'done' | 'failed';
+	done: number;
+	total: number;
+	result?: PrintJobResult;
+	fileName: string;
+	error?: { status: number; message: string };
+	finishedAt?: number;
+}
+
+const jobs = new Map<string, Job>();
+/** A finished job's file stays this long for download. */
+const KEEP_MS = 10 * 60 * 1000;
+
+function sweep() {
+	const now = Date.now();
+	for (const [id, j] of jobs) if (j.finishedAt && now - j.finishedAt > KEEP_MS) jobs.delete(id);
+}
+
+/** Starts a sheet build for the print page and returns at once; progress is read with `jobState`. */
+export function startSheetJob(source: PrintSource, art: Map<string, Uint8Array>, options: GamePdfOptions): Job {
+	sweep();
+	const { onProgress: _ignored, ...plain } = options;
+	const job: Job = {
+		id: randomUUID(),
+		userId: source.userId,
+		gameId: source.gameId,
+		state: 'queued',
+		done: 0,
+		total: 0,
+		fileName: `${fileStem(source)}-sheets.pdf`
+	};
+	jobs.set(job.id, job);
+	runPrint({ type: 'sheets', game: source.game, art, options: plain }, (done, total) => {
+		job.state = 'running';
+		job.done = done;
+		job.total = total;
+	})
+		.then((result) => {
+			job.state = 'done';
+			job.result = result;
+			job.done = job.total = Math.max(job.total, 1);
+		})
+		.catch((e) => {
+			job.state = 'failed';
+			job.error = e instanceof ApiError ? { status: e.status, message: e.message } : { status: 500, message: 'The build failed' };
+			if (!(e instanceof ApiError)) console.error(e);
+		})
+		.finally(() => {
+			job.finishedAt = Date.now();
+		});
+	return job;
+}
+
+export function jobFor(userId: string, id: string): Job {
+	const job = jobs.get(id);
+	if (!job || job.userId !== userId) throw new ApiError(404, 'No such print job (finished files are kept for ten minutes)');
+	return job;
+}
+
+export function jobState(job: Job) {
+	return {
+		id: job.id,
+		state: job.state,
+		done: job.done,
+		total: job.total,
+		error: job.error?.message,
+		sheets: job.result?.sheets,
+		pages: job.result?.pages,
+		bytes: job.result?.bytes.byteLength,
+		warnings: job.result?.warnings ?? []
+	};
+}

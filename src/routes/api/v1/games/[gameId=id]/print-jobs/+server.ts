@@ -1,0 +1,24 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { z } from 'zod';
+import { api, readJson } from '$lib/server/api';
+import { printSource, printOptions, artBytes, startSheetJob, jobState, logDownload } from '$lib/server/printing';
+import { db } from '$lib/server/runtime';
+
+const JobSchema = z.object({
+	/** A proof id or number; the working game when absent. */
+	proof: z.string().max(40).optional(),
+	/** The print route's query parameters (or `profile`). */
+	query: z.record(z.string(), z.string().max(200)).default({})
+});
+
+/** Starts a sheet build and answers at once with the job to follow. */
+export const POST: RequestHandler = api(async ({ locals, params, request }) => {
+	const d = await db();
+	const input = await readJson(request, JobSchema);
+	const source = await printSource(d, locals, params.gameId, input.proof);
+	const options = await printOptions(d, source, new URLSearchParams(input.query));
+	const job = startSheetJob(source, await artBytes(source.game), options);
+	await logDownload(d, source, 'sheets');
+	return json(jobState(job), { status: 202 });
+});
