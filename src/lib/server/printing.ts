@@ -16,7 +16,9 @@ import { logActivity } from './activity';
 import type { Db } from './db';
 import type { Game } from '$lib/game/model';
 import { printPool, PrintBusyError, type PrintJob, type PrintJobResult } from '$lib/print/pool';
-import { parsePrintOptions, PrintOptionsError, type GamePdfOptions } from '$lib/print/job';
+import { parsePrintOptions, PrintOptionsError, renderGameFaces, DEFAULT_MARGIN_MM, type GamePdfOptions } from '$lib/print/job';
+import { planSheets } from '$lib/print/sheets';
+import { sheetPreviewSvg } from '$lib/print/preview';
 import { profileQuery } from '$lib/schemas/printing';
 
 export interface PrintSource {
@@ -197,5 +199,44 @@ export function jobState(job: Job) {
 		pages: job.result?.pages,
 		bytes: job.result?.bytes.byteLength,
 		warnings: job.result?.warnings ?? []
+	};
+}
+
+/** The first sheet of a build as SVG, with the plan's figures, for the print page (art linked, not embedded). */
+export async function previewFirstSheet(source: PrintSource, options: GamePdfOptions, artUrl: (sha256: string) => string) {
+	const faces = await renderGameFaces(source.game, await artBytes(source.game), { kinds: options.kinds, sets: options.sets });
+	let plan;
+	try {
+		plan = planSheets({
+			faces: faces.cards,
+			options: {
+				paper: options.paper,
+				marginMm: options.marginMm ?? DEFAULT_MARGIN_MM,
+				layout: options.layout,
+				duplex: options.duplex,
+				marks: options.marks,
+				sets: options.sets,
+				backOffsetMm: options.backOffsetMm ? { xMm: options.backOffsetMm.x, yMm: options.backOffsetMm.y } : undefined,
+				colour: options.colour,
+				cuttingGuide: options.cuttingGuide ?? false
+			}
+		});
+	} catch (e) {
+		throw new ApiError(400, (e as Error).message);
+	}
+	const group = plan.groups[0];
+	if (!group) throw new ApiError(400, 'Nothing to print: the chosen card kinds have no cards with copies');
+	const page = group.pages[0];
+	const known = new Set(faces.images.keys());
+	const svg = sheetPreviewSvg(group, page, (id) => (known.has(id) ? artUrl(id) : undefined), options.marks);
+	return {
+		svg,
+		sheets: plan.sheetCount,
+		pages: plan.groups.reduce((n, g) => n + g.pages.length, 0),
+		cardsPerSheet: group.imposition.cardsPerSheet,
+		columns: group.imposition.columns,
+		rows: group.imposition.rows,
+		orientation: group.imposition.orientation,
+		warnings: [...faces.warnings, ...plan.warnings]
 	};
 }

@@ -26,7 +26,7 @@ async function released(w: World) {
 	return releasedId;
 }
 /** The working game prints for readers; printers are sent to releases. */
-const working = { ...readers };
+const working = { ...readers, default: 200 };
 const everyone = { default: 200, anonymous: 401, outsider: 404 };
 const profileEditors = { owner: 201, designer: 201, printer: 201, artist: 403, reviewer: 403, ...members };
 const small = '/?paper=a4&layout=butted&duplex=none&kinds=';

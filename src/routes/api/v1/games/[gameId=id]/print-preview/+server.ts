@@ -1,0 +1,17 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { api } from '$lib/server/api';
+import { printSource, printOptions, previewFirstSheet } from '$lib/server/printing';
+import { db } from '$lib/server/runtime';
+
+/** The first sheet of a build (same parameters as print.pdf, plus `proof=`) as SVG, with the plan's figures. */
+export const GET: RequestHandler = api(async ({ locals, params, url }) => {
+	const d = await db();
+	const query = new URLSearchParams(url.searchParams);
+	const proof = query.get('proof') ?? undefined;
+	query.delete('proof');
+	const source = await printSource(d, locals, params.gameId, proof);
+	const options = await printOptions(d, source, query);
+	// Art is linked to the game's art route, which printers cannot use: their preview shows no art.
+	return json(await previewFirstSheet(source, options, (sha) => `/api/v1/games/${params.gameId}/art-files/${sha}`));
+});
