@@ -9,6 +9,8 @@ import { createUser } from './users';
 import { createTeam } from './teams';
 import { createGameFrom } from './game-io';
 import { demoGameWithArt } from '$lib/game/demo-art';
+import { saveProfile } from './printer-profiles';
+import { DEFAULT_PROFILE } from '$lib/schemas/printing';
 
 export const DEMO_PASSWORD = 'paddock-demo';
 export const DEMO_ROLES: Role[] = ['owner', 'designer', 'artist', 'printer', 'reviewer'];
@@ -34,6 +36,8 @@ export async function seedDemo(db: Db): Promise<boolean> {
 	for (const role of DEMO_ROLES.filter((r) => r !== 'owner')) {
 		await db.insert(memberships).values({ teamId: team.id, userId: accounts.get(role)!, role });
 	}
+	await saveProfile(db, team.id, { ...DEFAULT_PROFILE, name: 'Office laser, A4 duplex', backOffsetXMm: 0.8, backOffsetYMm: -0.5 }, accounts.get('printer')!);
+	await saveProfile(db, team.id, { ...DEFAULT_PROFILE, name: 'Print shop, Letter, CMYK', paper: 'letter', layout: 'butted', marginMm: 6.35, colour: 'cmyk' }, accounts.get('printer')!);
 	const { game, art } = await demoGameWithArt();
 	await createGameFrom(db, { teamId: team.id, userId: accounts.get('designer')!, game, art });
 	return true;

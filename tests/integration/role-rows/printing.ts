@@ -121,3 +121,34 @@ export const rows: Row[] = [
 		expect: { ...profileEditors, owner: 200, designer: 200, printer: 200, default: 403 }
 	}
 ];
+
+import * as printersPage from '../../../src/routes/(app)/teams/[teamId=id]/printers/+page.server';
+import * as printPage from '../../../src/routes/(app)/games/[gameId=id]/print/+page.server';
+import { superformJson } from '../harness';
+
+export const pageRows: Row[] = [
+	{
+		route: 'load /games/{gameId}/print',
+		run: (w, who) => statusOf(() => printPage.load(as(w, who, { params: g(w) }))),
+		expect: everyone
+	},
+	{
+		route: 'load /teams/{teamId}/printers',
+		run: (w, who) => statusOf(() => printersPage.load(as(w, who, { params: { teamId: w.teamId } }))),
+		expect: everyone
+	},
+	{
+		route: 'action /teams/{teamId}/printers?/save',
+		run: (w, who) =>
+			statusOf(() =>
+				printersPage.actions.save(as(w, who, { params: { teamId: w.teamId }, form: superformJson({ ...DEFAULT_PROFILE, name: `Form profile ${who}` }) }))
+			),
+		expect: { ...profileEditors, owner: 200, designer: 200, printer: 200, default: 403 }
+	},
+	{
+		route: 'action /teams/{teamId}/printers?/delete (unknown profile)',
+		run: (w, who) =>
+			statusOf(() => printersPage.actions.delete(as(w, who, { params: { teamId: w.teamId }, form: { id: '00000000-0000-4000-8000-000000000000' } }))),
+		expect: { ...profileEditors, owner: 404, designer: 404, printer: 404, default: 403 }
+	}
+];
