@@ -10,6 +10,7 @@ import { createTeam } from './teams';
 import { createGameFrom } from './game-io';
 import { demoGameWithArt } from '$lib/game/demo-art';
 import { saveProfile } from './printer-profiles';
+import { cutProof, releaseProof } from './proofs';
 import { DEFAULT_PROFILE } from '$lib/schemas/printing';
 
 export const DEMO_PASSWORD = 'paddock-demo';
@@ -39,6 +40,10 @@ export async function seedDemo(db: Db): Promise<boolean> {
 	await saveProfile(db, team.id, { ...DEFAULT_PROFILE, name: 'Office laser, A4 duplex', backOffsetXMm: 0.8, backOffsetYMm: -0.5 }, accounts.get('printer')!);
 	await saveProfile(db, team.id, { ...DEFAULT_PROFILE, name: 'Print shop, Letter, CMYK', paper: 'letter', layout: 'butted', marginMm: 6.35, colour: 'cmyk' }, accounts.get('printer')!);
 	const { game, art } = await demoGameWithArt();
-	await createGameFrom(db, { teamId: team.id, userId: accounts.get('designer')!, game, art });
+	const row = await createGameFrom(db, { teamId: team.id, userId: accounts.get('designer')!, game, art });
+	// A first proof, released, so a printer has something to print straight away.
+	const designer = { id: accounts.get('designer')!, name: NAMES.designer };
+	const proof = await cutProof(db, { gameId: row.id, userId: designer.id, userName: designer.name, description: 'First playtest print' });
+	await releaseProof(db, proof, designer);
 	return true;
 }

@@ -1,0 +1,41 @@
+import { test, expect } from '@playwright/test';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { hydrated, signIn } from './helpers';
+
+test('a printer picks a profile, downloads the sheet PDF of the released demo proof, and it opens', async ({ page }) => {
+	await signIn(page, 'printer@paddock.test');
+	await page.getByRole('link', { name: 'Mossbank Games' }).first().click();
+	await page.getByRole('link', { name: /Derby/ }).first().click();
+	await page.getByRole('link', { name: 'Print', exact: true }).click();
+	await hydrated(page);
+	await expect(page.getByLabel('Print', { exact: true })).toHaveValue('1');
+	await page.getByLabel('Printer profile').selectOption({ label: 'Office laser, A4 duplex' });
+	await expect(page.getByTestId('sheet-preview')).toBeVisible({ timeout: 30_000 });
+	await expect(page.getByTestId('plan')).toContainText('cards a sheet');
+	await page.getByRole('button', { name: 'Build the sheet PDF' }).click();
+	const link = page.getByTestId('download-sheets');
+	await expect(link).toBeVisible({ timeout: 60_000 });
+	const [download] = await Promise.all([page.waitForEvent('download'), link.click()]);
+	const file = join(mkdtempSync(join(tmpdir(), 'paddock-print-')), 'sheets.pdf');
+	await download.saveAs(file);
+	// An independent reader opens it: poppler's pdfinfo (A4 is 595.28 × 841.89 pt, ISO 216 at 72 pt/in).
+	const info = execFileSync('pdfinfo', [file], { encoding: 'utf8' });
+	expect(info).toMatch(/Pages:\s+\d+/);
+	expect(info).toMatch(/Page size:\s+(595\.2\d* x 841\.8\d*|841\.8\d* x 595\.2\d*) pts/);
+	expect(info).toContain('proof 1');
+	execFileSync('qpdf', ['--check', file]);
+});
+
+test('printers cannot print the working copy; a bad parameter answers 400 with its reason', async ({ page }) => {
+	await signIn(page, 'printer@paddock.test');
+	const me = await (await page.request.get('/api/v1/me')).json();
+	const games = await (await page.request.get(`/api/v1/teams/${me.memberships[0].teamId}/games`)).json();
+	const gameId = games.games[0].id;
+	expect((await page.request.get(`/api/v1/games/${gameId}/print.pdf`)).status()).toBe(403);
+	const bad = await page.request.get(`/api/v1/games/${gameId}/proofs/1/print.pdf?paper=a7`);
+	expect(bad.status()).toBe(400);
+	expect((await bad.json()).error.message).toContain('Unknown paper');
+});
