@@ -6,7 +6,7 @@
  * mask (§11.6.5.3) only when the picture has transparency. This is smaller and much faster
  * than a general-purpose embedder that re-packs every PNG the same way.
  */
-import { unzlibSync, zlibSync } from 'fflate';
+import { deflateSync, inflateSync } from 'node:zlib';
 import { PDFDocument, PDFName, PDFRef } from 'pdf-lib';
 import type { ImageAsset } from './display-list';
 
@@ -57,7 +57,8 @@ export function decodePng(bytes: Uint8Array): DecodedPng | null {
 	const samples = { 0: 1, 2: 3, 3: 1, 4: 2, 6: 4 }[type];
 	if (!samples || !width || !height) throw new Error('unsupported PNG header');
 
-	const raw = unzlibSync(concat(data));
+	// Node's zlib (native) inflates and deflates pixels several times faster than a JS port.
+	const raw = new Uint8Array(inflateSync(concat(data)));
 	const bitsPerPixel = samples * depth;
 	const stride = Math.ceil((width * bitsPerPixel) / 8);
 	const bpp = Math.max(1, bitsPerPixel >> 3);
@@ -65,6 +66,8 @@ export function decodePng(bytes: Uint8Array): DecodedPng | null {
 
 	const isGrey = type === 0 || type === 4;
 	const channels: 1 | 3 = isGrey ? 1 : 3;
+	// The usual artwork (8-bit RGB or RGBA, as image editors and resvg write it): split channels in one pass.
+	if (depth === 8 && (type === 2 || type === 6) && !(type === 2 && transparency)) return splitRgb(rows, width, height, type === 6);
 	const colour = new Uint8Array(width * height * channels);
 	const alpha = new Uint8Array(width * height);
 	let opaque = true;
@@ -125,7 +128,28 @@ export function decodePng(bytes: Uint8Array): DecodedPng | null {
 	return { widthPx: width, heightPx: height, channels, colour, alpha: opaque ? null : alpha };
 }
 
-/** PNG scanline filters 0–4 (None, Sub, Up, Average, Paeth), undone in place into a new buffer. */
+/** 8-bit RGB or RGBA rows (filters undone) → colour samples and, when any pixel is see-through, alpha. */
+function splitRgb(rows: Uint8Array, width: number, height: number, hasAlpha: boolean): DecodedPng {
+	const n = width * height;
+	if (!hasAlpha) return { widthPx: width, heightPx: height, channels: 3, colour: rows.subarray(0, n * 3), alpha: null };
+	const colour = new Uint8Array(n * 3);
+	const alpha = new Uint8Array(n);
+	let opaque = 255;
+	for (let p = 0, s = 0, c = 0; p < n; p++, s += 4, c += 3) {
+		colour[c] = rows[s];
+		colour[c + 1] = rows[s + 1];
+		colour[c + 2] = rows[s + 2];
+		const a = rows[s + 3];
+		alpha[p] = a;
+		opaque &= a;
+	}
+	return { widthPx: width, heightPx: height, channels: 3, colour, alpha: opaque === 255 ? null : alpha };
+}
+
+/**
+ * PNG scanline filters 0–4 (None, Sub, Up, Average, Paeth; PNG spec §9), undone into a new
+ * buffer. One loop per filter type, since this runs for every byte of every picture.
+ */
 function unfilter(raw: Uint8Array, stride: number, height: number, bpp: number): Uint8Array {
 	const out = new Uint8Array(stride * height);
 	for (let y = 0; y < height; y++) {
@@ -133,22 +157,50 @@ function unfilter(raw: Uint8Array, stride: number, height: number, bpp: number):
 		const src = y * (stride + 1) + 1;
 		const dst = y * stride;
 		const up = dst - stride;
-		for (let i = 0; i < stride; i++) {
-			const left = i >= bpp ? out[dst + i - bpp] : 0;
-			const above = y > 0 ? out[up + i] : 0;
-			const corner = y > 0 && i >= bpp ? out[up + i - bpp] : 0;
-			let v = raw[src + i];
-			if (filter === 1) v += left;
-			else if (filter === 2) v += above;
-			else if (filter === 3) v += (left + above) >> 1;
-			else if (filter === 4) {
-				const p = left + above - corner;
-				const pa = Math.abs(p - left);
-				const pb = Math.abs(p - above);
-				const pc = Math.abs(p - corner);
-				v += pa <= pb && pa <= pc ? left : pb <= pc ? above : corner;
-			} else if (filter !== 0) throw new Error(`bad PNG filter ${filter}`);
-			out[dst + i] = v & 255;
+		const first = y === 0;
+		switch (filter) {
+			case 0:
+				out.set(raw.subarray(src, src + stride), dst);
+				break;
+			case 1:
+				for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i];
+				for (let i = bpp; i < stride; i++) out[dst + i] = raw[src + i] + out[dst + i - bpp];
+				break;
+			case 2:
+				if (first) out.set(raw.subarray(src, src + stride), dst);
+				else for (let i = 0; i < stride; i++) out[dst + i] = raw[src + i] + out[up + i];
+				break;
+			case 3:
+				if (first) {
+					for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i];
+					for (let i = bpp; i < stride; i++) out[dst + i] = raw[src + i] + (out[dst + i - bpp] >> 1);
+				} else {
+					for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i] + (out[up + i] >> 1);
+					for (let i = bpp; i < stride; i++) out[dst + i] = raw[src + i] + ((out[dst + i - bpp] + out[up + i]) >> 1);
+				}
+				break;
+			case 4:
+				if (first) {
+					// No row above: Paeth picks the left neighbour (PNG spec §9.4).
+					for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i];
+					for (let i = bpp; i < stride; i++) out[dst + i] = raw[src + i] + out[dst + i - bpp];
+				} else {
+					// At the row's start left and corner are 0, so Paeth picks the byte above.
+					for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i] + out[up + i];
+					for (let i = bpp; i < stride; i++) {
+						const a = out[dst + i - bpp];
+						const b = out[up + i];
+						const c = out[up + i - bpp];
+						const p = a + b - c;
+						const pa = p > a ? p - a : a - p;
+						const pb = p > b ? p - b : b - p;
+						const pc = p > c ? p - c : c - p;
+						out[dst + i] = raw[src + i] + (pa <= pb && pa <= pc ? a : pb <= pc ? b : c);
+					}
+				}
+				break;
+			default:
+				throw new Error(`bad PNG filter ${filter}`);
 		}
 	}
 	return out;
@@ -182,24 +234,59 @@ async function decodePngSlowly(bytes: Uint8Array): Promise<DecodedPng> {
 	return { widthPx: width, heightPx: height, channels: 3, colour, alpha: opaque ? null : alpha };
 }
 
-/** Writes decoded pixels as a FlateDecode image XObject (plus soft mask) and returns its ref. */
-export function writePixelImage(doc: PDFDocument, png: DecodedPng): PDFRef {
+/** Pixels compressed for a FlateDecode image object: what decoding and deflating a PNG costs, done once. */
+export interface EncodedPixels {
+	widthPx: number;
+	heightPx: number;
+	channels: 1 | 3;
+	/** zlib streams (ISO 32000-1 §7.4.4 FlateDecode) of the colour samples and of the alpha, if any. */
+	colour: Uint8Array;
+	alpha: Uint8Array | null;
+}
+
+/**
+ * Keeps encoded pixels between documents (a bounded cache, say), so the same artwork is decoded
+ * once per process rather than once per PDF. `key` names the asset's bytes (see `pixelKey`).
+ */
+export interface EncodedImageStore {
+	get(key: string): EncodedPixels | undefined;
+	set(key: string, pixels: EncodedPixels): void;
+}
+
+/** The store key of an asset: its id is a content hash; size and length guard against a reused id. */
+export const pixelKey = (asset: ImageAsset) => `${asset.id}:${asset.widthPx}x${asset.heightPx}:${asset.bytes.length}`;
+
+export function encodePixels(png: DecodedPng): EncodedPixels {
+	return {
+		widthPx: png.widthPx,
+		heightPx: png.heightPx,
+		channels: png.channels,
+		colour: new Uint8Array(deflateSync(png.colour, { level: 6 })),
+		alpha: png.alpha ? new Uint8Array(deflateSync(png.alpha, { level: 6 })) : null
+	};
+}
+
+/** Writes encoded pixels as an image XObject (plus soft mask) and returns its ref. */
+export function writeEncodedImage(doc: PDFDocument, pixels: EncodedPixels): PDFRef {
 	const { context } = doc;
-	const common = { Type: 'XObject', Subtype: 'Image', Width: png.widthPx, Height: png.heightPx, BitsPerComponent: 8 };
+	const common = { Type: 'XObject', Subtype: 'Image', Width: pixels.widthPx, Height: pixels.heightPx, BitsPerComponent: 8 };
 	let smask: PDFRef | undefined;
-	if (png.alpha) {
-		smask = context.register(
-			context.stream(zlibSync(png.alpha, { level: 6 }), { ...common, ColorSpace: 'DeviceGray', Filter: 'FlateDecode' })
-		);
+	if (pixels.alpha) {
+		smask = context.register(context.stream(pixels.alpha, { ...common, ColorSpace: 'DeviceGray', Filter: 'FlateDecode' }));
 	}
 	return context.register(
-		context.stream(zlibSync(png.colour, { level: 6 }), {
+		context.stream(pixels.colour, {
 			...common,
-			ColorSpace: png.channels === 1 ? 'DeviceGray' : 'DeviceRGB',
+			ColorSpace: pixels.channels === 1 ? 'DeviceGray' : 'DeviceRGB',
 			Filter: 'FlateDecode',
 			...(smask ? { SMask: smask } : {})
 		})
 	);
+}
+
+/** Writes decoded pixels as a FlateDecode image XObject (plus soft mask) and returns its ref. */
+export function writePixelImage(doc: PDFDocument, png: DecodedPng): PDFRef {
+	return writeEncodedImage(doc, encodePixels(png));
 }
 
 /**
@@ -214,7 +301,9 @@ export class PdfImageCache {
 
 	constructor(
 		private doc: PDFDocument,
-		private assets: ReadonlyMap<string, ImageAsset>
+		private assets: ReadonlyMap<string, ImageAsset>,
+		/** Encoded pixels shared with other documents (optional). */
+		private store?: EncodedImageStore
 	) {}
 
 	ref(imageId: string): Promise<PDFRef> {
@@ -242,7 +331,12 @@ export class PdfImageCache {
 		if (!asset) throw new Error(`image ${imageId} is not in the image table`);
 		this.embedded++;
 		if (asset.mime === 'image/jpeg') return (await this.doc.embedJpg(asset.bytes)).ref;
-		const png = decodePng(asset.bytes) ?? (await decodePngSlowly(asset.bytes));
-		return writePixelImage(this.doc, png);
+		const key = pixelKey(asset);
+		let pixels = this.store?.get(key);
+		if (!pixels) {
+			pixels = encodePixels(decodePng(asset.bytes) ?? (await decodePngSlowly(asset.bytes)));
+			this.store?.set(key, pixels);
+		}
+		return writeEncodedImage(this.doc, pixels);
 	}
 }

@@ -6,7 +6,6 @@
  * converted here and nowhere else. Text is vector text in the embedded Roboto Slab (TrueType,
  * subset); images are embedded once per document and drawn wherever they are used.
  */
-import fontkit from '@pdf-lib/fontkit';
 import {
 	appendBezierCurve,
 	clip,
@@ -18,10 +17,15 @@ import {
 	LineJoinStyle,
 	lineTo,
 	moveTo,
+	PDFArray,
+	PDFContentStream,
+	PDFDict,
 	PDFDocument,
 	PDFFont,
+	PDFName,
 	PDFOperator,
 	PDFPage,
+	PDFRef,
 	popGraphicsState,
 	pushGraphicsState,
 	rectangle,
@@ -29,11 +33,13 @@ import {
 	setLineJoin,
 	type Color
 } from 'pdf-lib';
+import { zlibSync } from 'fflate';
 import type { Colour, DisplayItem, FaceLayout, FontWeight, ImageAsset } from './display-list';
 import { faceHeightMm, faceWidthMm } from './display-list';
 import type { FontSet } from './fonts';
 import { PT_PER_MM } from './paper';
-import { PdfImageCache } from './pdf-image';
+import { sharedFontkit } from './pdf-fontkit';
+import { PdfImageCache, type EncodedImageStore } from './pdf-image';
 
 export type ColourMode = 'rgb' | 'cmyk';
 
@@ -109,7 +115,33 @@ export interface PdfFaceWriterOptions {
 	/** Image table shared by all faces of the document, keyed by image id. */
 	images?: Iterable<ImageAsset> | ReadonlyMap<string, ImageAsset>;
 	colour?: ColourMode;
+	/** Encoded image pixels kept between documents (see ./pdf-image.ts). */
+	imageStore?: EncodedImageStore;
+	/**
+	 * Draw each distinct face (the same FaceLayout object) once per document as a form XObject
+	 * (ISO 32000-1 §8.10) and place that wherever the face recurs: ten copies of a card cost one
+	 * drawing, and the file grows with distinct faces, not with copies.
+	 */
+	faceForms?: boolean;
 }
+
+/**
+ * A face's form content kept between documents, by the FaceLayout object (the print cache hands
+ * out the same object while the face is unchanged): the bytes name resources canonically and
+ * refer to the fonts' own glyph ids, so only the texts' glyphs need registering again.
+ */
+interface KeptForm {
+	colour: ColourMode;
+	fonts: FontSet;
+	/** Deflated content stream. */
+	content: Uint8Array;
+	/** Image ids in the order of their names I0, I1, … */
+	images: string[];
+	texts: [FontWeight, string][];
+}
+const keptForms = new WeakMap<FaceLayout, KeptForm>();
+
+const escapeRegExp = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 
 /**
  * Draws faces into one document. Holds what must be embedded once per document: the two
@@ -118,28 +150,40 @@ export interface PdfFaceWriterOptions {
 export class PdfFaceWriter {
 	readonly colour: ColourMode;
 	readonly images: PdfImageCache;
+	readonly faceForms: boolean;
+	/** How many form XObjects were written (for tests: once per distinct face per document). */
+	formsWritten = 0;
+	private forms = new WeakMap<FaceLayout, Promise<PDFRef>>();
+	private fontSet: FontSet;
+	private formNames = new WeakMap<PDFPage, Map<PDFRef, PDFName>>();
 
 	private constructor(
 		readonly doc: PDFDocument,
 		private fonts: Record<FontWeight, PDFFont>,
 		images: ReadonlyMap<string, ImageAsset>,
-		colour: ColourMode
+		options: PdfFaceWriterOptions
 	) {
-		this.colour = colour;
-		this.images = new PdfImageCache(doc, images);
+		this.colour = options.colour ?? 'rgb';
+		this.faceForms = !!options.faceForms;
+		this.fontSet = options.fonts;
+		this.images = new PdfImageCache(doc, images, options.imageStore);
 	}
 
 	static async create(doc: PDFDocument, options: PdfFaceWriterOptions): Promise<PdfFaceWriter> {
-		doc.registerFontkit(fontkit);
-		// Subset to the glyphs used; TrueType bytes, never woff2 (pdf-lib would write invisible glyphs).
+		// One parsed font and its shaped strings for every document of the process.
+		doc.registerFontkit(sharedFontkit);
+		// TrueType bytes, never woff2 (pdf-lib would write invisible glyphs). Subset to the glyphs
+		// used, except with face forms: forms kept between documents use the font's own glyph ids,
+		// so the whole font goes in (the shipped Latin set is 28 KB a weight).
+		const subset = !options.faceForms;
 		const [regular, bold] = await Promise.all([
-			doc.embedFont(new Uint8Array(options.fonts.regular.ttf), { subset: true }),
-			doc.embedFont(new Uint8Array(options.fonts.bold.ttf), { subset: true })
+			doc.embedFont(new Uint8Array(options.fonts.regular.ttf), { subset }),
+			doc.embedFont(new Uint8Array(options.fonts.bold.ttf), { subset })
 		]);
 		const table = new Map<string, ImageAsset>();
 		if (options.images instanceof Map) for (const [id, a] of options.images) table.set(id, a);
 		else for (const a of (options.images ?? []) as Iterable<ImageAsset>) table.set(a.id, a);
-		return new PdfFaceWriter(doc, { regular, bold }, table, options.colour ?? 'rgb');
+		return new PdfFaceWriter(doc, { regular, bold }, table, options);
 	}
 
 	font(weight: FontWeight): PDFFont {
@@ -152,6 +196,106 @@ export class PdfFaceWriter {
 
 	/** Draws the whole face with its bottom-left bleed corner at the placement (pt). */
 	async drawFace(page: PDFPage, face: FaceLayout, at: FacePlacement): Promise<void> {
+		if (!this.faceForms) return this.drawItems(page, face, at);
+		const name = this.formName(page, await this.faceForm(face));
+		const ops: PDFOperator[] = [pushGraphicsState()];
+		if (at.clipPt) {
+			const c = at.clipPt;
+			ops.push(rectangle(c.xPt, c.yPt, c.widthPt, c.heightPt), clip(), endPath());
+		}
+		// The form is drawn in its own space with the face's bottom-left at the origin (§8.10.1).
+		ops.push(concatTransformationMatrix(1, 0, 0, 1, at.xPt, at.yPt), drawObject(name), popGraphicsState());
+		page.pushOperators(...ops);
+	}
+
+	/** The face's form XObject in this document, drawn on first use. */
+	private faceForm(face: FaceLayout): Promise<PDFRef> {
+		let form = this.forms.get(face);
+		if (!form) {
+			form = this.writeForm(face);
+			this.forms.set(face, form);
+		}
+		return form;
+	}
+
+	private async writeForm(face: FaceLayout): Promise<PDFRef> {
+		const kept = keptForms.get(face);
+		const form =
+			kept && kept.colour === this.colour && kept.fonts === this.fontSet ? this.replay(kept) : await this.drawForm(face);
+		this.formsWritten++;
+		const { widthPt, heightPt } = faceSizePt(face);
+		const { context } = this.doc;
+		const images: Record<string, PDFRef> = {};
+		for (let i = 0; i < form.images.length; i++) images[`I${i}`] = await this.images.ref(form.images[i]);
+		return context.register(
+			context.stream(form.content, {
+				Type: 'XObject',
+				Subtype: 'Form',
+				BBox: [0, 0, widthPt, heightPt],
+				Resources: { Font: { FR: this.fonts.regular.ref, FB: this.fonts.bold.ref }, XObject: images },
+				Filter: 'FlateDecode'
+			})
+		);
+	}
+
+	/**
+	 * Draws the face on a page that never joins the page tree, then takes its content with the
+	 * resource names made canonical (FR, FB for the fonts, I0… for images), so the same bytes
+	 * serve any later document (see `keptForms`).
+	 */
+	private async drawForm(face: FaceLayout): Promise<KeptForm> {
+		const { parts, resources } = await drawOffPage(this.doc, (scratch) => this.drawItems(scratch, face, { xPt: 0, yPt: 0 }));
+
+		// Canonical names for what the page's resources named at random.
+		const images = [...new Set(face.items.flatMap((i) => (i.type === 'image' ? [i.imageId] : [])))];
+		const imageByRef = new Map<PDFRef, string>();
+		for (const id of images) imageByRef.set(await this.images.ref(id), id);
+		const renames = new Map<string, string>();
+		for (const [key, value] of resources?.entries() ?? []) {
+			const dict = value instanceof PDFDict ? value : undefined;
+			if (key === PDFName.of('Font') && dict)
+				for (const [name, ref] of dict.entries()) renames.set(name.decodeText(), ref === this.fonts.bold.ref ? 'FB' : 'FR');
+			else if (key === PDFName.of('XObject') && dict)
+				for (const [name, ref] of dict.entries()) renames.set(name.decodeText(), `I${images.indexOf(imageByRef.get(ref as PDFRef)!)}`);
+			// pdf-lib adds empty dictionaries of other kinds; a face never fills them (no opacity, no patterns).
+			else if (key !== PDFName.of('ProcSet') && !(dict && dict.entries().length === 0))
+				throw new Error(`a face uses page resources of type ${key.decodeText()}, which forms do not carry`);
+		}
+		let text = '';
+		for (const p of parts) for (let i = 0; i < p.length; i += 8192) text += String.fromCharCode(...p.subarray(i, i + 8192));
+		if (renames.size) {
+			const pattern = new RegExp(`/(${[...renames.keys()].map(escapeRegExp).join('|')})(?=[\\s/\\[\\]<>(){}%]|$)`, 'g');
+			text = text.replace(pattern, (_, name: string) => `/${renames.get(name)}`);
+		}
+		const bytes = new Uint8Array(text.length);
+		for (let i = 0; i < text.length; i++) bytes[i] = text.charCodeAt(i);
+		const form: KeptForm = {
+			colour: this.colour,
+			fonts: this.fontSet,
+			content: zlibSync(bytes, { level: 6 }),
+			images,
+			texts: face.items.flatMap((i) => (i.type === 'text' && i.text ? [[i.weight, i.text] as [FontWeight, string]] : []))
+		};
+		keptForms.set(face, form);
+		return form;
+	}
+
+	/** A kept form in this document: its glyphs registered with this document's fonts (widths, ToUnicode). */
+	private replay(kept: KeptForm): KeptForm {
+		for (const [weight, text] of kept.texts) this.fonts[weight].encodeText(text);
+		return kept;
+	}
+
+	/** The form's resource name on this page, added to the page once. */
+	private formName(page: PDFPage, ref: PDFRef): PDFName {
+		let names = this.formNames.get(page);
+		if (!names) this.formNames.set(page, (names = new Map()));
+		let name = names.get(ref);
+		if (!name) names.set(ref, (name = page.node.newXObject('Fm', ref)));
+		return name;
+	}
+
+	private async drawItems(page: PDFPage, face: FaceLayout, at: FacePlacement): Promise<void> {
 		const k = PT_PER_MM;
 		const left = at.xPt;
 		const top = at.yPt + faceHeightMm(face) * k;
@@ -261,6 +405,56 @@ export class PdfFaceWriter {
 			}
 		}
 	}
+}
+
+/**
+ * Runs `draw` on a page that never joins the page tree and takes back what it drew: the content
+ * bytes (uncompressed) and the resources it named. The page and its streams leave the document.
+ */
+async function drawOffPage(
+	doc: PDFDocument,
+	draw: (page: PDFPage) => Promise<void> | void
+): Promise<{ parts: Uint8Array[]; resources: PDFDict | undefined }> {
+	const { context } = doc;
+	const scratch = PDFPage.create(doc);
+	await draw(scratch);
+	const parts: Uint8Array[] = [];
+	const contents = scratch.node.Contents();
+	// pdf-lib keeps a new page's content as an array of refs to its own content streams.
+	const refs = contents instanceof PDFArray ? contents.asArray() : [];
+	for (const ref of refs) {
+		const stream = context.lookup(ref);
+		if (!(stream instanceof PDFContentStream) || !(ref instanceof PDFRef)) throw new Error('unexpected page content');
+		parts.push(stream.getUnencodedContents());
+		context.delete(ref);
+	}
+	const resources = scratch.node.Resources();
+	context.delete(scratch.ref);
+	return { parts, resources };
+}
+
+/**
+ * Whatever `draw` puts on a page of `widthPt` × `heightPt`, as a form XObject of this document
+ * (ISO 32000-1 §8.10), to be placed with `Do` as often as needed.
+ */
+export async function drawIntoForm(
+	doc: PDFDocument,
+	widthPt: number,
+	heightPt: number,
+	draw: (page: PDFPage) => Promise<void> | void
+): Promise<PDFRef> {
+	const { parts, resources } = await drawOffPage(doc, draw);
+	const bytes = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
+	parts.reduce((at, p) => (bytes.set(p, at), at + p.length), 0);
+	return doc.context.register(
+		doc.context.stream(zlibSync(bytes, { level: 6 }), {
+			Type: 'XObject',
+			Subtype: 'Form',
+			BBox: [0, 0, widthPt, heightPt],
+			...(resources ? { Resources: resources } : {}),
+			Filter: 'FlateDecode'
+		})
+	);
 }
 
 /** Rounded rectangle path operators in pt (bottom-left x, y), for clipping. */

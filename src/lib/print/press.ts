@@ -12,6 +12,7 @@ import { loadFonts, type FontSet } from './fonts';
 import { CROP_MARK, drawSheetMarks, type MarkLine } from './marks';
 import { PT_PER_MM } from './paper';
 import { PdfFaceWriter, type ColourMode } from './pdf';
+import type { EncodedImageStore } from './pdf-image';
 
 /** Mark length on a press file: shorter than on a sheet, since the page only has to carry them. */
 export const PRESS_MARK_LENGTH_MM = 5;
@@ -76,6 +77,8 @@ export interface PressPdfInput {
 	colour?: ColourMode;
 	cropMarks?: boolean;
 	fonts?: FontSet;
+	/** Encoded image pixels kept between documents (see ./pdf-image.ts). */
+	imageStore?: EncodedImageStore;
 }
 
 export async function buildPressPdf(input: PressPdfInput): Promise<Uint8Array> {
@@ -86,7 +89,8 @@ export async function buildPressPdf(input: PressPdfInput): Promise<Uint8Array> {
 	const writer = await PdfFaceWriter.create(doc, {
 		fonts: input.fonts ?? (await loadFonts()),
 		images: input.images,
-		colour: input.colour ?? 'cmyk'
+		colour: input.colour ?? 'cmyk',
+		imageStore: input.imageStore
 	});
 	for (const face of input.back ? [input.front, input.back] : [input.front]) {
 		await drawPressPage(doc.addPage(), writer, face, !!input.cropMarks);

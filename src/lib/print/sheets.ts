@@ -8,7 +8,7 @@
  *
  * `planSheets` is the pure part (which card goes where); `buildSheetPdf` draws the plan.
  */
-import { PDFDocument, type PDFPage } from 'pdf-lib';
+import { drawObject, PDFDocument, popGraphicsState, pushGraphicsState, type PDFPage, type PDFRef } from 'pdf-lib';
 import type { FaceLayout, ImageAsset } from './display-list';
 import { faceHeightMm } from './display-list';
 import { backSlots, type BackOffsetMm, type DuplexMode } from './duplex';
@@ -17,7 +17,7 @@ import { drawCuttingGuide } from './cutting-guide';
 import { loadFonts, type FontSet } from './fonts';
 import { CROP_MARK, drawSheetMarks, sheetMarks } from './marks';
 import { mmToPt, paperSize, PT_PER_MM, type PaperSpec } from './paper';
-import { PdfFaceWriter, type ColourMode } from './pdf';
+import { drawIntoForm, PdfFaceWriter, type ColourMode } from './pdf';
 import type { EncodedImageStore } from './pdf-image';
 
 export interface SheetFace {
@@ -194,6 +194,8 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 		const imp = group.imposition;
 		const W = imp.sheetWidthMm;
 		const H = imp.sheetHeightMm;
+		// The pages of a group mostly share their marks: each set drawn once as a form, placed on every page with it.
+		const markForms = new Map<string, Promise<PDFRef>>();
 		const size = `${fmt(group.trimWidthMm)} × ${fmt(group.trimHeightMm)} mm`;
 		for (const planned of group.pages) {
 			const page = doc.addPage([mmToPt(W), mmToPt(H)]);
@@ -212,7 +214,18 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 				cropMarks: o.marks && planned.side === 'front',
 				label: { texts, widthMm: (t, pt) => labelFont.widthOfTextAtSize(t, pt) / k }
 			});
-			drawSheetMarks(page, marks, H, { font: labelFont, labelColour });
+			if (marks.lines.length) {
+				// The label can shorten a mark, and its text differs per page: key by the lines themselves.
+				const key = JSON.stringify(marks.lines);
+				if (!markForms.has(key))
+					markForms.set(
+						key,
+						drawIntoForm(doc, mmToPt(W), mmToPt(H), (p) => drawSheetMarks(p, { lines: marks.lines, warnings: [] }, H, { font: labelFont, labelColour }))
+					);
+				const name = page.node.newXObject('Mk', await markForms.get(key)!);
+				page.pushOperators(pushGraphicsState(), drawObject(name), popGraphicsState());
+			}
+			drawSheetMarks(page, { ...marks, lines: [] }, H, { font: labelFont, labelColour });
 			input.onPage?.(++pagesDone, totalPages);
 		}
 	}

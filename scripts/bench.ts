@@ -1,0 +1,498 @@
+/**
+ * `npm run bench`: how fast the print engine imposes a game, measured (never a timed test).
+ *
+ * (a) the demo game and (b) a synthetic 1,000-card game (100 distinct cards × 10 copies) through
+ *     buildGamePdf: cold (empty cache), cached rebuild, and a rebuild after one card changed;
+ *     each repeated (default 5): min / median / max wall time, peak memory, file size.
+ * (c) file size against distinct faces and copies: 100 × 1, 100 × 10, 200 × 1.
+ * (d) a build through the worker pool (cold and warm).
+ * (e) the same job done without Paddock: Debian's chromium printing an HTML page that places a
+ *     PNG per distinct face (rendered beforehand at 300 dpi, timed separately) at the same mm
+ *     positions, through Playwright's page.pdf().
+ *
+ * Writes bench-results.json. Flags: --repeats N, --no-chromium.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { parseArgs } from 'node:util';
+import { demoGameWithArt } from '../src/lib/game/demo-art';
+import type { BetType, Card, Game } from '../src/lib/game/model';
+import { PrintCache } from '../src/lib/print/cache';
+import { forgetSharedFonts } from '../src/lib/print/pdf-fontkit';
+import type { FaceLayout } from '../src/lib/print/display-list';
+import { loadFonts } from '../src/lib/print/fonts';
+import { buildGamePdf, cachedFacePng, renderGameFaces, type GamePdfOptions } from '../src/lib/print/job';
+import { paperSize } from '../src/lib/print/paper';
+import { PrintPool } from '../src/lib/print/pool';
+import { planSheets, type SheetOptions } from '../src/lib/print/sheets';
+
+const { values: flags } = parseArgs({
+	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
+});
+const REPEATS = Math.max(1, Number(flags.repeats ?? 5));
+const CHROMIUM = '/usr/bin/chromium';
+const CHROMIUM_ARGS = [
+	'--headless',
+	'--no-sandbox',
+	'--disable-gpu',
+	'--disable-quic',
+	'--no-first-run',
+	'--disable-background-networking',
+	'--disable-component-update',
+	'--disable-sync'
+];
+
+/** The job every scenario runs: A4, spaced, long-edge duplex, crop marks, cutting guide. */
+const JOB: GamePdfOptions = { paper: 'a4', layout: 'spaced', duplex: 'long', marks: true, sets: 1, colour: 'rgb', date: '2026-01-01' };
+
+/* ------------------------------------------------------------ measuring */
+
+const MB = 1024 * 1024;
+
+/** Peak memory: sampled on a timer and from progress callbacks (the engine's loops block timers). */
+class MemorySampler {
+	peakRss = 0;
+	peakHeap = 0;
+	private timer?: NodeJS.Timeout;
+	private calls = 0;
+	start() {
+		this.peakRss = 0;
+		this.peakHeap = 0;
+		this.sample(true);
+		this.timer = setInterval(() => this.sample(true), 5);
+		return this;
+	}
+	sample(full = false) {
+		if (!full && ++this.calls % 25) {
+			this.peakRss = Math.max(this.peakRss, process.memoryUsage.rss());
+			return;
+		}
+		const m = process.memoryUsage();
+		this.peakRss = Math.max(this.peakRss, m.rss);
+		this.peakHeap = Math.max(this.peakHeap, m.heapUsed);
+	}
+	stop() {
+		clearInterval(this.timer);
+		this.sample(true);
+		return { peakRssMb: round(this.peakRss / MB), peakHeapMb: round(this.peakHeap / MB) };
+	}
+}
+
+interface Series {
+	ms: number[];
+	minMs: number;
+	medianMs: number;
+	maxMs: number;
+}
+
+function series(ms: number[]): Series {
+	const s = [...ms].sort((a, b) => a - b);
+	return { ms: ms.map(round), minMs: round(s[0]), medianMs: round(s[Math.floor(s.length / 2)]), maxMs: round(s[s.length - 1]) };
+}
+
+const round = (v: number) => Math.round(v * 10) / 10;
+const fmtMs = (s: Series) => `${s.minMs.toFixed(0)} / ${s.medianMs.toFixed(0)} / ${s.maxMs.toFixed(0)}`;
+const kb = (n: number) => `${Math.round(n / 1024)} KB`;
+
+async function timed<T>(run: () => Promise<T>): Promise<{ ms: number; value: T }> {
+	const t = performance.now();
+	const value = await run();
+	return { ms: performance.now() - t, value };
+}
+
+/* ------------------------------------------------------- synthetic game */
+
+/**
+ * A game of `distinct` cards, each printed `copies` times: 6 runners × steps 1–9 movement cards
+ * first (54), then wager cards (3 bet types × 6 runners × tiers 1–12), with the demo's art.
+ */
+function syntheticGame(demo: Game, distinct: number, copies: number): Game {
+	const cards: Card[] = [];
+	for (const r of demo.runners)
+		for (let steps = 1; steps <= 9; steps++)
+			cards.push({ id: `bench.mv.${r.id}.${steps}`, kindId: 'kd-movement', name: `${r.name} ${steps}`, data: { type: 'movement', runnerId: r.id, steps }, copies });
+	const bets: BetType[] = ['stage', 'winner', 'loser'];
+	for (let tier = 1; tier <= 12; tier++)
+		for (const betType of bets)
+			for (const r of demo.runners)
+				cards.push({
+					id: `bench.wg.${betType}.${r.id}.${tier}`,
+					kindId: 'kd-wager',
+					name: `${r.name} ${betType} tier ${tier}`,
+					data: { type: 'wager', betType, runnerId: r.id, tier, moneyTableId: `mt-${betType}-${Math.min(tier, 3)}` },
+					copies
+				});
+	if (distinct > cards.length) throw new Error(`at most ${cards.length} distinct cards`);
+	return { ...structuredClone(demo), name: `Bench game ${distinct} × ${copies}`, slug: `bench-${distinct}x${copies}`, cards: cards.slice(0, distinct) };
+}
+
+const cardCount = (g: Game) => g.cards.reduce((n, c) => n + c.copies, 0);
+
+/* --------------------------------------------------------------- Paddock */
+
+interface EngineResult {
+	game: string;
+	cards: number;
+	distinctCards: number;
+	sheets: number;
+	pages: number;
+	fileBytes: number;
+	cold: Series;
+	cached: Series;
+	oneCardChanged: Series;
+	/** Faces laid out again per one-card-changed rebuild. */
+	oneCardMisses: number[];
+	memory: { peakRssMb: number; peakHeapMb: number };
+}
+
+async function benchEngine(label: string, game: Game, art: Map<string, Uint8Array>): Promise<EngineResult> {
+	const sampler = new MemorySampler().start();
+	const onProgress = () => sampler.sample();
+	const cold: number[] = [];
+	let last!: Awaited<ReturnType<typeof buildGamePdf>>;
+	for (let i = 0; i < REPEATS; i++) {
+		// Cold: nothing laid out, decoded or shaped yet (fonts stay loaded, as in a running server).
+		const cache = new PrintCache();
+		forgetSharedFonts();
+		const r = await timed(() => buildGamePdf(game, art, { ...JOB, cache, onProgress }));
+		cold.push(r.ms);
+		last = r.value;
+	}
+	const cache = new PrintCache();
+	await buildGamePdf(game, art, { ...JOB, cache });
+	const cached: number[] = [];
+	for (let i = 0; i < REPEATS; i++) cached.push((await timed(() => buildGamePdf(game, art, { ...JOB, cache, onProgress }))).ms);
+	const changed: number[] = [];
+	const misses: number[] = [];
+	const edited = structuredClone(game);
+	for (let i = 0; i < REPEATS; i++) {
+		// A different card each time, renamed (its name is printed on the face).
+		const card = edited.cards[(i * 17) % edited.cards.length];
+		card.name = `${card.name} (edit ${i + 1})`;
+		cache.resetStats();
+		changed.push((await timed(() => buildGamePdf(edited, art, { ...JOB, cache, onProgress }))).ms);
+		misses.push(cache.stats().layout.misses);
+	}
+	const memory = sampler.stop();
+	console.log(`  ${label}: done`);
+	return {
+		game: label,
+		cards: cardCount(game),
+		distinctCards: game.cards.length,
+		sheets: last.sheets,
+		pages: last.pages,
+		fileBytes: last.pdf.length,
+		cold: series(cold),
+		cached: series(cached),
+		oneCardChanged: series(changed),
+		oneCardMisses: misses,
+		memory
+	};
+}
+
+/* -------------------------------------------------------------- chromium */
+
+interface ChromiumResult {
+	game: string;
+	facesPrerendered: number;
+	prerenderMs: number;
+	withLaunch: Series;
+	pageOnly: Series;
+	fileBytes: number;
+	pages: number;
+}
+
+/**
+ * The same sheets as HTML: one absolutely positioned <img> per card at the slot Paddock's plan
+ * gives it (mm), backs mirrored as in the PDF, one CSS page per sheet side. No crop marks.
+ */
+async function benchChromium(label: string, game: Game, art: Map<string, Uint8Array>): Promise<ChromiumResult> {
+	const { chromium } = await import('@playwright/test');
+	const dir = mkdtempSync(join(tmpdir(), 'paddock-bench-'));
+	try {
+		const cache = new PrintCache();
+		const faces = await renderGameFaces(game, art, { cache });
+		const keys = new Map<FaceLayout, string>();
+		for (const c of faces.cards) {
+			keys.set(c.front, c.frontKey);
+			if (c.back && c.backKey) keys.set(c.back, c.backKey);
+		}
+		const files = new Map<FaceLayout, string>();
+		const pre = await timed(async () => {
+			for (const [face, key] of keys) {
+				const name = `f${files.size}.png`;
+				writeFileSync(join(dir, name), await cachedFacePng(face, key, faces.images, 300, cache));
+				files.set(face, name);
+			}
+		});
+		const options: SheetOptions = { ...JOB, marginMm: 5, cuttingGuide: false, backOffsetMm: undefined, sets: 1, marks: true, duplex: JOB.duplex };
+		const plan = planSheets({ faces: faces.cards, options });
+		const sheet = paperSize(JOB.paper);
+		const pages: string[] = [];
+		for (const g of plan.groups) {
+			const landscape = g.imposition.orientation === 'landscape';
+			for (const p of g.pages) {
+				const imgs = p.cards
+					.map((c) => {
+						const b = c.slot.bleedBox;
+						return `<img src="${files.get(c.face)}" style="left:${b.xMm}mm;top:${b.yMm}mm;width:${b.widthMm}mm;height:${b.heightMm}mm">`;
+					})
+					.join('');
+				pages.push(`<section class="${landscape ? 'land' : 'port'}">${imgs}</section>`);
+			}
+		}
+		const [w, h] = [sheet.widthMm, sheet.heightMm];
+		const html = `<!doctype html><html><head><meta charset="utf-8"><style>
+@page port { size: ${w}mm ${h}mm; margin: 0 }
+@page land { size: ${h}mm ${w}mm; margin: 0 }
+html, body { margin: 0; padding: 0 }
+section { position: relative; overflow: hidden; break-after: page }
+section.port { page: port; width: ${w}mm; height: ${h}mm }
+section.land { page: land; width: ${h}mm; height: ${w}mm }
+img { position: absolute; display: block }
+</style></head><body>${pages.join('\n')}</body></html>`;
+		const htmlPath = join(dir, 'sheets.html');
+		writeFileSync(htmlPath, html);
+
+		const withLaunch: number[] = [];
+		const pageOnly: number[] = [];
+		let pdf = new Uint8Array();
+		for (let i = 0; i < REPEATS; i++) {
+			const t0 = performance.now();
+			const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS });
+			try {
+				const page = await browser.newPage();
+				const t1 = performance.now();
+				await page.goto(pathToFileURL(htmlPath).href, { waitUntil: 'load' });
+				pdf = new Uint8Array(await page.pdf({ preferCSSPageSize: true, printBackground: true }));
+				pageOnly.push(performance.now() - t1);
+			} finally {
+				await browser.close();
+			}
+			withLaunch.push(performance.now() - t0);
+		}
+		console.log(`  chromium, ${label}: done`);
+		return {
+			game: label,
+			facesPrerendered: files.size,
+			prerenderMs: round(pre.ms),
+			withLaunch: series(withLaunch),
+			pageOnly: series(pageOnly),
+			fileBytes: pdf.length,
+			pages: pages.length
+		};
+	} finally {
+		rmSync(dir, { recursive: true, force: true });
+	}
+}
+
+/* ---------------------------------------------------------------- memory */
+
+/**
+ * The 1,000-card build alone in a fresh process, so its peak is not mixed with the rest of the
+ * benchmark: RSS before the build (runtime, modules, fonts, the demo art) and the process's
+ * peak (getrusage maxRSS) after a cold build and a rebuild.
+ */
+async function memoryChild() {
+	const { game: demo, art } = await demoGameWithArt();
+	await loadFonts();
+	const big = syntheticGame(demo, 100, 10);
+	const baseline = process.memoryUsage();
+	const cache = new PrintCache();
+	const sampler = new MemorySampler().start();
+	const cold = await timed(() => buildGamePdf(big, art, { ...JOB, cache, onProgress: () => sampler.sample() }));
+	await buildGamePdf(big, art, { ...JOB, cache, onProgress: () => sampler.sample() });
+	const sampled = sampler.stop();
+	process.stdout.write(
+		JSON.stringify({
+			baselineRssMb: round(baseline.rss / MB),
+			baselineHeapMb: round(baseline.heapUsed / MB),
+			peakRssMb: round((process.resourceUsage().maxRSS * 1024) / MB),
+			peakHeapMb: sampled.peakHeapMb,
+			coldMs: round(cold.ms)
+		})
+	);
+}
+
+function measureMemoryInChild(): { baselineRssMb: number; baselineHeapMb: number; peakRssMb: number; peakHeapMb: number; coldMs: number } {
+	const run = spawnSync(process.execPath, [...process.execArgv, fileURLToPath(import.meta.url), '--memory-child'], {
+		encoding: 'utf8',
+		maxBuffer: 1 << 20
+	});
+	if (run.status !== 0) throw new Error(`memory child failed: ${run.stderr}`);
+	return JSON.parse(run.stdout.trim().split('\n').at(-1)!);
+}
+
+/* ------------------------------------------------------------------ main */
+
+async function main() {
+	console.log(`Paddock print benchmark: ${REPEATS} repeats, node ${process.version}`);
+	const t0 = performance.now();
+	const { game: demo, art } = await demoGameWithArt();
+	const demoArtMs = performance.now() - t0;
+
+	// The first build of a process also loads fonts and WebAssembly: measured once, apart.
+	const first = await timed(() => buildGamePdf(demo, art, { ...JOB, cache: new PrintCache() }));
+	await loadFonts();
+
+	console.log('Engine:');
+	const big = syntheticGame(demo, 100, 10);
+	const engine = [await benchEngine('demo game', demo, art), await benchEngine('1,000 cards (100 × 10)', big, art)];
+
+	// File size: distinct faces, not copies.
+	const sizes: { game: string; cards: number; distinct: number; bytes: number; ms: number }[] = [];
+	for (const [distinct, copies] of [
+		[100, 1],
+		[100, 10],
+		[200, 1]
+	]) {
+		const g = syntheticGame(demo, distinct, copies);
+		forgetSharedFonts();
+		const r = await timed(() => buildGamePdf(g, art, { ...JOB, cache: new PrintCache() }));
+		sizes.push({ game: `${distinct} × ${copies}`, cards: cardCount(g), distinct, bytes: r.value.pdf.length, ms: round(r.ms) });
+	}
+	console.log('  file sizes: done');
+
+	// Through the worker pool: a cold worker, then the same build warm.
+	const pool = new PrintPool({ size: 2 });
+	const plain = { ...JOB };
+	const poolCold = await timed(() => pool.run({ type: 'sheets', game: big, art, options: plain }));
+	const poolWarm = await timed(() => pool.run({ type: 'sheets', game: big, art, options: plain }));
+	await pool.close();
+	console.log('  worker pool: done');
+	const memory = measureMemoryInChild();
+	console.log('  memory in a fresh process: done');
+	const maxRssMb = round((process.resourceUsage().maxRSS * 1024) / MB);
+
+	const chrome: ChromiumResult[] = [];
+	if (!flags['no-chromium']) {
+		console.log('Chromium:');
+		chrome.push(await benchChromium('demo game', demo, art));
+		chrome.push(await benchChromium('1,000 cards (100 × 10)', big, art));
+	}
+
+	/* ------------------------------------------------------------ report */
+	console.log(`\nDemo art rendered in ${demoArtMs.toFixed(0)} ms; first build in this process (fonts, wasm) ${first.ms.toFixed(0)} ms.`);
+	console.log('\nPaddock, A4 spaced, long-edge duplex, crop marks, cutting guide (ms: min / median / max):');
+	const rows = engine.map((e) => [
+		e.game,
+		String(e.cards),
+		`${e.sheets} / ${e.pages}`,
+		fmtMs(e.cold),
+		fmtMs(e.cached),
+		fmtMs(e.oneCardChanged),
+		e.oneCardMisses.join(','),
+		kb(e.fileBytes),
+		`${e.memory.peakRssMb} / ${e.memory.peakHeapMb}`
+	]);
+	table(['game', 'cards', 'sheets/pages', 'cold', 'cached', 'one card changed', 're-laid', 'file', 'peak rss/heap MB'], rows);
+
+	console.log('\nFile size against distinct faces and copies (cold builds):');
+	table(
+		['distinct × copies', 'cards', 'file', 'ms'],
+		sizes.map((s) => [s.game, String(s.cards), kb(s.bytes), s.ms.toFixed(0)])
+	);
+	const s = Object.fromEntries(sizes.map((x) => [x.game, x.bytes]));
+	const copiesGrowth = s['100 × 10'] / s['100 × 1'];
+	const distinctGrowth = s['200 × 1'] / s['100 × 1'];
+	// What one more copy costs against one more distinct card (both with their share of sheets).
+	const bytesPerCopy = (s['100 × 10'] - s['100 × 1']) / 900;
+	const bytesPerDistinct = (s['200 × 1'] - s['100 × 1']) / 100;
+	console.log(
+		`  10× the copies: ${copiesGrowth.toFixed(2)}× the bytes; 2× the distinct faces: ${distinctGrowth.toFixed(2)}× the bytes.\n` +
+			`  One more copy adds ${Math.round(bytesPerCopy)} bytes (its share of sheets and marks); one more distinct card ${Math.round(bytesPerDistinct)} bytes.`
+	);
+
+	console.log(
+		`\nWorker pool, 1,000 cards: cold worker ${poolCold.ms.toFixed(0)} ms (in worker ${poolCold.value.ms.toFixed(0)} ms), ` +
+			`warm ${poolWarm.ms.toFixed(0)} ms (in worker ${poolWarm.value.ms.toFixed(0)} ms, ${poolWarm.value.jobCache.layout.misses} faces re-laid).`
+	);
+	console.log(`Process peak RSS so far (getrusage): ${maxRssMb} MB.`);
+	console.log(
+		`1,000 cards in a fresh process: RSS ${memory.baselineRssMb} MB before the build (runtime, modules, fonts, art), ` +
+			`peak ${memory.peakRssMb} MB (getrusage), heap peak ${memory.peakHeapMb} MB; cold build ${memory.coldMs.toFixed(0)} ms.`
+	);
+
+	const ratios: { game: string; withLaunch: number; pageOnly: number }[] = [];
+	if (chrome.length) {
+		console.log('\nChromium page.pdf() of the same sheets from pre-rendered 300 dpi PNGs (ms: min / median / max):');
+		table(
+			['game', 'PNGs pre-rendered (not counted)', 'launch + load + pdf', 'load + pdf', 'pages', 'file'],
+			chrome.map((c) => [c.game, `${c.facesPrerendered} in ${c.prerenderMs.toFixed(0)} ms`, fmtMs(c.withLaunch), fmtMs(c.pageOnly), String(c.pages), kb(c.fileBytes)])
+		);
+		for (const c of chrome) {
+			const e = engine.find((x) => x.game === c.game)!;
+			ratios.push({ game: c.game, withLaunch: round(c.withLaunch.medianMs / e.cold.medianMs), pageOnly: round(c.pageOnly.medianMs / e.cold.medianMs) });
+		}
+		console.log('  chromium ÷ Paddock cold (medians): ' + ratios.map((r) => `${r.game}: ${r.withLaunch}× with launch, ${r.pageOnly}× without`).join('; '));
+	}
+
+	const bigE = engine[1];
+	const targets = {
+		fiveTimesChromium: ratios.length ? ratios.every((r) => r.pageOnly >= 5) : null,
+		thousandCardsUnder3s: bigE.cold.maxMs < 3000,
+		thousandCardsUnder400MB: memory.peakRssMb < 400,
+		oneCardChangeUnderFifthOfCold: engine.every((e) => e.oneCardChanged.medianMs < e.cold.medianMs / 5),
+		// A copy costs a placement and its share of pages; a distinct card costs its drawing.
+		sizeGrowsWithDistinctFacesNotCopies: bytesPerCopy * 10 < bytesPerDistinct
+	};
+	console.log('\nTargets:');
+	console.log(`  ≥ 5× faster than chromium (load + pdf, median):  ${yes(targets.fiveTimesChromium)}${ratios.length ? ` (${ratios.map((r) => `${r.pageOnly}×`).join(', ')})` : ''}`);
+	console.log(`  1,000 cards cold under 3 s (slowest run):        ${yes(targets.thousandCardsUnder3s)} (${bigE.cold.maxMs.toFixed(0)} ms)`);
+	console.log(`  1,000 cards under 400 MB peak RSS:               ${yes(targets.thousandCardsUnder400MB)} (${memory.peakRssMb} MB in its own process)`);
+	console.log(
+		`  one card changed under a fifth of cold (median): ${yes(targets.oneCardChangeUnderFifthOfCold)} (` +
+			engine.map((e) => `${e.game}: ${(e.oneCardChanged.medianMs / e.cold.medianMs).toFixed(2)}`).join(', ') +
+			')'
+	);
+	console.log(`  file size grows with distinct faces, not copies: ${yes(targets.sizeGrowsWithDistinctFacesNotCopies)}`);
+
+	writeFileSync(
+		'bench-results.json',
+		JSON.stringify(
+			{
+				when: new Date().toISOString(),
+				node: process.version,
+				repeats: REPEATS,
+				job: JOB,
+				demoArtMs: round(demoArtMs),
+				firstBuildInProcessMs: round(first.ms),
+				engine,
+				fileSizes: sizes,
+				fileSizeGrowth: {
+					tenTimesCopies: Math.round(copiesGrowth * 100) / 100,
+					twiceDistinct: Math.round(distinctGrowth * 100) / 100,
+					bytesPerCopy: Math.round(bytesPerCopy),
+					bytesPerDistinctCard: Math.round(bytesPerDistinct)
+				},
+				pool: { coldMs: round(poolCold.ms), warmMs: round(poolWarm.ms), warmMisses: poolWarm.value.jobCache.layout.misses },
+				processPeakRssMb: maxRssMb,
+				thousandCardsOwnProcess: memory,
+				chromium: chrome,
+				chromiumOverPaddock: ratios,
+				targets
+			},
+			null,
+			'\t'
+		) + '\n'
+	);
+	console.log('\nWrote bench-results.json');
+}
+
+const yes = (v: boolean | null) => (v === null ? 'not measured' : v ? 'met' : 'NOT met');
+
+function table(head: string[], rows: string[][]) {
+	const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+	const line = (cells: string[]) => '  ' + cells.map((c, i) => c.padEnd(widths[i])).join('  ');
+	console.log(line(head));
+	console.log('  ' + widths.map((w) => '-'.repeat(w)).join('  '));
+	for (const r of rows) console.log(line(r));
+}
+
+(flags['memory-child'] ? memoryChild() : main()).catch((e) => {
+	console.error(e);
+	process.exitCode = 1;
+});

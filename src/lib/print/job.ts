@@ -1,0 +1,680 @@
+/**
+ * Print jobs: a whole game (data + art bytes) → the files a designer, playtester or print shop
+ * downloads. The HTTP routes, the CLI (scripts/print.ts) and the worker pool (./pool.ts) all call
+ * these functions, and all parse their options with the same schema.
+ *
+ * - `renderGameFaces`: every card's front and back laid out (../print/layout), cached by content.
+ * - `buildGamePdf`: the imposed sheet PDF (./sheets.ts), with options checked first.
+ * - `buildCardPressPdf`: one card's press file with TrimBox and BleedBox (./press.ts).
+ * - `buildCardsPngZip`: one PNG per card face at 300 dpi with bleed, in a zip.
+ *
+ * Plain TypeScript with relative imports only: it runs in the app, in `tsx` scripts and in
+ * worker threads alike.
+ */
+import { strToU8, zipSync, type Zippable } from 'fflate';
+import { imageSize } from 'image-size';
+import Papa from 'papaparse';
+import { z } from 'zod';
+import { effectiveDpi, faceWithBleedMm, MIN_PRINT_DPI } from '../game/art-check';
+import type { ArtAsset, Card, CardKind, Game } from '../game/model';
+import { faceBytes, faceKey, printCache, type PrintCache } from './cache';
+import { PRINT_SHOP_NOTE } from './cutting-guide';
+import type { FaceLayout, ImageAsset } from './display-list';
+import type { DuplexMode } from './duplex';
+import { faceHeightMm, faceWidthMm } from './display-list';
+import { loadFonts } from './fonts';
+import { impose, type ImposeLayout } from './impose';
+import { layoutFace, TEMPLATES } from './layout/index';
+import { paperSize, type PaperName, type PaperSpec } from './paper';
+import type { ColourMode } from './pdf';
+import { svgToPng } from './png';
+import { buildPressPdf } from './press';
+import { buildSheetPdf, planSheets, type SheetFace, type SheetOptions } from './sheets';
+import { renderSvg } from './svg';
+
+/* ---------------------------------------------------------------- errors */
+
+/** A request the engine refuses as asked (bad or impossible options); `status` is the HTTP answer. */
+export class PrintOptionsError extends Error {
+	constructor(
+		message: string,
+		readonly status = 400
+	) {
+		super(message);
+		this.name = 'PrintOptionsError';
+	}
+}
+
+/* --------------------------------------------------------------- options */
+
+/** Sides of a custom sheet, mm: from a postcard to a large-format roll width (our own bounds). */
+export const CUSTOM_PAPER_MIN_MM = 50;
+export const CUSTOM_PAPER_MAX_MM = 1500;
+export const SETS_MAX = 50;
+export const MARGIN_MAX_MM = 50;
+/** Office printers are often off by 1–2 mm; the calibration sheet reads up to 10 (see ./calibration.ts). */
+export const BACK_OFFSET_MAX_MM = 10;
+/**
+ * Unprintable border assumed when none is given. Office printers commonly need 3–6 mm (common
+ * practice, from memory); the printer profile should say.
+ */
+export const DEFAULT_MARGIN_MM = 5;
+
+const PAPER_NAMES = ['a4', 'a3', 'letter', 'tabloid'] as const satisfies readonly PaperName[];
+
+/** 'a4' | 'a3' | 'letter' | 'tabloid' | 'custom:<w>x<h>' (mm), case-insensitive. */
+export function parsePaper(text: string): PaperSpec {
+	const v = text.trim().toLowerCase();
+	if ((PAPER_NAMES as readonly string[]).includes(v)) return v as PaperName;
+	const m = /^custom:(\d+(?:\.\d+)?)x(\d+(?:\.\d+)?)$/.exec(v);
+	if (!m) throw new PrintOptionsError(`Unknown paper “${text}”: use a4, a3, letter, tabloid or custom:<width>x<height> in mm`);
+	const [w, h] = [Number(m[1]), Number(m[2])];
+	for (const side of [w, h])
+		if (side < CUSTOM_PAPER_MIN_MM || side > CUSTOM_PAPER_MAX_MM)
+			throw new PrintOptionsError(`Custom paper sides must be ${CUSTOM_PAPER_MIN_MM}–${CUSTOM_PAPER_MAX_MM} mm, not ${side} mm`);
+	return { widthMm: w, heightMm: h };
+}
+
+/** Query-string booleans: 1/0, true/false, yes/no, on/off; a bare `?marks` counts as yes. */
+const Boolish = z
+	.union([z.boolean(), z.string().trim().toLowerCase()])
+	.transform((v, ctx) => {
+		if (typeof v === 'boolean') return v;
+		if (['', '1', 'true', 'yes', 'on'].includes(v)) return true;
+		if (['0', 'false', 'no', 'off'].includes(v)) return false;
+		ctx.addIssue({ code: 'custom', message: `“${v}” is not yes or no` });
+		return z.NEVER;
+	});
+
+const Paper = z
+	.string()
+	.transform((v, ctx) => {
+		try {
+			return parsePaper(v);
+		} catch (e) {
+			ctx.addIssue({ code: 'custom', message: (e as Error).message });
+			return z.NEVER;
+		}
+	});
+
+const mm = (max: number, what: string) =>
+	z.coerce.number({ error: `${what} must be a number of mm` }).min(-max, `${what} is at most ${max} mm either way`).max(max, `${what} is at most ${max} mm either way`);
+
+/** The query parameters of a sheet PDF request (also the CLI's flags), as they arrive: strings. */
+export const PrintQuerySchema = z.object({
+	paper: Paper.default('a4'),
+	layout: z.enum(['spaced', 'butted', 'fold'], { error: 'layout is spaced, butted or fold' }).default('spaced'),
+	duplex: z.enum(['none', 'long', 'short'], { error: 'duplex is none, long or short' }).default('none'),
+	marks: Boolish.default(true),
+	sets: z.coerce
+		.number({ error: 'sets must be a whole number' })
+		.int('sets must be a whole number')
+		.min(1, `sets is 1 to ${SETS_MAX}`)
+		.max(SETS_MAX, `sets is 1 to ${SETS_MAX}`)
+		.default(1),
+	margin: z.coerce
+		.number({ error: 'margin must be a number of mm' })
+		.min(0, 'margin cannot be negative')
+		.max(MARGIN_MAX_MM, `margin is at most ${MARGIN_MAX_MM} mm`)
+		.default(DEFAULT_MARGIN_MM),
+	colour: z.enum(['rgb', 'cmyk'], { error: 'colour is rgb or cmyk' }).default('rgb'),
+	guide: Boolish.default(true),
+	/** Card kind ids, comma-separated; all kinds when absent. */
+	kinds: z
+		.string()
+		.transform((v) => v.split(',').map((s) => s.trim()).filter(Boolean))
+		.optional(),
+	backX: mm(BACK_OFFSET_MAX_MM, 'backX').default(0),
+	backY: mm(BACK_OFFSET_MAX_MM, 'backY').default(0)
+});
+
+/** The query parsed into the options `buildGamePdf` takes. */
+export const PrintOptionsSchema = PrintQuerySchema.transform(
+	(q): GamePdfOptions => ({
+		paper: q.paper,
+		marginMm: q.margin,
+		layout: q.layout,
+		duplex: q.duplex,
+		marks: q.marks,
+		sets: q.sets,
+		colour: q.colour,
+		cuttingGuide: q.guide,
+		kinds: q.kinds,
+		backOffsetMm: { x: q.backX, y: q.backY }
+	})
+);
+export type PrintQuery = z.input<typeof PrintQuerySchema>;
+
+/** Parse query parameters (URLSearchParams or a plain record); throws PrintOptionsError with every reason. */
+export function parsePrintOptions(query: URLSearchParams | Record<string, string | undefined>): GamePdfOptions {
+	const raw = query instanceof URLSearchParams ? Object.fromEntries(query) : query;
+	const parsed = PrintOptionsSchema.safeParse(raw);
+	if (!parsed.success)
+		throw new PrintOptionsError(
+			parsed.error.issues
+				.map((i) => {
+					const where = i.path.join('.');
+					// Most messages name their parameter already.
+					return !where || i.message.toLowerCase().includes(where.toLowerCase()) ? i.message : `${where}: ${i.message}`;
+				})
+				.join('; ')
+		);
+	return parsed.data;
+}
+
+export interface GamePdfOptions {
+	paper: PaperSpec;
+	marginMm?: number;
+	layout: ImposeLayout;
+	duplex: DuplexMode;
+	marks: boolean;
+	sets: number;
+	/** The printer's back-side error read from the calibration sheet (see ./duplex.ts). */
+	backOffsetMm?: { x: number; y: number };
+	colour: ColourMode;
+	cuttingGuide?: boolean;
+	/** Card kind ids to print; all when absent. */
+	kinds?: string[];
+	title?: string;
+	versionLabel?: string;
+	/** As the sheet label should read it; today (UTC) when absent. */
+	date?: string;
+	onProgress?: (done: number, total: number) => void;
+	cache?: PrintCache;
+}
+
+export interface RenderFacesOptions {
+	kinds?: string[];
+	/** Complete sets: multiplies every card's copies. */
+	sets?: number;
+	onProgress?: (done: number, total: number) => void;
+	cache?: PrintCache;
+}
+
+/* ---------------------------------------------------------------- images */
+
+/** Decoding guard: past this a picture is refused before it is decoded (100 MP ≈ 400 MB of RGBA). */
+export const MAX_IMAGE_PIXELS = 100_000_000;
+/** SVG art is rasterised for print at this resolution over the game's largest face (common practice). */
+export const SVG_ART_DPI = 300;
+
+export interface GameImages {
+	/** By content hash (ArtAsset.sha256), as the layout looks them up. */
+	images: Map<string, ImageAsset>;
+	warnings: string[];
+}
+
+/**
+ * The game's art as images the backends can draw: PNG and JPEG as they are (size read from the
+ * header, not trusted from the record), SVG rasterised once. Art without bytes, or too large
+ * to decode, is left out with a warning; its slots draw a placeholder.
+ */
+export async function loadGameImages(game: Game, art: ReadonlyMap<string, Uint8Array>, cache: PrintCache = printCache): Promise<GameImages> {
+	const images = new Map<string, ImageAsset>();
+	const warnings: string[] = [];
+	const seen = new Set<string>();
+	// Vector art is drawn at a size good for the game's largest face.
+	const largestFaceMm = Math.max(40, ...game.kinds.map((k) => Math.max(faceWithBleedMm(k.size, k.bleed).widthMm, faceWithBleedMm(k.size, k.bleed).heightMm)));
+	for (const asset of game.art) {
+		if (seen.has(asset.sha256)) continue;
+		seen.add(asset.sha256);
+		const bytes = art.get(asset.sha256);
+		if (!bytes) {
+			warnings.push(`art “${asset.fileName}” has no file; its slots show a placeholder`);
+			continue;
+		}
+		try {
+			const image = await cache.getOrMake(
+				'image',
+				`${asset.sha256}:${asset.mime}:${bytes.length}:${asset.mime === 'image/svg+xml' ? largestFaceMm : ''}`,
+				() => loadImage(asset, bytes, largestFaceMm),
+				(img) => img.bytes.length + 128
+			);
+			images.set(asset.sha256, image);
+		} catch (e) {
+			warnings.push(`art “${asset.fileName}” cannot be printed: ${(e as Error).message}; its slots show a placeholder`);
+		}
+	}
+	return { images, warnings };
+}
+
+async function loadImage(asset: ArtAsset, bytes: Uint8Array, largestFaceMm: number): Promise<ImageAsset> {
+	if (asset.mime === 'image/svg+xml') {
+		const svg = new TextDecoder().decode(bytes);
+		const png = await svgToPng(svg, { widthMm: largestFaceMm, dpi: SVG_ART_DPI });
+		return { id: asset.sha256, mime: 'image/png', bytes: png.png, widthPx: png.widthPx, heightPx: png.heightPx };
+	}
+	let header: { width?: number; height?: number; type?: string };
+	try {
+		header = imageSize(bytes);
+	} catch {
+		throw new Error('the file is not a readable PNG or JPEG');
+	}
+	const mime = header.type === 'png' ? 'image/png' : header.type === 'jpg' ? 'image/jpeg' : undefined;
+	if (!mime || !header.width || !header.height) throw new Error(`the file is ${header.type ?? 'unknown'}, not PNG or JPEG`);
+	if (header.width * header.height > MAX_IMAGE_PIXELS)
+		throw new Error(`${header.width} × ${header.height} px is more than ${MAX_IMAGE_PIXELS / 1e6} megapixels`);
+	return { id: asset.sha256, mime, bytes, widthPx: header.width, heightPx: header.height };
+}
+
+/* ----------------------------------------------------------------- faces */
+
+export interface RenderedCard extends SheetFace {
+	cardId: string;
+	cardName: string;
+	kindId: string;
+	/** Content keys of the faces (see ./cache.ts), for caches further down. */
+	frontKey: string;
+	backKey?: string;
+	/** True when the back is the kind's one shared back (the same FaceLayout for every card). */
+	sharedBack: boolean;
+}
+
+export interface GameFaces {
+	/** Grouped by face size (trim + bleed), in the game's order within a size. */
+	cards: RenderedCard[];
+	images: Map<string, ImageAsset>;
+	warnings: string[];
+	/** How many faces were laid out (not found in the cache). */
+	laidOut: number;
+}
+
+function selectKinds(game: Game, kindIds: string[] | undefined): CardKind[] {
+	if (!kindIds?.length) return game.kinds;
+	const byId = new Map(game.kinds.map((k) => [k.id, k]));
+	return kindIds.map((id) => {
+		const k = byId.get(id);
+		if (!k) throw new PrintOptionsError(`This game has no card kind “${id}”`);
+		return k;
+	});
+}
+
+/** A shared back drawn by the plain back module needs no card: lay it out once per kind. */
+function backIsShared(kind: CardKind): boolean {
+	return kind.back.mode === 'shared' && (TEMPLATES.get(kind.back.template)?.face ?? 'back') === 'back';
+}
+
+const sizeKey = (f: FaceLayout) => `${f.trimWidthMm}×${f.trimHeightMm}+${f.bleedMm}`;
+
+/**
+ * Every printable card of the chosen kinds with both faces laid out, copies multiplied by
+ * `sets`. Faces come from the cache when nothing they are made from has changed; the same
+ * FaceLayout object is returned for every copy and for every card sharing a back, so the PDF
+ * draws each once.
+ */
+export async function renderGameFaces(game: Game, art: ReadonlyMap<string, Uint8Array>, options: RenderFacesOptions = {}): Promise<GameFaces> {
+	const cache = options.cache ?? printCache;
+	const sets = options.sets ?? 1;
+	if (!Number.isInteger(sets) || sets < 1 || sets > SETS_MAX) throw new PrintOptionsError(`sets is 1 to ${SETS_MAX}`);
+	const kinds = selectKinds(game, options.kinds);
+	const [fonts, loaded] = await Promise.all([loadFonts(), loadGameImages(game, art, cache)]);
+	const { images } = loaded;
+	const warnings = [...loaded.warnings];
+
+	const jobs: { kind: CardKind; card: Card }[] = [];
+	for (const kind of kinds) for (const card of game.cards) if (card.kindId === kind.id && card.copies > 0) jobs.push({ kind, card });
+	const sharedKinds = new Set(kinds.filter((k) => backIsShared(k) && jobs.some((j) => j.kind === k)).map((k) => k.id));
+	const total = jobs.length * 2 - jobs.filter((j) => sharedKinds.has(j.kind.id)).length + sharedKinds.size;
+	let done = 0;
+	let laidOut = 0;
+	const face = async (kind: CardKind, card: Card | undefined, side: 'front' | 'back') => {
+		const key = faceKey(game, kind, card, side, images);
+		const layout = await cache.getOrMake(
+			'layout',
+			key,
+			() => {
+				laidOut++;
+				return layoutFace({ game, kind, card, side, images, fonts });
+			},
+			faceBytes
+		);
+		options.onProgress?.(++done, total);
+		return { key, layout };
+	};
+
+	const sharedBacks = new Map<string, { key: string; layout: FaceLayout }>();
+	for (const kind of kinds) if (sharedKinds.has(kind.id)) sharedBacks.set(kind.id, await face(kind, undefined, 'back'));
+
+	const cards: RenderedCard[] = [];
+	for (const { kind, card } of jobs) {
+		const front = await face(kind, card, 'front');
+		const back = sharedBacks.get(kind.id) ?? (await face(kind, card, 'back'));
+		cards.push({
+			cardId: card.id,
+			cardName: card.name,
+			kindId: kind.id,
+			kindKey: kind.name,
+			front: front.layout,
+			back: back.layout,
+			frontKey: front.key,
+			backKey: back.key,
+			sharedBack: sharedKinds.has(kind.id),
+			copies: card.copies * sets
+		});
+	}
+	const seenWarnings = new Set(warnings);
+	const note = (w: string) => {
+		if (seenWarnings.has(w)) return;
+		seenWarnings.add(w);
+		warnings.push(w);
+	};
+	for (const c of cards) for (const w of [...c.front.warnings, ...(c.back?.warnings ?? [])]) note(w);
+	for (const w of artResolutionWarnings(game, cards, images)) note(w);
+
+	// Group by size (first-seen order), keeping the game's order inside each group.
+	const order = new Map<string, number>();
+	for (const c of cards) if (!order.has(sizeKey(c.front))) order.set(sizeKey(c.front), order.size);
+	const grouped = cards.map((c, i) => ({ c, i })).sort((a, b) => order.get(sizeKey(a.c.front))! - order.get(sizeKey(b.c.front))! || a.i - b.i);
+	return { cards: grouped.map((g) => g.c), images, warnings, laidOut };
+}
+
+/**
+ * Art that prints soft: the resolution each image really gets at the size the layout placed it
+ * (a cover-fitted image is placed larger than its slot, so this is what the printer sees).
+ */
+function artResolutionWarnings(game: Game, cards: RenderedCard[], images: Map<string, ImageAsset>): string[] {
+	const names = new Map(game.art.map((a) => [a.sha256, a.fileName]));
+	const out: string[] = [];
+	const seen = new Set<FaceLayout>();
+	for (const c of cards)
+		for (const face of [c.front, c.back]) {
+			if (!face || seen.has(face)) continue;
+			seen.add(face);
+			for (const item of face.items) {
+				if (item.type !== 'image') continue;
+				const img = images.get(item.imageId);
+				if (!img) continue;
+				const dpi = Math.min(effectiveDpi(img.widthPx, item.wMm), effectiveDpi(img.heightPx, item.hMm));
+				if (dpi < MIN_PRINT_DPI)
+					out.push(
+						`${c.kindKey}: art “${names.get(item.imageId) ?? item.imageId}” prints at ${Math.round(dpi)} dpi; ` +
+							`${MIN_PRINT_DPI} dpi is common practice for print`
+					);
+			}
+		}
+	return out;
+}
+
+/* ------------------------------------------------------------ sheet PDF */
+
+export interface GamePdf {
+	pdf: Uint8Array;
+	/** Physical sheets of paper (a duplex sheet has two pages). */
+	sheets: number;
+	pages: number;
+	warnings: string[];
+}
+
+const fmtMm = (v: number) => String(Math.round(v * 100) / 100);
+
+function paperWords(spec: PaperSpec): string {
+	const p = paperSize(spec);
+	return typeof spec === 'string' ? p.label : `a ${p.label} sheet`;
+}
+
+/** Refuse sizes that cannot be imposed, naming the kinds and their size with bleed. */
+function checkFit(cards: RenderedCard[], o: Required<Pick<GamePdfOptions, 'paper' | 'marginMm' | 'layout'>>): void {
+	const sheet = paperSize(o.paper);
+	if (o.marginMm * 2 >= sheet.widthMm)
+		throw new PrintOptionsError(`A ${fmtMm(o.marginMm)} mm margin leaves no printable area on ${paperWords(o.paper)}`);
+	const groups = new Map<string, { face: FaceLayout; kinds: Set<string> }>();
+	for (const c of cards) {
+		const k = sizeKey(c.front);
+		if (!groups.has(k)) groups.set(k, { face: c.front, kinds: new Set() });
+		groups.get(k)!.kinds.add(c.kindKey);
+	}
+	for (const { face, kinds } of groups.values()) {
+		const fit = impose({
+			sheet,
+			marginMm: o.marginMm,
+			trimWidthMm: face.trimWidthMm,
+			trimHeightMm: face.trimHeightMm,
+			bleedMm: face.bleedMm,
+			layout: o.layout
+		});
+		if (fit.ok) continue;
+		const w = faceWidthMm(face);
+		const h = faceHeightMm(face);
+		const size =
+			o.layout === 'fold'
+				? `${fmtMm(2 * face.trimWidthMm + 2 * face.bleedMm)} × ${fmtMm(h)} mm with bleed, front and back side by side`
+				: `${fmtMm(w)} × ${fmtMm(h)} mm with bleed`;
+		throw new PrintOptionsError(
+			`${[...kinds].join(', ')} (${size}) do not fit inside ${paperWords(o.paper)}’s printable area with a ${fmtMm(o.marginMm)} mm margin`
+		);
+	}
+}
+
+function checkCommon(o: GamePdfOptions): void {
+	if (!Number.isInteger(o.sets) || o.sets < 1 || o.sets > SETS_MAX) throw new PrintOptionsError(`sets is 1 to ${SETS_MAX}`);
+	const margin = o.marginMm ?? DEFAULT_MARGIN_MM;
+	if (!(margin >= 0 && margin <= MARGIN_MAX_MM)) throw new PrintOptionsError(`margin is 0 to ${MARGIN_MAX_MM} mm`);
+	for (const v of [o.backOffsetMm?.x ?? 0, o.backOffsetMm?.y ?? 0])
+		if (!(Math.abs(v) <= BACK_OFFSET_MAX_MM)) throw new PrintOptionsError(`the back offset is at most ${BACK_OFFSET_MAX_MM} mm either way`);
+	if (!['spaced', 'butted', 'fold'].includes(o.layout)) throw new PrintOptionsError('layout is spaced, butted or fold');
+	if (!['none', 'long', 'short'].includes(o.duplex)) throw new PrintOptionsError('duplex is none, long or short');
+	if (!['rgb', 'cmyk'].includes(o.colour)) throw new PrintOptionsError('colour is rgb or cmyk');
+	paperSize(o.paper);
+}
+
+/** The imposed sheet PDF of a game. Progress counts faces laid out, then pages drawn. */
+export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Array>, options: GamePdfOptions): Promise<GamePdf> {
+	checkCommon(options);
+	const cache = options.cache ?? printCache;
+	const marginMm = options.marginMm ?? DEFAULT_MARGIN_MM;
+	const kinds = selectKinds(game, options.kinds);
+	// Face progress is the first part of the whole; pages (known once planned) the rest.
+	let faceTotal = 0;
+	let faceDone = 0;
+	let pageTotal = 0;
+	const report = (pagesDone: number) => options.onProgress?.(faceDone + pagesDone, faceTotal + pageTotal);
+	const faces = await renderGameFaces(game, art, {
+		kinds: kinds.map((k) => k.id),
+		cache,
+		onProgress: (d, t) => {
+			faceDone = d;
+			faceTotal = t;
+			report(0);
+		}
+	});
+	if (!faces.cards.length) throw new PrintOptionsError('Nothing to print: the chosen card kinds have no cards with copies');
+	checkFit(faces.cards, { paper: options.paper, marginMm, layout: options.layout });
+
+	const sheetOptions: SheetOptions = {
+		paper: options.paper,
+		marginMm,
+		layout: options.layout,
+		duplex: options.duplex,
+		marks: options.marks,
+		sets: options.sets,
+		backOffsetMm: options.backOffsetMm ? { xMm: options.backOffsetMm.x, yMm: options.backOffsetMm.y } : undefined,
+		colour: options.colour,
+		cuttingGuide: options.cuttingGuide ?? true
+	};
+	const plan = planSheets({ faces: faces.cards, options: sheetOptions });
+	pageTotal = plan.groups.reduce((n, g) => n + g.pages.length, 0) + (sheetOptions.cuttingGuide ? 1 : 0);
+	const pdf = await buildSheetPdf({
+		title: options.title ?? game.name,
+		versionLabel: options.versionLabel ?? 'draft',
+		date: options.date ?? new Date().toISOString().slice(0, 10),
+		faces: faces.cards,
+		images: faces.images,
+		options: sheetOptions,
+		fonts: await loadFonts(),
+		imageStore: cache,
+		onPage: (d) => report(d)
+	});
+	return { pdf, sheets: plan.sheetCount, pages: pageTotal, warnings: [...faces.warnings, ...plan.warnings] };
+}
+
+/* ------------------------------------------------------------ press PDF */
+
+export interface CardPressOptions {
+	colour?: ColourMode;
+	cropMarks?: boolean;
+	cache?: PrintCache;
+}
+
+function findCard(game: Game, cardId: string): { card: Card; kind: CardKind } {
+	const card = game.cards.find((c) => c.id === cardId);
+	if (!card) throw new PrintOptionsError(`This game has no card “${cardId}”`, 404);
+	const kind = game.kinds.find((k) => k.id === card.kindId);
+	if (!kind) throw new PrintOptionsError(`Card “${card.name}” belongs to a missing card kind`);
+	return { card, kind };
+}
+
+/** One card's press file: front on page 1, back on page 2, TrimBox and BleedBox set (CMYK unless asked). */
+export async function buildCardPressPdf(
+	game: Game,
+	art: ReadonlyMap<string, Uint8Array>,
+	cardId: string,
+	options: CardPressOptions = {}
+): Promise<{ pdf: Uint8Array; warnings: string[] }> {
+	const { card, kind } = findCard(game, cardId);
+	const cache = options.cache ?? printCache;
+	const [fonts, { images, warnings }] = await Promise.all([loadFonts(), loadGameImages(game, art, cache)]);
+	const layout = (side: 'front' | 'back') =>
+		cache.getOrMake('layout', faceKey(game, kind, card, side, images), () => layoutFace({ game, kind, card, side, images, fonts }), faceBytes);
+	const front = await layout('front');
+	const back = await layout('back');
+	const pdf = await buildPressPdf({
+		title: `${game.name} — ${card.name}`,
+		front,
+		back,
+		images,
+		colour: options.colour ?? 'cmyk',
+		cropMarks: options.cropMarks ?? false,
+		fonts,
+		imageStore: cache
+	});
+	return { pdf, warnings: [...warnings, ...front.warnings, ...back.warnings] };
+}
+
+/* -------------------------------------------------------------- PNG zip */
+
+export interface PngZipOptions {
+	dpi?: number;
+	kinds?: string[];
+	onProgress?: (done: number, total: number) => void;
+	cache?: PrintCache;
+}
+
+/** Per-card raster files: 300 dpi is common practice for card printing. */
+export const PNG_DPI_DEFAULT = 300;
+export const PNG_DPI_MIN = 72;
+export const PNG_DPI_MAX = 600;
+
+/** A face's SVG with its images inlined, cached by the face's content key. */
+export function cachedFaceSvg(face: FaceLayout, key: string, images: Map<string, ImageAsset>, cache: PrintCache = printCache): Promise<string> {
+	return cache.getOrMake('svg', key, () => renderSvg(face, images), (s) => s.length * 2);
+}
+
+/** A face's PNG at `dpi` with bleed, cached by the face's content key and the resolution. */
+export async function cachedFacePng(
+	face: FaceLayout,
+	key: string,
+	images: Map<string, ImageAsset>,
+	dpi: number,
+	cache: PrintCache = printCache
+): Promise<Uint8Array> {
+	return cache.getOrMake(
+		'png',
+		`${key}@${dpi}`,
+		async () => (await svgToPng(await cachedFaceSvg(face, key, images, cache), { widthMm: faceWidthMm(face), dpi })).png,
+		(b) => b.length
+	);
+}
+
+/** File-name-safe slug of a name or id. */
+const slug = (s: string) =>
+	s
+		.normalize('NFKD')
+		.replace(/[\u0300-\u036f]/g, '')
+		.toLowerCase()
+		.replace(/[^a-z0-9.]+/g, '-')
+		.replace(/^-+|-+$/g, '') || 'card';
+
+/** A fixed date keeps the zip's bytes the same for the same game (no clock in the output). */
+const ZIP_MTIME = new Date(2000, 0, 1);
+
+/**
+ * One PNG per card face with its bleed: `<kind>/<card>-front.png`, `<card>-back.png` for a
+ * per-card back, `<kind>/back.png` for a kind's shared back; `cards.csv` lists which files make
+ * each card and how many copies; `about.txt` gives size, resolution and the print-shop caution.
+ */
+export async function buildCardsPngZip(
+	game: Game,
+	art: ReadonlyMap<string, Uint8Array>,
+	options: PngZipOptions = {}
+): Promise<{ zip: Uint8Array; files: number; warnings: string[] }> {
+	const dpi = options.dpi ?? PNG_DPI_DEFAULT;
+	if (!Number.isInteger(dpi) || dpi < PNG_DPI_MIN || dpi > PNG_DPI_MAX)
+		throw new PrintOptionsError(`dpi is a whole number from ${PNG_DPI_MIN} to ${PNG_DPI_MAX}`);
+	const cache = options.cache ?? printCache;
+	const faces = await renderGameFaces(game, art, { kinds: options.kinds, cache });
+	if (!faces.cards.length) throw new PrintOptionsError('Nothing to export: the chosen card kinds have no cards with copies');
+
+	const files: Zippable = {};
+	const rows: Record<string, string | number>[] = [];
+	const written = new Set<string>();
+	const kindDirs = new Map<string, string>();
+	for (const k of game.kinds) {
+		let dir = slug(k.name);
+		while ([...kindDirs.values()].includes(dir)) dir += '-x';
+		kindDirs.set(k.id, dir);
+	}
+	const jobs: { path: string; face: FaceLayout; key: string }[] = [];
+	for (const c of faces.cards) {
+		const dir = kindDirs.get(c.kindId)!;
+		const front = `${dir}/${slug(c.cardId)}-front.png`;
+		const back = c.back ? (c.sharedBack ? `${dir}/back.png` : `${dir}/${slug(c.cardId)}-back.png`) : '';
+		jobs.push({ path: front, face: c.front, key: c.frontKey });
+		if (c.back && c.backKey) jobs.push({ path: back, face: c.back, key: c.backKey });
+		rows.push({
+			kind: c.kindKey,
+			card: c.cardName,
+			id: c.cardId,
+			copies: c.copies,
+			front,
+			back,
+			widthMm: c.front.trimWidthMm,
+			heightMm: c.front.trimHeightMm,
+			bleedMm: c.front.bleedMm
+		});
+	}
+	const unique = jobs.filter((j) => !written.has(j.path) && written.add(j.path));
+	const pixels = new Map<FaceLayout, string>();
+	let done = 0;
+	for (const j of unique) {
+		const png = await cachedFacePng(j.face, j.key, faces.images, dpi, cache);
+		const size = imageSize(png);
+		pixels.set(j.face, `${size.width} × ${size.height} px`);
+		// PNG is compressed already: store it as it is.
+		files[j.path] = [png, { level: 0, mtime: ZIP_MTIME }];
+		options.onProgress?.(++done, unique.length);
+	}
+	files['cards.csv'] = [strToU8(Papa.unparse(rows)), { level: 6, mtime: ZIP_MTIME }];
+	const sizes = new Map<string, string>();
+	for (const c of faces.cards) {
+		const f = c.front;
+		sizes.set(
+			c.kindId,
+			`${c.kindKey}: ${fmtMm(f.trimWidthMm)} × ${fmtMm(f.trimHeightMm)} mm trim + ${fmtMm(f.bleedMm)} mm bleed each side, ` +
+				`${fmtMm(faceWidthMm(f))} × ${fmtMm(faceHeightMm(f))} mm = ${pixels.get(f)}`
+		);
+	}
+	files['about.txt'] = [
+		strToU8(
+			[
+				`${game.name}: card faces as PNG at ${dpi} dpi, each with its bleed on every side.`,
+				...sizes.values(),
+				'cards.csv lists the front and back file of every card and how many copies to print.',
+				'',
+				PRINT_SHOP_NOTE,
+				''
+			].join('\n')
+		),
+		{ level: 6, mtime: ZIP_MTIME }
+	];
+	return { zip: zipSync(files), files: unique.length, warnings: faces.warnings };
+}

@@ -1,0 +1,78 @@
+import { beforeAll, afterAll, describe, expect, it } from 'vitest';
+import { demoGameWithArt } from '../game/demo-art';
+import type { Game } from '../game/model';
+import { PrintOptionsError, type GamePdfOptions } from './job';
+import { PrintBusyError, PrintPool } from './pool';
+import { pdfinfoBoxes, qpdfCheck } from './testing/poppler';
+
+let demo: { game: Game; art: Map<string, Uint8Array> };
+let pool: PrintPool;
+beforeAll(async () => {
+	demo = await demoGameWithArt();
+	pool = new PrintPool({ size: 2, maxQueue: 2 });
+});
+afterAll(() => pool.close());
+
+const OPTIONS: Omit<GamePdfOptions, 'onProgress' | 'cache'> = {
+	paper: 'a4',
+	layout: 'spaced',
+	duplex: 'long',
+	marks: true,
+	sets: 1,
+	colour: 'rgb',
+	kinds: ['kd-hazard', 'kd-wager'],
+	date: '2026-01-01'
+};
+
+describe('PrintPool', () => {
+	it('builds a sheet PDF in a worker thread: valid for qpdf, pages as pdfinfo counts them, progress on the way', async () => {
+		const progress: [number, number][] = [];
+		const r = await pool.run({ type: 'sheets', game: demo.game, art: demo.art, options: OPTIONS }, { onProgress: (d, t) => progress.push([d, t]) });
+		qpdfCheck(r.bytes);
+		// 8 hazard cards on 1 sheet, 54 wager cards on 7 (see job.test.ts), duplex, plus the cutting guide.
+		expect(r.sheets).toBe(8);
+		expect(pdfinfoBoxes(r.bytes).pages).toBe(8 * 2 + 1);
+		expect(progress.length).toBeGreaterThan(0);
+		const [done, total] = progress.at(-1)!;
+		expect(done).toBe(total);
+		// The bytes came over whole (transferred, not a view into a shared buffer).
+		expect(r.bytes.byteOffset).toBe(0);
+		expect(r.jobCache.layout.misses).toBeGreaterThan(0);
+
+		// The same game again goes to the same worker, whose cache has every face.
+		const again = await pool.run({ type: 'sheets', game: demo.game, art: demo.art, options: OPTIONS });
+		expect(again.workerId).toBe(r.workerId);
+		expect(again.jobCache.layout.misses).toBe(0);
+		expect(again.jobCache.pixels.misses).toBe(0);
+	});
+
+	it('builds a press PDF and a PNG zip', async () => {
+		const card = demo.game.cards.find((c) => c.kindId === 'kd-hazard')!;
+		const press = await pool.run({ type: 'press', game: demo.game, art: demo.art, cardId: card.id, options: {} });
+		qpdfCheck(press.bytes);
+		expect(pdfinfoBoxes(press.bytes).pages).toBe(2);
+		const zip = await pool.run({ type: 'pngs', game: demo.game, art: demo.art, options: { kinds: ['kd-hazard'] } });
+		expect(zip.files).toBe(5);
+		// A zip file starts with a local file header, PK\3\4 (APPNOTE.TXT §4.3.7).
+		expect([...zip.bytes.subarray(0, 4)]).toEqual([0x50, 0x4b, 3, 4]);
+	});
+
+	it('sends refusals back as PrintOptionsError with their status', async () => {
+		const err = await pool.run({ type: 'sheets', game: demo.game, art: demo.art, options: { ...OPTIONS, kinds: ['kd-missing'] } }).catch((e) => e);
+		expect(err).toBeInstanceOf(PrintOptionsError);
+		expect(err.status).toBe(400);
+		expect(err.message).toMatch(/no card kind “kd-missing”/);
+	});
+
+	it('runs at most `size` builds at once and queues the rest; a full queue refuses', async () => {
+		const job = { type: 'sheets' as const, game: demo.game, art: demo.art, options: { ...OPTIONS, kinds: ['kd-hazard'] } };
+		const runs = [pool.run(job, { affinity: 'a' }), pool.run(job, { affinity: 'b' }), pool.run(job, { affinity: 'c' }), pool.run(job, { affinity: 'd' })];
+		expect(pool.running).toBe(2);
+		expect(pool.waiting).toBe(2);
+		await expect(pool.run(job)).rejects.toBeInstanceOf(PrintBusyError);
+		const results = await Promise.all(runs);
+		for (const r of results) qpdfCheck(r.bytes);
+		expect(new Set(results.map((r) => r.workerId)).size).toBe(2);
+		expect(pool.running + pool.waiting).toBe(0);
+	});
+});
