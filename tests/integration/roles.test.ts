@@ -10,8 +10,9 @@ import * as foundation from './role-rows/foundation';
 import * as gameData from './role-rows/game';
 import * as gamePages from './role-rows/game-pages';
 import * as proofRows from './role-rows/proofs';
+import * as artRows from './role-rows/art';
 
-const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...foundation.lastRows];
+const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...artRows.rows, ...foundation.lastRows];
 
 let world: World;
 beforeAll(async () => {
