@@ -73,3 +73,25 @@ describe('game store', () => {
 		expect((await w.db.select().from(games)).length).toBe(before);
 	});
 });
+
+describe('art through the object API', () => {
+	it('cannot point an art piece at another file, nor make one without an upload', async () => {
+		const objectApi = await import('../../src/routes/api/v1/games/[gameId=id]/[collection=collection]/[objectId]/+server');
+		const collectionApi = await import('../../src/routes/api/v1/games/[gameId=id]/[collection=collection]/+server');
+		const { fakeEvent } = await import('./harness');
+		const before = await loadGame(w.db, w.gameId);
+		const art = before.art[0];
+		const other = 'f'.repeat(64);
+		// eslint-disable-next-line @typescript-eslint/no-explicit-any
+		const ev = (call: Parameters<typeof fakeEvent>[1]) => fakeEvent(w.callers.artist, call) as any;
+		const res = await objectApi.PUT(
+			ev({ method: 'PUT', params: { gameId: w.gameId, collection: 'art', objectId: art.id }, json: { ...art, sha256: other, status: 'final' } })
+		);
+		expect(res.status).toBe(200);
+		const after = (await loadGame(w.db, w.gameId)).art.find((a) => a.id === art.id)!;
+		expect(after.sha256).toBe(art.sha256);
+		expect(after.status).toBe('final');
+		const made = await collectionApi.POST(ev({ params: { gameId: w.gameId, collection: 'art' }, json: { ...art, id: 'sneaky', sha256: other } }));
+		expect(made.status).toBe(405);
+	});
+});

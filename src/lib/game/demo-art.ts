@@ -13,7 +13,8 @@ import { faceWithBleedMm, pxForPrint, type SlotMm } from './art-check';
 import { sha256Hex } from './bundle';
 import { DEMO_KINDS, DEMO_ROGUE, DEMO_RUNNERS, demoGame } from './demo';
 import type { ArtAsset, ArtAssignment, ArtStatus, CardKind, Game, RunnerSymbol } from './model';
-import { symbolPath } from './symbols';
+import { symbolPath } from '../print/symbols';
+import { resvgReady } from '../print/png';
 
 /* ------------------------------------------------------------- helpers */
 
@@ -249,20 +250,8 @@ export function ashIconSvg(seed = 3): string {
 
 /* ---------------------------------------------------------------- render */
 
-let ready: Promise<void> | undefined;
-
-/** resvg's wasm may be initialised once per process; others in the process may have done it. */
-export function initResvg(): Promise<void> {
-	ready ??= (async () => {
-		const wasmPath = createRequire(import.meta.url).resolve('@resvg/resvg-wasm/index_bg.wasm');
-		try {
-			await initWasm(await readFile(wasmPath));
-		} catch (e) {
-			if (!String((e as Error).message).includes('Already initialized')) throw e;
-		}
-	})();
-	return ready;
-}
+/** resvg's wasm is initialised once per process, by the print engine's PNG backend. */
+export const initResvg = resvgReady;
 
 /** SVG → PNG at `widthPx` (height follows the SVG's aspect). */
 export async function renderSvgToPng(svgText: string, widthPx: number): Promise<{ bytes: Uint8Array; widthPx: number; heightPx: number }> {

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { z } from 'zod';
-import { api, readJson } from '$lib/server/api';
+import { api, ApiError, readJson } from '$lib/server/api';
 import { requireGameRole } from '$lib/server/guard';
 import { applyChanges, loadGame, COLLECTION_FIELD } from '$lib/server/game-store';
 import type { Collection } from '$lib/server/db/schema';
@@ -28,6 +28,8 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
 	const collection = collectionOf(params.collection);
 	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
+	// An art piece is made by uploading its file, which checks the file and records its version.
+	if (collection === 'art') throw new ApiError(405, 'Upload art with POST /api/v1/games/{gameId}/art/upload');
 	const body = await readJson(request, z.looseObject({ id: z.string().optional() }));
 	const id = body.id ?? newId();
 	const after = await applyChanges(

@@ -29,7 +29,9 @@ export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const id = objectIdParam(params.objectId);
 	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
 	const body = await readJson(request, z.looseObject({ version: z.int().min(0) }));
-	const { version, ...object } = body;
+	const { version, ...sent } = body;
+	// The file behind an art piece changes only by uploading; here only its status and slot.
+	const object = collection === 'art' ? { ...(await findObject(params.gameId, collection, id)), status: sent.status, assignment: sent.assignment } : sent;
 	const after = await applyChanges(
 		d,
 		params.gameId,

@@ -1,12 +1,12 @@
 import { Resvg } from '@resvg/resvg-wasm';
 import { describe, expect, it } from 'vitest';
-import { initResvg } from './demo-art';
-import { RUNNER_SYMBOLS } from './model';
+import { resvgReady } from './png';
+import { RUNNER_SYMBOLS } from '../game/model';
 import { symbolPath } from './symbols';
 
 /** Renders one symbol in a 100 × 100 box and counts inked pixels inside and outside its square. */
 async function ink(symbol: (typeof RUNNER_SYMBOLS)[number]) {
-	await initResvg();
+	await resvgReady();
 	const svg = `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 100 100" width="100" height="100"><rect width="100" height="100" fill="#fff"/><path d="${symbolPath(symbol, 50, 50, 60)}" fill="#000"/></svg>`;
 	const r = new Resvg(svg, { font: { loadSystemFonts: false } });
 	const img = r.render();
