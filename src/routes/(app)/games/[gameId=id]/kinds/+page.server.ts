@@ -1,0 +1,65 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { superValidate, message } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { requireGameRole } from '$lib/server/guard';
+import { applyChanges, loadGame, StoreError } from '$lib/server/game-store';
+import { db } from '$lib/server/runtime';
+import { cardCount } from '$lib/game/deck-check';
+import { bleedMm, newId } from '$lib/game/model';
+import { NewKindSchema, newKind, type NewKind } from '$lib/components/kinds/kind-defaults';
+
+/** The game's card kinds with their sizes and card counts, and the new-kind form. */
+export const load = async ({ locals, params }) => {
+	const d = await db();
+	await requireGameRole(d, locals, params.gameId, 'game.read');
+	const game = await loadGame(d, params.gameId);
+	const kinds = game.kinds.map((k) => {
+		const cards = game.cards.filter((c) => c.kindId === k.id);
+		return {
+			id: k.id,
+			name: k.name,
+			type: k.type,
+			size: k.size,
+			bleed: k.bleed,
+			bleedMm: bleedMm(k.bleed),
+			template: k.template,
+			backMode: k.back.mode,
+			designs: cards.length,
+			cards: cardCount(cards)
+		};
+	});
+	const blank: NewKind = {
+		name: '',
+		type: 'movement',
+		size: game.defaultSize,
+		bleed: game.bleedStandard,
+		template: 'movement'
+	};
+	return {
+		kinds,
+		totals: { designs: game.cards.length, cards: cardCount(game.cards) },
+		form: await superValidate(blank, zod4(NewKindSchema), { errors: false })
+	};
+};
+
+export const actions = {
+	/** Makes the kind with the layouts' defaults and opens it. */
+	create: async (event) => {
+		const d = await db();
+		const { user, game } = await requireGameRole(d, event.locals, event.params.gameId, 'game.edit');
+		const form = await superValidate(event.request, zod4(NewKindSchema));
+		if (!form.valid) return fail(400, { form });
+		const kind = newKind(form.data, newId());
+		try {
+			await applyChanges(d, game.id, [{ collection: 'kind', id: kind.id, baseVersion: null, object: kind }], {
+				userId: user.id,
+				teamId: game.teamId,
+				action: 'kind.created'
+			});
+		} catch (e) {
+			if (e instanceof StoreError) return message(form, e.message, { status: e.status });
+			throw e;
+		}
+		redirect(303, `/games/${game.id}/kinds/${kind.id}`);
+	}
+};

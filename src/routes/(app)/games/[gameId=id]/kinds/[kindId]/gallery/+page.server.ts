@@ -1,0 +1,20 @@
+import { error } from '@sveltejs/kit';
+import { requireGameRole } from '$lib/server/guard';
+import { loadGame } from '$lib/server/game-store';
+import { db } from '$lib/server/runtime';
+
+/** Every face of the kind: the cards' fronts, and their backs (one shared back, or one per card). */
+export const load = async ({ locals, params }) => {
+	const d = await db();
+	await requireGameRole(d, locals, params.gameId, 'game.read');
+	const game = await loadGame(d, params.gameId);
+	const kind = game.kinds.find((k) => k.id === params.kindId);
+	if (!kind) error(404, 'No such card kind');
+	const cards = game.cards.filter((c) => c.kindId === kind.id);
+	return {
+		kind: { id: kind.id, name: kind.name, type: kind.type, size: kind.size, bleed: kind.bleed, backMode: kind.back.mode },
+		cards: cards.map((c) => ({ id: c.id, name: c.name, copies: c.copies, version: c.version ?? 0 })),
+		printed: cards.reduce((n, c) => n + c.copies, 0),
+		kindVersion: kind.version ?? 0
+	};
+};
