@@ -6,9 +6,7 @@
  * No text is drawn, so no font is needed. Render sizes aim at ≥ 300 dpi in each slot, except two
  * pieces left deliberately coarse (Pebble's portrait, the hazard back) so the art warning shows.
  */
-import { createRequire } from 'node:module';
-import { readFile } from 'node:fs/promises';
-import { initWasm, Resvg } from '@resvg/resvg-wasm';
+import { Resvg } from '@resvg/resvg-wasm';
 import { faceWithBleedMm, pxForPrint, type SlotMm } from './art-check';
 import { sha256Hex } from './bundle';
 import { DEMO_KINDS, DEMO_ROGUE, DEMO_RUNNERS, demoGame } from './demo';
