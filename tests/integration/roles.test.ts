@@ -11,8 +11,9 @@ import * as gameData from './role-rows/game';
 import * as gamePages from './role-rows/game-pages';
 import * as proofRows from './role-rows/proofs';
 import * as artRows from './role-rows/art';
+import * as kindRows from './role-rows/kinds';
 
-const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...artRows.rows, ...foundation.lastRows];
+const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...artRows.rows, ...kindRows.rows, ...foundation.lastRows];
 
 let world: World;
 beforeAll(async () => {
