@@ -1,0 +1,31 @@
+import { and, desc, eq, lt } from 'drizzle-orm';
+import { requireGameRole } from '$lib/server/guard';
+import { activity, users } from '$lib/server/db/schema';
+import { loadGame } from '$lib/server/game-store';
+import { db } from '$lib/server/runtime';
+
+/** Lines per page; older ones follow with ?before=. */
+const PAGE = 200;
+
+/** The game's activity log, newest first: who did what, and when. */
+export const load = async ({ locals, params, url }) => {
+	const d = await db();
+	await requireGameRole(d, locals, params.gameId, 'game.read');
+	const before = url.searchParams.get('before');
+	const beforeDate = before && !Number.isNaN(Date.parse(before)) ? new Date(before) : null;
+	const rows = await d
+		.select({ id: activity.id, action: activity.action, detail: activity.detail, createdAt: activity.createdAt, who: users.name })
+		.from(activity)
+		.leftJoin(users, eq(users.id, activity.userId))
+		.where(beforeDate ? and(eq(activity.gameId, params.gameId), lt(activity.createdAt, beforeDate)) : eq(activity.gameId, params.gameId))
+		.orderBy(desc(activity.createdAt), desc(activity.id))
+		.limit(PAGE + 1);
+	// Cards by the names they have now, for lines that name a card.
+	const cardNames = Object.fromEntries((await loadGame(d, params.gameId)).cards.map((c) => [c.id, c.name]));
+	return {
+		cardNames,
+		entries: rows.slice(0, PAGE),
+		older: rows.length > PAGE ? rows[PAGE - 1].createdAt.toISOString() : null,
+		paged: !!beforeDate
+	};
+};

@@ -1,0 +1,72 @@
+import { eq } from 'drizzle-orm';
+import { requireGameRole, may } from '$lib/server/guard';
+import { findProof, isMuted, snapshotOf, isReleased, ProofError, type Proof } from '$lib/server/proofs';
+import { users } from '$lib/server/db/schema';
+import type { Db } from '$lib/server/db';
+import { db } from '$lib/server/runtime';
+import { proofForPage, cardsOf, kindsOf } from '../proof-load.server';
+
+async function nameOf(d: Db, id: string | null) {
+	if (!id) return null;
+	const [u] = await d.select({ name: users.name }).from(users).where(eq(users.id, id));
+	return u?.name ?? null;
+}
+
+/** A release a printer was told about and that has since been withdrawn: they learn it is withdrawn, nothing more. */
+async function withdrawnRelease(d: Db, gameId: string, key: string): Promise<Proof | null> {
+	if (!/^\d{1,6}$/.test(key)) return null;
+	try {
+		const proof = await findProof(d, gameId, { number: Number(key) }, false);
+		return proof.releasedAt && proof.withdrawnAt ? proof : null;
+	} catch (e) {
+		if (e instanceof ProofError) return null;
+		throw e;
+	}
+}
+
+/**
+ * The frame of a proof: its header and its cards with their face boxes. Comments and verdicts
+ * are fetched (and polled) by the page from the API. Printers get the release page instead.
+ */
+export const load = async ({ locals, params }) => {
+	const d = await db();
+	const { role, user } = await requireGameRole(d, locals, params.gameId, 'release.read');
+	if (role === 'printer') {
+		const gone = await withdrawnRelease(d, params.gameId, params.number);
+		if (gone) {
+			return {
+				view: 'withdrawn' as const,
+				proof: { id: gone.id, number: gone.number, description: gone.description, releasedAt: gone.releasedAt, withdrawnAt: gone.withdrawnAt, withdrawNote: gone.withdrawNote ?? '' }
+			};
+		}
+	}
+	const { proof } = await proofForPage(d, locals, params.gameId, params.number);
+	const cards = cardsOf(snapshotOf(proof));
+	const header = {
+		id: proof.id,
+		number: proof.number,
+		description: proof.description,
+		createdAt: proof.createdAt,
+		createdBy: await nameOf(d, proof.createdBy),
+		releasedAt: proof.releasedAt,
+		releasedBy: await nameOf(d, proof.releasedBy),
+		withdrawnAt: proof.withdrawnAt,
+		withdrawNote: proof.withdrawNote ?? '',
+		released: isReleased(proof)
+	};
+	const muted = await isMuted(d, user.id, params.gameId);
+	if (role === 'printer') return { view: 'release' as const, proof: header, cards, muted };
+	return {
+		view: 'viewer' as const,
+		proof: header,
+		cards,
+		kinds: kindsOf(cards),
+		me: user.id,
+		muted,
+		can: {
+			comment: may(role, 'proof.comment'),
+			verdict: may(role, 'proof.verdict'),
+			release: may(role, 'proof.release')
+		}
+	};
+};

@@ -1,0 +1,47 @@
+/**
+ * What the proof pages share on the server: finding a proof for the caller as a page (refusals
+ * become the page's 403 or 404) and the face box of each of its cards, in mm, from the snapshot.
+ */
+import { error } from '@sveltejs/kit';
+import { ApiError } from '$lib/server/api';
+import { requireProof, ProofError } from '$lib/server/proof-access';
+import type { Permission } from '$lib/server/guard';
+import type { Db } from '$lib/server/db';
+import { bleedMm, safeMm, type Game } from '$lib/game/model';
+import type { ProofCard } from '$lib/components/proofs/types';
+
+export async function proofForPage(db: Db, locals: App.Locals, gameId: string, key: string, permission: Permission = 'release.read') {
+	try {
+		return await requireProof(db, locals, gameId, key, permission);
+	} catch (e) {
+		if (e instanceof ProofError || e instanceof ApiError) error(e.status, e.message);
+		throw e;
+	}
+}
+
+/** Each card with its face box: trim plus bleed on every side, the box face.svg draws in mm. */
+export function cardsOf(game: Game): ProofCard[] {
+	const kinds = new Map(game.kinds.map((k) => [k.id, k]));
+	return game.cards.flatMap((c) => {
+		const kind = kinds.get(c.kindId);
+		if (!kind) return [];
+		const bleed = bleedMm(kind.bleed);
+		return [
+			{
+				id: c.id,
+				name: c.name,
+				kindId: kind.id,
+				kindName: kind.name,
+				copies: c.copies,
+				trimWidthMm: kind.size.widthMm,
+				trimHeightMm: kind.size.heightMm,
+				bleedMm: bleed,
+				safeMm: safeMm(kind.bleed),
+				widthMm: kind.size.widthMm + 2 * bleed,
+				heightMm: kind.size.heightMm + 2 * bleed
+			}
+		];
+	});
+}
+
+export const kindsOf = (cards: ProofCard[]) => [...new Map(cards.map((c) => [c.kindId, { id: c.kindId, name: c.kindName }])).values()];
