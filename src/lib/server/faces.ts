@@ -2,7 +2,7 @@
  * Card faces for the app: a card of a game (saved, or as typed in an editor) laid out by the
  * print engine and drawn as SVG. Images come from the content-addressed art files.
  */
-import { loadFonts } from '$lib/print/fonts';
+import { loadFonts, FONT_FAMILY, type FontSet } from '$lib/print/fonts';
 import { layoutFace, type Side } from '$lib/print/layout';
 import { renderSvg, type GuideOptions } from '$lib/print/svg';
 import type { FaceLayout, ImageAsset } from '$lib/print/display-list';
@@ -40,7 +40,16 @@ export async function renderFace(req: FaceRequest): Promise<{ svg: string; layou
 	const images = await gameImages(req.game, !req.artUrl);
 	const layout = layoutFace({ game: req.game, kind: req.kind, card: req.card, side: req.side, images, fonts });
 	const source = req.artUrl ? (id: string) => (images.has(id) ? req.artUrl!(id) : undefined) : images;
-	return { svg: renderSvg(layout, source, { guides: req.guides }), layout };
+	const svg = renderSvg(layout, source, { guides: req.guides });
+	// A standalone SVG (opened as a file or an <img>) cannot use the page's fonts: carry them along.
+	return { svg: req.artUrl ? svg : withFonts(svg, fonts), layout };
+}
+
+function withFonts(svg: string, fonts: FontSet): string {
+	const face = (weight: number, bytes: Uint8Array) =>
+		`@font-face{font-family:'${FONT_FAMILY}';font-weight:${weight};src:url(data:font/woff2;base64,${Buffer.from(bytes).toString('base64')}) format('woff2')}`;
+	const style = `<style>${face(400, fonts.regular.woff2)}${face(700, fonts.bold.woff2)}</style>`;
+	return svg.replace(/(<svg\b[^>]*>)/, `$1${style}`);
 }
 
 export function parseGuides(value: string | null): boolean | GuideOptions {
