@@ -14,7 +14,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
@@ -329,7 +329,11 @@ function measureMemoryInChild(): { baselineRssMb: number; baselineHeapMb: number
 /* ------------------------------------------------------------------ main */
 
 async function main() {
-	console.log(`Paddock print benchmark: ${REPEATS} repeats, node ${process.version}`);
+	const loadBefore = loadavg()[0];
+	console.log(
+		`Paddock print benchmark: ${REPEATS} repeats, node ${process.version}, ${cpus().length} cores, ` +
+			`load average ${loadBefore.toFixed(1)} at the start (other work on the machine slows every figure)`
+	);
 	const t0 = performance.now();
 	const { game: demo, art } = await demoGameWithArt();
 	const demoArtMs = performance.now() - t0;
@@ -456,6 +460,8 @@ async function main() {
 			{
 				when: new Date().toISOString(),
 				node: process.version,
+				cores: cpus().length,
+				loadAverage: { start: Math.round(loadBefore * 10) / 10, end: Math.round(loadavg()[0] * 10) / 10 },
 				repeats: REPEATS,
 				job: JOB,
 				demoArtMs: round(demoArtMs),
@@ -479,7 +485,7 @@ async function main() {
 			'\t'
 		) + '\n'
 	);
-	console.log('\nWrote bench-results.json');
+	console.log(`\nLoad average at the end: ${loadavg()[0].toFixed(1)}. Wrote bench-results.json`);
 }
 
 const yes = (v: boolean | null) => (v === null ? 'not measured' : v ? 'met' : 'NOT met');

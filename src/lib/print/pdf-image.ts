@@ -62,12 +62,12 @@ export function decodePng(bytes: Uint8Array): DecodedPng | null {
 	const bitsPerPixel = samples * depth;
 	const stride = Math.ceil((width * bitsPerPixel) / 8);
 	const bpp = Math.max(1, bitsPerPixel >> 3);
+	// The usual artwork (8-bit RGB or RGBA, as image editors and resvg write it): row by row, in one pass.
+	if (depth === 8 && (type === 2 || type === 6) && !(type === 2 && transparency)) return decodeRgb8(raw, width, height, type === 6);
 	const rows = unfilter(raw, stride, height, bpp);
 
 	const isGrey = type === 0 || type === 4;
 	const channels: 1 | 3 = isGrey ? 1 : 3;
-	// The usual artwork (8-bit RGB or RGBA, as image editors and resvg write it): split channels in one pass.
-	if (depth === 8 && (type === 2 || type === 6) && !(type === 2 && transparency)) return splitRgb(rows, width, height, type === 6);
 	const colour = new Uint8Array(width * height * channels);
 	const alpha = new Uint8Array(width * height);
 	let opaque = true;
@@ -128,82 +128,96 @@ export function decodePng(bytes: Uint8Array): DecodedPng | null {
 	return { widthPx: width, heightPx: height, channels, colour, alpha: opaque ? null : alpha };
 }
 
-/** 8-bit RGB or RGBA rows (filters undone) → colour samples and, when any pixel is see-through, alpha. */
-function splitRgb(rows: Uint8Array, width: number, height: number, hasAlpha: boolean): DecodedPng {
-	const n = width * height;
-	if (!hasAlpha) return { widthPx: width, heightPx: height, channels: 3, colour: rows.subarray(0, n * 3), alpha: null };
-	const colour = new Uint8Array(n * 3);
-	const alpha = new Uint8Array(n);
+/**
+ * 8-bit RGB or RGBA: each row unfiltered into a small buffer and split into colour and alpha
+ * straight away, so the whole picture is never held a second time.
+ */
+function decodeRgb8(raw: Uint8Array, width: number, height: number, hasAlpha: boolean): DecodedPng {
+	const bpp = hasAlpha ? 4 : 3;
+	const stride = width * bpp;
+	const colour = new Uint8Array(width * height * 3);
+	const alpha = hasAlpha ? new Uint8Array(width * height) : null;
+	let prior = new Uint8Array(stride);
+	let row = new Uint8Array(stride);
 	let opaque = 255;
-	for (let p = 0, s = 0, c = 0; p < n; p++, s += 4, c += 3) {
-		colour[c] = rows[s];
-		colour[c + 1] = rows[s + 1];
-		colour[c + 2] = rows[s + 2];
-		const a = rows[s + 3];
-		alpha[p] = a;
-		opaque &= a;
+	for (let y = 0; y < height; y++) {
+		unfilterRow(raw, y * (stride + 1), row, prior, y === 0, stride, bpp);
+		if (!alpha) colour.set(row, y * stride);
+		else {
+			for (let x = 0, s = 0, c = y * width * 3, p = y * width; x < width; x++, s += 4, c += 3, p++) {
+				colour[c] = row[s];
+				colour[c + 1] = row[s + 1];
+				colour[c + 2] = row[s + 2];
+				const a = row[s + 3];
+				alpha[p] = a;
+				opaque &= a;
+			}
+		}
+		[prior, row] = [row, prior];
 	}
 	return { widthPx: width, heightPx: height, channels: 3, colour, alpha: opaque === 255 ? null : alpha };
 }
 
-/**
- * PNG scanline filters 0–4 (None, Sub, Up, Average, Paeth; PNG spec §9), undone into a new
- * buffer. One loop per filter type, since this runs for every byte of every picture.
- */
+/** PNG scanline filters 0–4 (None, Sub, Up, Average, Paeth; PNG spec §9), undone into a new buffer. */
 function unfilter(raw: Uint8Array, stride: number, height: number, bpp: number): Uint8Array {
 	const out = new Uint8Array(stride * height);
-	for (let y = 0; y < height; y++) {
-		const filter = raw[y * (stride + 1)];
-		const src = y * (stride + 1) + 1;
-		const dst = y * stride;
-		const up = dst - stride;
-		const first = y === 0;
-		switch (filter) {
-			case 0:
-				out.set(raw.subarray(src, src + stride), dst);
-				break;
-			case 1:
-				for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i];
-				for (let i = bpp; i < stride; i++) out[dst + i] = raw[src + i] + out[dst + i - bpp];
-				break;
-			case 2:
-				if (first) out.set(raw.subarray(src, src + stride), dst);
-				else for (let i = 0; i < stride; i++) out[dst + i] = raw[src + i] + out[up + i];
-				break;
-			case 3:
-				if (first) {
-					for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i];
-					for (let i = bpp; i < stride; i++) out[dst + i] = raw[src + i] + (out[dst + i - bpp] >> 1);
-				} else {
-					for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i] + (out[up + i] >> 1);
-					for (let i = bpp; i < stride; i++) out[dst + i] = raw[src + i] + ((out[dst + i - bpp] + out[up + i]) >> 1);
-				}
-				break;
-			case 4:
-				if (first) {
-					// No row above: Paeth picks the left neighbour (PNG spec §9.4).
-					for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i];
-					for (let i = bpp; i < stride; i++) out[dst + i] = raw[src + i] + out[dst + i - bpp];
-				} else {
-					// At the row's start left and corner are 0, so Paeth picks the byte above.
-					for (let i = 0; i < bpp; i++) out[dst + i] = raw[src + i] + out[up + i];
-					for (let i = bpp; i < stride; i++) {
-						const a = out[dst + i - bpp];
-						const b = out[up + i];
-						const c = out[up + i - bpp];
-						const p = a + b - c;
-						const pa = p > a ? p - a : a - p;
-						const pb = p > b ? p - b : b - p;
-						const pc = p > c ? p - c : c - p;
-						out[dst + i] = raw[src + i] + (pa <= pb && pa <= pc ? a : pb <= pc ? b : c);
-					}
-				}
-				break;
-			default:
-				throw new Error(`bad PNG filter ${filter}`);
-		}
-	}
+	for (let y = 0; y < height; y++)
+		unfilterRow(raw, y * (stride + 1), out.subarray(y * stride, (y + 1) * stride), y > 0 ? out.subarray((y - 1) * stride, y * stride) : out, y === 0, stride, bpp);
 	return out;
+}
+
+/**
+ * Undoes one row's filter: `raw[at]` is the filter type, the row's bytes follow; `prior` is the
+ * row above, already unfiltered (ignored on the first row, where it counts as zeros). One loop
+ * per filter type, since this runs for every byte of every picture.
+ */
+function unfilterRow(raw: Uint8Array, at: number, out: Uint8Array, prior: Uint8Array, first: boolean, stride: number, bpp: number): void {
+	const filter = raw[at];
+	const src = at + 1;
+	switch (filter) {
+		case 0:
+			out.set(raw.subarray(src, src + stride));
+			return;
+		case 1:
+			for (let i = 0; i < bpp; i++) out[i] = raw[src + i];
+			for (let i = bpp; i < stride; i++) out[i] = raw[src + i] + out[i - bpp];
+			return;
+		case 2:
+			if (first) out.set(raw.subarray(src, src + stride));
+			else for (let i = 0; i < stride; i++) out[i] = raw[src + i] + prior[i];
+			return;
+		case 3:
+			if (first) {
+				for (let i = 0; i < bpp; i++) out[i] = raw[src + i];
+				for (let i = bpp; i < stride; i++) out[i] = raw[src + i] + (out[i - bpp] >> 1);
+			} else {
+				for (let i = 0; i < bpp; i++) out[i] = raw[src + i] + (prior[i] >> 1);
+				for (let i = bpp; i < stride; i++) out[i] = raw[src + i] + ((out[i - bpp] + prior[i]) >> 1);
+			}
+			return;
+		case 4:
+			if (first) {
+				// No row above: Paeth picks the left neighbour (PNG spec §9.4).
+				for (let i = 0; i < bpp; i++) out[i] = raw[src + i];
+				for (let i = bpp; i < stride; i++) out[i] = raw[src + i] + out[i - bpp];
+			} else {
+				// At the row's start left and corner are 0, so Paeth picks the byte above.
+				for (let i = 0; i < bpp; i++) out[i] = raw[src + i] + prior[i];
+				for (let i = bpp; i < stride; i++) {
+					const a = out[i - bpp];
+					const b = prior[i];
+					const c = prior[i - bpp];
+					const p = a + b - c;
+					const pa = p > a ? p - a : a - p;
+					const pb = p > b ? p - b : b - p;
+					const pc = p > c ? p - c : c - p;
+					out[i] = raw[src + i] + (pa <= pb && pa <= pc ? a : pb <= pc ? b : c);
+				}
+			}
+			return;
+		default:
+			throw new Error(`bad PNG filter ${filter}`);
+	}
 }
 
 function concat(parts: Uint8Array[]): Uint8Array {

@@ -10,7 +10,7 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import { dirname, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { Game } from '../game/model';
@@ -102,15 +102,14 @@ export const DEFAULT_MAX_QUEUE = 64;
  */
 export function resolveWorkerPath(explicit?: string): string {
 	if (explicit) return resolve(process.cwd(), explicit);
-	// Built at run time so a bundler does not try to copy the worker as an asset.
-	const file = ['worker', 'ts'].join('.');
+	// Not `new URL('./worker.ts', import.meta.url)`: a bundler would copy the file as an asset.
 	try {
-		const beside = fileURLToPath(new URL(`./${file}`, import.meta.url));
+		const beside = join(dirname(fileURLToPath(import.meta.url)), 'worker.ts');
 		if (existsSync(beside)) return beside;
 	} catch {
 		// import.meta.url is not a file URL once bundled for some targets.
 	}
-	return resolve(process.cwd(), 'src/lib/print', file);
+	return resolve(process.cwd(), 'src/lib/print/worker.ts');
 }
 
 /**

@@ -186,6 +186,13 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 	});
 	const labelFont = writer.font('regular');
 	const labelColour = writer.paint({ hex: '#000000', cmyk: [0, 0, 0, 1] });
+	// Label widths word by word: the page numbers change from page to page, the words repeat, and
+	// each word is shaped once. Roboto Slab kerns nothing across a space, so the sum is exact.
+	const space = (pt: number) => labelFont.widthOfTextAtSize(' ', pt);
+	const labelWidthPt = (t: string, pt: number) => {
+		const words = t.split(' ');
+		return words.reduce((w, word) => w + (word ? labelFont.widthOfTextAtSize(word, pt) : 0), 0) + (words.length - 1) * space(pt);
+	};
 	const k = PT_PER_MM;
 	const totalPages = plan.groups.reduce((n, g) => n + g.pages.length, 0) + (o.cuttingGuide ? 1 : 0);
 	let pagesDone = 0;
@@ -212,7 +219,7 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 			const marks = sheetMarks(imp, {
 				// Marks go on the front only: that is the side that gets cut.
 				cropMarks: o.marks && planned.side === 'front',
-				label: { texts, widthMm: (t, pt) => labelFont.widthOfTextAtSize(t, pt) / k }
+				label: { texts, widthMm: (t, pt) => labelWidthPt(t, pt) / k }
 			});
 			if (marks.lines.length) {
 				// The label can shorten a mark, and its text differs per page: key by the lines themselves.
@@ -233,7 +240,9 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 		drawCuttingGuide(doc, writer, { title: input.title, versionLabel: input.versionLabel, plan, options: o });
 		input.onPage?.(++pagesDone, totalPages);
 	}
-	return doc.save();
+	// Written in one go: pdf-lib's default pause every 50 objects cost a third of the save, and
+	// large builds run in worker threads (./pool.ts), where nothing else waits for the event loop.
+	return doc.save({ objectsPerTick: Number.POSITIVE_INFINITY });
 }
 
 async function drawCard(writer: PdfFaceWriter, page: PDFPage, card: PlacedCard, sheetHeightMm: number): Promise<void> {
