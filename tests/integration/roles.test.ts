@@ -11,10 +11,11 @@ import * as gameData from './role-rows/game';
 import * as gamePages from './role-rows/game-pages';
 import * as proofRows from './role-rows/proofs';
 import * as proofPages from './role-rows/proof-pages';
+import * as printRows from './role-rows/printing';
 import * as artRows from './role-rows/art';
 import * as kindRows from './role-rows/kinds';
 
-const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...proofPages.rows, ...artRows.rows, ...kindRows.rows, ...foundation.lastRows];
+const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...proofPages.rows, ...printRows.rows, ...printRows.pageRows, ...artRows.rows, ...kindRows.rows, ...foundation.lastRows];
 
 let world: World;
 beforeAll(async () => {
