@@ -33,6 +33,7 @@ import {
 	setLineJoin,
 	type Color
 } from 'pdf-lib';
+import { deflateSync } from 'node:zlib';
 import { zlibSync } from 'fflate';
 import type { Colour, DisplayItem, FaceLayout, FontWeight, ImageAsset } from './display-list';
 import { faceHeightMm, faceWidthMm } from './display-list';
@@ -199,10 +200,12 @@ export class PdfFaceWriter {
 		if (!this.faceForms) return this.drawItems(page, face, at);
 		const name = this.formName(page, await this.faceForm(face));
 		const ops: PDFOperator[] = [pushGraphicsState()];
-		if (at.clipPt) {
-			const c = at.clipPt;
+		const { widthPt, heightPt } = faceSizePt(face);
+		const c = at.clipPt;
+		const near = (a: number, b: number) => Math.abs(a - b) < 1e-6;
+		// A form is clipped to its BBox, the face box (ISO 32000-1 §8.10.1): a clip to that same box adds nothing.
+		if (c && !(near(c.xPt, at.xPt) && near(c.yPt, at.yPt) && near(c.widthPt, widthPt) && near(c.heightPt, heightPt)))
 			ops.push(rectangle(c.xPt, c.yPt, c.widthPt, c.heightPt), clip(), endPath());
-		}
 		// The form is drawn in its own space with the face's bottom-left at the origin (§8.10.1).
 		ops.push(concatTransformationMatrix(1, 0, 0, 1, at.xPt, at.yPt), drawObject(name), popGraphicsState());
 		page.pushOperators(...ops);
@@ -431,6 +434,28 @@ async function drawOffPage(
 	const resources = scratch.node.Resources();
 	context.delete(scratch.ref);
 	return { parts, resources };
+}
+
+/**
+ * Replaces a finished page's content streams by one stream deflated now by Node's zlib: pdf-lib
+ * would deflate each at save with a JavaScript port whose start-up per stream costs more than
+ * a small page's whole content. Call it last: anything drawn on the page afterwards is lost.
+ */
+export function packPageContent(page: PDFPage): void {
+	const { context } = page.doc;
+	const contents = page.node.Contents();
+	if (!(contents instanceof PDFArray)) return;
+	const parts: Uint8Array[] = [];
+	for (const ref of contents.asArray()) {
+		const stream = context.lookup(ref);
+		if (!(stream instanceof PDFContentStream) || !(ref instanceof PDFRef)) return;
+		parts.push(stream.getUnencodedContents());
+	}
+	for (const ref of contents.asArray()) context.delete(ref as PDFRef);
+	const bytes = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
+	parts.reduce((at, p) => (bytes.set(p, at), at + p.length), 0);
+	const packed = context.register(context.stream(new Uint8Array(deflateSync(bytes)), { Filter: 'FlateDecode' }));
+	page.node.set(PDFName.of('Contents'), context.obj([packed]));
 }
 
 /**

@@ -17,7 +17,7 @@ import { drawCuttingGuide } from './cutting-guide';
 import { loadFonts, type FontSet } from './fonts';
 import { CROP_MARK, drawSheetMarks, sheetMarks } from './marks';
 import { mmToPt, paperSize, PT_PER_MM, type PaperSpec } from './paper';
-import { drawIntoForm, PdfFaceWriter, type ColourMode } from './pdf';
+import { drawIntoForm, packPageContent, PdfFaceWriter, type ColourMode } from './pdf';
 import type { EncodedImageStore } from './pdf-image';
 
 export interface SheetFace {
@@ -233,6 +233,7 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 				page.pushOperators(pushGraphicsState(), drawObject(name), popGraphicsState());
 			}
 			drawSheetMarks(page, { ...marks, lines: [] }, H, { font: labelFont, labelColour });
+			packPageContent(page);
 			input.onPage?.(++pagesDone, totalPages);
 		}
 	}
