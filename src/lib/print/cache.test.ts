@@ -28,6 +28,10 @@ describe('PrintCache', () => {
 		expect(s.bytes).toBe(80);
 		expect(s.evictions).toBe(1);
 		expect(s.svg).toMatchObject({ hits: 3, misses: 1, entries: 2 });
+		// A smaller budget drops the least recently used first.
+		cache.resize(50);
+		expect(cache.lookup('svg', 'a')).toBeUndefined();
+		expect(cache.lookup('svg', 'c')).toBe('C');
 		// Larger than the whole budget: handed back, not kept.
 		cache.store('png', 'huge', new Uint8Array(1), 1000);
 		expect(cache.lookup('png', 'huge')).toBeUndefined();

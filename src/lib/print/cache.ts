@@ -60,7 +60,26 @@ export class PrintCache implements EncodedImageStore {
 		{ hits: number; misses: number }
 	>;
 
-	constructor(readonly maxBytes = DEFAULT_CACHE_BYTES) {}
+	constructor(private budget = DEFAULT_CACHE_BYTES) {}
+
+	get maxBytes(): number {
+		return this.budget;
+	}
+
+	/** A new budget; entries beyond it go, least recently used first. */
+	resize(maxBytes: number): void {
+		this.budget = maxBytes;
+		this.trim();
+	}
+
+	private trim(): void {
+		for (const [k, e] of this.entries) {
+			if (this.totalBytes <= this.budget) break;
+			this.entries.delete(k);
+			this.totalBytes -= e.bytes;
+			this.evictions++;
+		}
+	}
 
 	lookup<T>(area: CacheArea, key: string): T | undefined {
 		const full = `${area}:${key}`;
@@ -83,15 +102,10 @@ export class PrintCache implements EncodedImageStore {
 			this.entries.delete(full);
 		}
 		// An entry larger than the whole budget is returned but not kept.
-		if (bytes > this.maxBytes) return value;
+		if (bytes > this.budget) return value;
 		this.entries.set(full, { area, value, bytes });
 		this.totalBytes += bytes;
-		for (const [k, e] of this.entries) {
-			if (this.totalBytes <= this.maxBytes) break;
-			this.entries.delete(k);
-			this.totalBytes -= e.bytes;
-			this.evictions++;
-		}
+		this.trim();
 		return value;
 	}
 

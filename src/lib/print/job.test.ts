@@ -13,6 +13,7 @@ import {
 	buildCardPressPdf,
 	buildCardsPngZip,
 	buildGamePdf,
+	loadGameImages,
 	parsePrintOptions,
 	PrintOptionsError,
 	PrintOptionsSchema,
@@ -153,6 +154,43 @@ describe('buildGamePdf on the demo game', () => {
 		const empty = structuredClone(demo.game);
 		for (const c of empty.cards) c.copies = 0;
 		await expect(buildGamePdf(empty, demo.art, { ...BASE, cache })).rejects.toThrow(/Nothing to print/);
+	});
+});
+
+describe('loadGameImages', () => {
+	const artAsset = (sha256: string, mime: 'image/png' | 'image/svg+xml', fileName: string) => ({
+		id: `art-${fileName}`,
+		sha256,
+		mime,
+		widthPx: 10,
+		heightPx: 10,
+		status: 'final' as const,
+		fileName,
+		assignment: { scope: 'runner' as const, targetId: 'rn-rosehip', slot: 'portrait' }
+	});
+
+	it('rasterises SVG art at 300 dpi over the largest face, reads PNG sizes from the file, and refuses what it cannot print', async () => {
+		const svg = new TextEncoder().encode(
+			'<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 100 50" width="100" height="50"><rect width="100" height="50" fill="#c8363d"/></svg>'
+		);
+		// A PNG signature and IHDR (ISO/IEC 15948 §11.2.2) claiming 20000 × 20000 px: refused from the header alone.
+		const huge = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0x4e, 0x20, 0, 0, 0x4e, 0x20, 8, 6, 0, 0, 0, 0, 0, 0, 0]);
+		const realPng = demo.art.values().next().value!;
+		const game = structuredClone(demo.game);
+		const [a, b, c, d] = ['a', 'b', 'c', 'd'].map((x) => x.repeat(64));
+		game.art = [artAsset(a, 'image/svg+xml', 'vector.svg'), artAsset(b, 'image/png', 'huge.png'), artAsset(c, 'image/png', 'missing.png'), artAsset(d, 'image/png', 'real.png')];
+		const art = new Map([[a, svg], [b, huge], [d, realPng]]);
+		const { images, warnings } = await loadGameImages(game, art, new PrintCache());
+		// The largest demo face is a turned tarot tile with bleed: 126 mm; at 300 px per 25.4 mm = 1488.2 → 1488 px.
+		expect(images.get(a)).toMatchObject({ mime: 'image/png', widthPx: 1488, heightPx: 744 });
+		expect(imageSize(images.get(a)!.bytes)).toMatchObject({ type: 'png', width: 1488 });
+		// The record said 10 × 10; the file's own header (read by image-size) wins.
+		const header = imageSize(realPng);
+		expect(images.get(d)).toMatchObject({ mime: 'image/png', widthPx: header.width, heightPx: header.height });
+		expect(images.has(b)).toBe(false);
+		expect(images.has(c)).toBe(false);
+		expect(warnings.join('\n')).toMatch(/huge\.png” cannot be printed: 20000 × 20000 px is more than 100 megapixels/);
+		expect(warnings.join('\n')).toMatch(/missing\.png” has no file/);
 	});
 });
 

@@ -3,7 +3,7 @@
  * downloads. The HTTP routes, the CLI (scripts/print.ts) and the worker pool (./pool.ts) all call
  * these functions, and all parse their options with the same schema.
  *
- * - `renderGameFaces`: every card's front and back laid out (../print/layout), cached by content.
+ * - `renderGameFaces`: every card's front and back laid out (./layout), cached by content.
  * - `buildGamePdf`: the imposed sheet PDF (./sheets.ts), with options checked first.
  * - `buildCardPressPdf`: one card's press file with TrimBox and BleedBox (./press.ts).
  * - `buildCardsPngZip`: one PNG per card face at 300 dpi with bleed, in a zip.
@@ -19,9 +19,8 @@ import { effectiveDpi, faceWithBleedMm, MIN_PRINT_DPI } from '../game/art-check'
 import type { ArtAsset, Card, CardKind, Game } from '../game/model';
 import { faceBytes, faceKey, printCache, type PrintCache } from './cache';
 import { PRINT_SHOP_NOTE } from './cutting-guide';
-import type { FaceLayout, ImageAsset } from './display-list';
+import { faceHeightMm, faceWidthMm, type FaceLayout, type ImageAsset } from './display-list';
 import type { DuplexMode } from './duplex';
-import { faceHeightMm, faceWidthMm } from './display-list';
 import { loadFonts } from './fonts';
 import { impose, type ImposeLayout } from './impose';
 import { layoutFace, TEMPLATES } from './layout/index';
@@ -282,7 +281,7 @@ export interface GameFaces {
 function selectKinds(game: Game, kindIds: string[] | undefined): CardKind[] {
 	if (!kindIds?.length) return game.kinds;
 	const byId = new Map(game.kinds.map((k) => [k.id, k]));
-	return kindIds.map((id) => {
+	return [...new Set(kindIds)].map((id) => {
 		const k = byId.get(id);
 		if (!k) throw new PrintOptionsError(`This game has no card kind “${id}”`);
 		return k;

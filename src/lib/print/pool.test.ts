@@ -57,6 +57,19 @@ describe('PrintPool', () => {
 		expect([...zip.bytes.subarray(0, 4)]).toEqual([0x50, 0x4b, 3, 4]);
 	});
 
+	it('gives each worker the cache budget asked for', async () => {
+		const small = new PrintPool({ size: 1, cacheBytes: 4 << 20 });
+		try {
+			await small.run({ type: 'press', game: demo.game, art: demo.art, cardId: demo.game.cards[0].id, options: {} });
+			const [stats] = await small.cacheStats();
+			expect(stats.maxBytes).toBe(4 << 20);
+			expect(stats.bytes).toBeLessThanOrEqual(4 << 20);
+			expect(stats.layout.entries).toBe(2);
+		} finally {
+			await small.close();
+		}
+	});
+
 	it('sends refusals back as PrintOptionsError with their status', async () => {
 		const err = await pool.run({ type: 'sheets', game: demo.game, art: demo.art, options: { ...OPTIONS, kinds: ['kd-missing'] } }).catch((e) => e);
 		expect(err).toBeInstanceOf(PrintOptionsError);

@@ -19,10 +19,15 @@ import { PrintOptionsError, type CardPressOptions, type GamePdfOptions, type Png
 
 type Plain<T> = Omit<T, 'onProgress' | 'cache'>;
 
-export type PrintJob =
+/**
+ * `isolated` builds with a cache of its own instead of the worker's: the bytes then never depend
+ * on what the worker built before (a proof's files must come out the same every time).
+ */
+export type PrintJob = { isolated?: boolean } & (
 	| { type: 'sheets'; game: Game; art: Map<string, Uint8Array>; options: Plain<GamePdfOptions> }
 	| { type: 'pngs'; game: Game; art: Map<string, Uint8Array>; options: Plain<PngZipOptions> }
-	| { type: 'press'; game: Game; art: Map<string, Uint8Array>; cardId: string; options: Plain<CardPressOptions> };
+	| { type: 'press'; game: Game; art: Map<string, Uint8Array>; cardId: string; options: Plain<CardPressOptions> }
+);
 
 export interface PrintJobResult {
 	type: PrintJob['type'];
@@ -50,6 +55,14 @@ export type FromWorker =
 	| { id: number; kind: 'stats'; stats: CacheStats }
 	| { id: number; kind: 'error'; error: { name: string; message: string; status?: number } };
 
+/** What a worker is started with. */
+export interface WorkerData {
+	entry: string;
+	/** tsx's register API, when the entry is TypeScript. */
+	tsx?: string;
+	cacheBytes?: number;
+}
+
 /** Refused because the queue is full: the caller should try again later (HTTP 503). */
 export class PrintBusyError extends Error {
 	readonly status = 503;
@@ -66,6 +79,8 @@ export interface PrintPoolOptions {
 	maxQueue?: number;
 	/** The worker module, when it is not beside this file (e.g. once the app is bundled). */
 	workerPath?: string;
+	/** Each worker's cache budget in bytes (see ./cache.ts). */
+	cacheBytes?: number;
 }
 
 export interface RunOptions {
@@ -117,7 +132,7 @@ export function resolveWorkerPath(explicit?: string): string {
  * (Node 20 applies `--import` hooks given in a worker's execArgv only after its entry point has
  * been resolved, so a `.ts` entry fails there; registering from a small script always works.)
  */
-function bootstrap(entry: string): { code: string; workerData: { entry: string; tsx?: string } } {
+function bootstrap(entry: string, cacheBytes?: number): { code: string; workerData: WorkerData } {
 	const tsx = entry.endsWith('.ts') ? tsxEsmApi() : undefined;
 	const code = `
 const { workerData } = require('node:worker_threads');
@@ -129,7 +144,7 @@ const { workerData } = require('node:worker_threads');
 	await import(workerData.entry);
 })();
 `;
-	return { code, workerData: { entry: pathToFileURL(entry).href, tsx } };
+	return { code, workerData: { entry: pathToFileURL(entry).href, tsx, cacheBytes } };
 }
 
 /** tsx's ESM register API as a file URL (its `import` export; the CommonJS build cannot be imported). */
@@ -144,6 +159,7 @@ export class PrintPool {
 	readonly size: number;
 	readonly maxQueue: number;
 	readonly workerPath: string;
+	private cacheBytes?: number;
 	private slots: Slot[] = [];
 	private queue: Waiting[] = [];
 	private nextId = 1;
@@ -154,6 +170,7 @@ export class PrintPool {
 		this.size = Math.max(1, Math.floor(options.size ?? DEFAULT_POOL_SIZE));
 		this.maxQueue = Math.max(0, Math.floor(options.maxQueue ?? DEFAULT_MAX_QUEUE));
 		this.workerPath = resolveWorkerPath(options.workerPath);
+		this.cacheBytes = options.cacheBytes;
 		if (!existsSync(this.workerPath)) throw new Error(`print worker not found at ${this.workerPath}`);
 	}
 
@@ -222,7 +239,7 @@ export class PrintPool {
 	}
 
 	private spawn(): Slot {
-		const { code, workerData } = bootstrap(this.workerPath);
+		const { code, workerData } = bootstrap(this.workerPath, this.cacheBytes);
 		const worker = new Worker(code, { eval: true, workerData });
 		const slot: Slot = { id: this.nextWorker++, worker, calls: new Map() };
 		worker.on('message', (m: FromWorker) => this.onMessage(slot, m));

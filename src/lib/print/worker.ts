@@ -3,15 +3,18 @@
  * keeps this thread's print cache between them. Progress is posted at most every 100 ms; the
  * output's bytes are transferred to the caller.
  */
-import { parentPort } from 'node:worker_threads';
-import { CACHE_AREAS, printCache } from './cache';
+import { parentPort, workerData } from 'node:worker_threads';
+import { CACHE_AREAS, printCache, PrintCache } from './cache';
 import { buildCardPressPdf, buildCardsPngZip, buildGamePdf } from './job';
-import type { FromWorker, PrintJob, PrintJobResult, ToWorker } from './pool';
+import type { FromWorker, PrintJob, PrintJobResult, ToWorker, WorkerData } from './pool';
 
 const port = parentPort;
 if (!port) throw new Error('worker.ts runs as a worker thread (see ./pool.ts)');
 
 const PROGRESS_EVERY_MS = 100;
+
+const budget = (workerData as WorkerData | undefined)?.cacheBytes;
+if (budget) printCache.resize(budget);
 
 function post(message: FromWorker, transfer: ArrayBuffer[] = []) {
 	port!.postMessage(message, transfer);
@@ -45,17 +48,18 @@ async function run(id: number, job: PrintJob): Promise<Omit<PrintJobResult, 'wor
 			ms: performance.now() - started
 		};
 	};
+	const isolation = job.isolated ? { cache: new PrintCache() } : {};
 	switch (job.type) {
 		case 'sheets': {
-			const out = await buildGamePdf(job.game, job.art, { ...job.options, onProgress });
+			const out = await buildGamePdf(job.game, job.art, { ...job.options, ...isolation, onProgress });
 			return finish({ bytes: out.pdf, warnings: out.warnings, sheets: out.sheets, pages: out.pages });
 		}
 		case 'pngs': {
-			const out = await buildCardsPngZip(job.game, job.art, { ...job.options, onProgress });
+			const out = await buildCardsPngZip(job.game, job.art, { ...job.options, ...isolation, onProgress });
 			return finish({ bytes: out.zip, warnings: out.warnings, files: out.files });
 		}
 		case 'press': {
-			const out = await buildCardPressPdf(job.game, job.art, job.cardId, job.options);
+			const out = await buildCardPressPdf(job.game, job.art, job.cardId, { ...job.options, ...isolation });
 			return finish({ bytes: out.pdf, warnings: out.warnings });
 		}
 	}
