@@ -14,7 +14,7 @@ export async function sheetsPdf(event: Ev) {
 	const source = await printSource(d, event.locals, event.params.gameId, event.params.proofId);
 	const options = await printOptions(d, source, event.url.searchParams);
 	const { onProgress: _none, ...plain } = options;
-	const result = await runPrint({ type: 'sheets', game: source.game, art: await artBytes(source.game), options: plain });
+	const result = await runPrint({ type: 'sheets', isolated: !!source.proofNumber, game: source.game, art: await artBytes(source.game), options: plain });
 	await logDownload(d, source, 'sheets');
 	return fileResponse(result.bytes, 'application/pdf', `${fileStem(source)}-sheets.pdf`, result.warnings);
 }
@@ -28,6 +28,7 @@ export async function pressPdf(event: Ev) {
 	const marks = event.url.searchParams.get('marks') === '1';
 	const result = await runPrint({
 		type: 'press',
+		isolated: !!source.proofNumber,
 		game: source.game,
 		art: await artBytes(source.game),
 		cardId,
@@ -41,7 +42,7 @@ export async function cardsZip(event: Ev) {
 	const d = await db();
 	const source = await printSource(d, event.locals, event.params.gameId, event.params.proofId);
 	const dpi = Number(event.url.searchParams.get('dpi') ?? 300);
-	const result = await runPrint({ type: 'pngs', game: source.game, art: await artBytes(source.game), options: { dpi } });
+	const result = await runPrint({ type: 'pngs', isolated: !!source.proofNumber, game: source.game, art: await artBytes(source.game), options: { dpi } });
 	await logDownload(d, source, 'pngs');
 	return fileResponse(result.bytes, 'application/zip', `${fileStem(source)}-cards-${dpi}dpi.zip`, result.warnings);
 }

@@ -161,7 +161,7 @@ export function startSheetJob(source: PrintSource, art: Map<string, Uint8Array>,
 		fileName: `${fileStem(source)}-sheets.pdf`
 	};
 	jobs.set(job.id, job);
-	runPrint({ type: 'sheets', game: source.game, art, options: plain }, (done, total) => {
+	runPrint({ type: 'sheets', isolated: !!source.proofNumber, game: source.game, art, options: plain }, (done, total) => {
 		job.state = 'running';
 		job.done = done;
 		job.total = total;
