@@ -187,11 +187,19 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 	const labelFont = writer.font('regular');
 	const labelColour = writer.paint({ hex: '#000000', cmyk: [0, 0, 0, 1] });
 	// Label widths word by word: the page numbers change from page to page, the words repeat, and
-	// each word is shaped once. Roboto Slab kerns nothing across a space, so the sum is exact.
-	const space = (pt: number) => labelFont.widthOfTextAtSize(' ', pt);
+	// each word is measured once (at 1 pt; widths scale with the size). Roboto Slab kerns nothing
+	// across a space, so the sum is exact.
+	const wordPt = new Map<string, number>();
+	const widthAt1Pt = (word: string) => {
+		let w = wordPt.get(word);
+		if (w === undefined) wordPt.set(word, (w = labelFont.widthOfTextAtSize(word, 1)));
+		return w;
+	};
 	const labelWidthPt = (t: string, pt: number) => {
 		const words = t.split(' ');
-		return words.reduce((w, word) => w + (word ? labelFont.widthOfTextAtSize(word, pt) : 0), 0) + (words.length - 1) * space(pt);
+		let w = (words.length - 1) * widthAt1Pt(' ');
+		for (const word of words) if (word) w += widthAt1Pt(word);
+		return w * pt;
 	};
 	const k = PT_PER_MM;
 	const totalPages = plan.groups.reduce((n, g) => n + g.pages.length, 0) + (o.cuttingGuide ? 1 : 0);
