@@ -456,6 +456,21 @@ function checkCommon(o: GamePdfOptions): void {
 	paperSize(o.paper);
 }
 
+/** The sheet module's options for a print request (the defaults filled in). */
+export function toSheetOptions(options: GamePdfOptions): SheetOptions {
+	return {
+		paper: options.paper,
+		marginMm: options.marginMm ?? DEFAULT_MARGIN_MM,
+		layout: options.layout,
+		duplex: options.duplex,
+		marks: options.marks,
+		sets: options.sets,
+		backOffsetMm: options.backOffsetMm ? { xMm: options.backOffsetMm.x, yMm: options.backOffsetMm.y } : undefined,
+		colour: options.colour,
+		cuttingGuide: options.cuttingGuide ?? true
+	};
+}
+
 /** The imposed sheet PDF of a game. Progress counts faces laid out, then pages drawn. */
 export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Array>, options: GamePdfOptions): Promise<GamePdf> {
 	checkCommon(options);
@@ -479,17 +494,7 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 	if (!faces.cards.length) throw new PrintOptionsError('Nothing to print: the chosen card kinds have no cards with copies');
 	checkFit(faces.cards, { paper: options.paper, marginMm, layout: options.layout });
 
-	const sheetOptions: SheetOptions = {
-		paper: options.paper,
-		marginMm,
-		layout: options.layout,
-		duplex: options.duplex,
-		marks: options.marks,
-		sets: options.sets,
-		backOffsetMm: options.backOffsetMm ? { xMm: options.backOffsetMm.x, yMm: options.backOffsetMm.y } : undefined,
-		colour: options.colour,
-		cuttingGuide: options.cuttingGuide ?? true
-	};
+	const sheetOptions = toSheetOptions(options);
 	const plan = planSheets({ faces: faces.cards, options: sheetOptions });
 	pageTotal = plan.groups.reduce((n, g) => n + g.pages.length, 0) + (sheetOptions.cuttingGuide ? 1 : 0);
 	const pdf = await buildSheetPdf({

@@ -63,6 +63,10 @@ export class StoreError extends Error {
 	}
 }
 
+/** One object of a game, by collection and id. */
+const objectWhere = (gameId: string, collection: Collection, id: string) =>
+	and(eq(gameObjects.gameId, gameId), eq(gameObjects.collection, collection), eq(gameObjects.id, id));
+
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Conn = Db | Tx;
 
@@ -175,11 +179,7 @@ export async function applyChanges(
 				.select()
 				.from(gameObjects)
 				.where(
-					and(
-						eq(gameObjects.gameId, gameId),
-						eq(gameObjects.collection, change.collection),
-						eq(gameObjects.id, change.id)
-					)
+					objectWhere(gameId, change.collection, change.id)
 				)
 				.for('update');
 			if (change.baseVersion !== undefined) {
@@ -205,11 +205,7 @@ export async function applyChanges(
 				await tx
 					.delete(gameObjects)
 					.where(
-						and(
-							eq(gameObjects.gameId, gameId),
-							eq(gameObjects.collection, change.collection),
-							eq(gameObjects.id, change.id)
-						)
+						objectWhere(gameId, change.collection, change.id)
 					);
 				continue;
 			}
@@ -221,11 +217,7 @@ export async function applyChanges(
 					.update(gameObjects)
 					.set({ data, version: row.version + 1, updatedBy: by.userId, updatedAt: new Date() })
 					.where(
-						and(
-							eq(gameObjects.gameId, gameId),
-							eq(gameObjects.collection, change.collection),
-							eq(gameObjects.id, change.id)
-						)
+						objectWhere(gameId, change.collection, change.id)
 					);
 			} else {
 				const [{ last }] = await tx

@@ -16,7 +16,7 @@ import { logActivity } from './activity';
 import type { Db } from './db';
 import type { Game } from '$lib/game/model';
 import { printPool, PrintBusyError, type PrintJob, type PrintJobResult } from '$lib/print/pool';
-import { parsePrintOptions, PrintOptionsError, renderGameFaces, DEFAULT_MARGIN_MM, type GamePdfOptions } from '$lib/print/job';
+import { parsePrintOptions, PrintOptionsError, renderGameFaces, toSheetOptions, type GamePdfOptions } from '$lib/print/job';
 import { planSheets } from '$lib/print/sheets';
 import { sheetPreviewSvg } from '$lib/print/preview';
 import { profileQuery } from '$lib/schemas/printing';
@@ -207,20 +207,7 @@ export async function previewFirstSheet(source: PrintSource, options: GamePdfOpt
 	const faces = await renderGameFaces(source.game, await artBytes(source.game), { kinds: options.kinds, sets: options.sets });
 	let plan;
 	try {
-		plan = planSheets({
-			faces: faces.cards,
-			options: {
-				paper: options.paper,
-				marginMm: options.marginMm ?? DEFAULT_MARGIN_MM,
-				layout: options.layout,
-				duplex: options.duplex,
-				marks: options.marks,
-				sets: options.sets,
-				backOffsetMm: options.backOffsetMm ? { xMm: options.backOffsetMm.x, yMm: options.backOffsetMm.y } : undefined,
-				colour: options.colour,
-				cuttingGuide: options.cuttingGuide ?? false
-			}
-		});
+		plan = planSheets({ faces: faces.cards, options: toSheetOptions(options) });
 	} catch (e) {
 		throw new ApiError(400, (e as Error).message);
 	}

@@ -13,45 +13,21 @@ import {
 	type Game,
 	type Id
 } from '$lib/game/model';
-import { TEMPLATES, type CardTemplate, type FaceModule } from '$lib/print/layout/templates';
-
-/**
- * The card data each layout draws (the shared back draws none). The print engine keeps the
- * same table privately; it is repeated here so the browser need not load the layout engine.
- */
-const FACE_DATA: Record<FaceModule, CardKindType | undefined> = {
-	movement: 'movement',
-	rogue: 'rogue',
-	wager: 'wager',
-	setup: 'setup',
-	modifier: 'modifier',
-	custom: 'custom',
-	'tile-front': 'tile',
-	'tile-back': 'tile',
-	back: undefined
-};
+import { DEFAULT_FRONT_TEMPLATE, MODULE_DATA, TEMPLATES, type CardTemplate } from '$lib/print/layout/templates';
 
 /** Layouts that can draw the front of a card of this type, the usual one first. */
 export function frontTemplates(type: CardKindType): CardTemplate[] {
-	const usual: Record<CardKindType, string> = {
-		movement: 'movement',
-		rogue: 'rogue',
-		wager: 'wager',
-		setup: 'setup',
-		modifier: 'modifier',
-		custom: 'custom',
-		tile: 'tile-front'
-	};
+	const usual = DEFAULT_FRONT_TEMPLATE;
 	return [...TEMPLATES.values()]
-		.filter((t) => FACE_DATA[t.face] === type)
+		.filter((t) => MODULE_DATA[t.face] === type)
 		.sort((a, b) => Number(b.id === usual[type]) - Number(a.id === usual[type]));
 }
 
 /** Layouts for a back: the shared back draws no card data; a per-card back draws the card's own. */
 export function backTemplates(type: CardKindType, mode: CardKind['back']['mode']): CardTemplate[] {
-	if (mode === 'shared') return [...TEMPLATES.values()].filter((t) => FACE_DATA[t.face] === undefined);
+	if (mode === 'shared') return [...TEMPLATES.values()].filter((t) => MODULE_DATA[t.face] === undefined);
 	return [...TEMPLATES.values()]
-		.filter((t) => FACE_DATA[t.face] === type)
+		.filter((t) => MODULE_DATA[t.face] === type)
 		.sort((a, b) => Number(b.face === 'tile-back') - Number(a.face === 'tile-back'));
 }
 

@@ -14,11 +14,11 @@ import { drawModifier, type ModifierParams } from './modifier';
 import { drawMovement, type MovementParams } from './movement';
 import { drawRogue, type RogueParams } from './rogue';
 import { drawSetup, type SetupParams } from './setup';
-import { mergeParams, TEMPLATES, type CardTemplate, type FaceModule } from './templates';
+import { DEFAULT_FRONT_TEMPLATE, MODULE_DATA, mergeParams, TEMPLATES, type CardTemplate, type FaceModule } from './templates';
 import { drawTileBack, drawTileFront, type TileParams } from './tile';
 import { drawWager, type WagerParams } from './wager';
 
-export { TEMPLATES, type CardTemplate, type FaceModule } from './templates';
+export { TEMPLATES, DEFAULT_FRONT_TEMPLATE, type CardTemplate, type FaceModule } from './templates';
 
 export type Side = 'front' | 'back';
 
@@ -33,30 +33,6 @@ export interface LayoutFaceInput {
 	/** From loadFonts(): text is measured with the fonts' own metrics. */
 	fonts: FontSet;
 }
-
-/** The layout a kind uses when its own names none the engine knows. */
-export const DEFAULT_FRONT_TEMPLATE: Record<CardKindType, string> = {
-	movement: 'movement',
-	rogue: 'rogue',
-	wager: 'wager',
-	setup: 'setup',
-	modifier: 'modifier',
-	custom: 'custom',
-	tile: 'tile-front'
-};
-
-/** The card data each face module draws (the shared back draws none). */
-const MODULE_DATA: Record<FaceModule, CardKindType | undefined> = {
-	movement: 'movement',
-	rogue: 'rogue',
-	wager: 'wager',
-	setup: 'setup',
-	modifier: 'modifier',
-	custom: 'custom',
-	'tile-front': 'tile',
-	'tile-back': 'tile',
-	back: undefined
-};
 
 type Draw = (ctx: FaceContext<never>, data: CardData | undefined) => void;
 

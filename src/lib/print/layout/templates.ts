@@ -3,6 +3,7 @@
  * frame, corner radius, which fields show and where the boxes sit (as fractions of the safe
  * area, so one layout serves every card size). A kind's `params` override these defaults.
  */
+import type { CardKindType } from '../../game/model';
 import back from '../../../../templates/cards/back.json' with { type: 'json' };
 import custom from '../../../../templates/cards/custom.json' with { type: 'json' };
 import modifier from '../../../../templates/cards/modifier.json' with { type: 'json' };
@@ -26,6 +27,30 @@ export const FACE_MODULES = [
 	'back'
 ] as const;
 export type FaceModule = (typeof FACE_MODULES)[number];
+
+/** The card data each face module draws (the shared back draws none). */
+export const MODULE_DATA: Record<FaceModule, CardKindType | undefined> = {
+	movement: 'movement',
+	rogue: 'rogue',
+	wager: 'wager',
+	setup: 'setup',
+	modifier: 'modifier',
+	custom: 'custom',
+	'tile-front': 'tile',
+	'tile-back': 'tile',
+	back: undefined
+};
+
+/** The layout a kind uses when its own names none the engine knows. */
+export const DEFAULT_FRONT_TEMPLATE: Record<CardKindType, string> = {
+	movement: 'movement',
+	rogue: 'rogue',
+	wager: 'wager',
+	setup: 'setup',
+	modifier: 'modifier',
+	custom: 'custom',
+	tile: 'tile-front'
+};
 
 export interface CardTemplate {
 	id: string;
