@@ -516,6 +516,8 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 export interface CardPressOptions {
 	colour?: ColourMode;
 	cropMarks?: boolean;
+	/** YYYY-MM-DD, the document's date (a proof's date keeps its press files the same bytes). */
+	date?: string;
 	cache?: PrintCache;
 }
 
@@ -549,7 +551,8 @@ export async function buildCardPressPdf(
 		colour: options.colour ?? 'cmyk',
 		cropMarks: options.cropMarks ?? false,
 		fonts,
-		imageStore: cache
+		imageStore: cache,
+		date: options.date
 	});
 	return { pdf, warnings: [...warnings, ...front.warnings, ...back.warnings] };
 }

@@ -29,6 +29,16 @@ describe('sharedFontkit', () => {
 		expect(listed.some((g) => g.id === fi.id && g.codePoints.join() === '102,105')).toBe(true);
 	});
 
+	it('a document lists only the ligatures its own texts produced (the same texts give the same font dictionary)', () => {
+		const before = sharedFontkit.create(new Uint8Array(fonts.regular.ttf));
+		before.layout('first');
+		const fresh = sharedFontkit.create(new Uint8Array(fonts.regular.ttf));
+		const beyondCmap = (f: typeof fresh) => f.characterSet.filter((cp) => cp > 0x10ffff).length;
+		expect(beyondCmap(fresh)).toBe(0);
+		fresh.layout('first');
+		expect(beyondCmap(fresh)).toBe(1);
+	});
+
 	it('the shipped font shapes nothing across a space, so a label is as wide as its words and spaces', () => {
 		// Every pair of printable ASCII characters around a space (sheets.ts measures labels by words).
 		for (const weight of ['regular', 'bold'] as const) {

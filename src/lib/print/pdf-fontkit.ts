@@ -3,7 +3,7 @@
  * string's shaping (fontkit's `layout`, GSUB/GPOS) remembered. Shaping the same card texts again
  * for every PDF was the larger part of drawing a sheet; a rebuild now shapes only new strings.
  *
- * pdf-lib sees each font through a thin proxy that changes two things:
+ * pdf-lib sees each font through a thin proxy, one per document, that changes two things:
  * - `layout` is remembered per string (pdf-lib only reads the glyph ids and advance widths of a
  *   result, so one result may serve many documents);
  * - `characterSet` / `glyphForCodePoint` also list the glyphs shaping produced that the font's
@@ -23,7 +23,15 @@ type Font = ReturnType<typeof fontkit.create>;
 type Run = ReturnType<Font['layout']>;
 type Glyph = Run['glyphs'][number];
 
-const fonts = new Map<string, Font>();
+/** A parsed font with its remembered shaping, shared by every document of the process. */
+interface SharedFont {
+	font: Font;
+	/** Per string: the run, and its glyphs the cmap does not reach (usually none). */
+	shaped: Map<string, { run: Run; beyondCmap: Glyph[] }>;
+	cmapGlyphs: Set<number>;
+}
+
+const fonts = new Map<string, SharedFont>();
 
 /** FNV-1a over the bytes, with their length: tells the few typeface files apart without a crypto module. */
 function fileKey(bytes: Uint8Array): string {
@@ -32,24 +40,33 @@ function fileKey(bytes: Uint8Array): string {
 	return `${bytes.length}:${(h >>> 0).toString(16)}`;
 }
 
-function forPdfLib(font: Font): Font {
-	const shaped = new Map<string, Run>();
+function share(font: Font): SharedFont {
 	const cmapGlyphs = new Set<number>();
 	for (const cp of font.characterSet) cmapGlyphs.add(font.glyphForCodePoint(cp).id);
+	return { font, shaped: new Map(), cmapGlyphs };
+}
+
+/**
+ * One document's view of a shared font. The glyphs beyond the cmap it lists are the ones this
+ * document's texts produced, so the same texts always give the same font dictionaries, whatever
+ * else the process printed before.
+ */
+function forDocument({ font, shaped, cmapGlyphs }: SharedFont): Font {
 	/** Glyphs shaping produced beyond the cmap, with the code points they stand for. */
 	const extra = new Map<number, Glyph>();
 
 	const layout = (text: string, features?: unknown, ...rest: unknown[]): Run => {
 		if (rest.length) return font.layout(text, features as never, ...(rest as []));
 		const key = features === undefined ? text : `${text}\u0000${JSON.stringify(features)}`;
-		let run = shaped.get(key);
-		if (!run) {
+		let entry = shaped.get(key);
+		if (!entry) {
 			if (shaped.size >= MAX_SHAPED_STRINGS) shaped.clear();
-			run = font.layout(text, features as never);
-			shaped.set(key, run);
-			for (const g of run.glyphs) if (!cmapGlyphs.has(g.id) && !extra.has(g.id) && g.codePoints.length) extra.set(g.id, g);
+			const run = font.layout(text, features as never);
+			entry = { run, beyondCmap: run.glyphs.filter((g) => !cmapGlyphs.has(g.id) && g.codePoints.length) };
+			shaped.set(key, entry);
 		}
-		return run;
+		for (const g of entry.beyondCmap) if (!extra.has(g.id)) extra.set(g.id, g);
+		return entry.run;
 	};
 	const glyphForCodePoint = (cp: number) => (cp >= BEYOND_UNICODE ? extra.get(cp - BEYOND_UNICODE)! : font.glyphForCodePoint(cp));
 
@@ -76,11 +93,12 @@ export function forgetSharedFonts(): void {
 export const sharedFontkit = {
 	create(bytes: Uint8Array, postscriptName?: string): Font {
 		const key = `${fileKey(bytes)}:${postscriptName ?? ''}`;
-		let font = fonts.get(key);
-		if (!font) {
-			font = forPdfLib(fontkit.create(bytes, postscriptName));
-			fonts.set(key, font);
+		let shared = fonts.get(key);
+		if (!shared) {
+			shared = share(fontkit.create(bytes, postscriptName));
+			fonts.set(key, shared);
 		}
-		return font;
+		// pdf-lib asks once per font per document.
+		return forDocument(shared);
 	}
 };

@@ -70,6 +70,23 @@ describe('PrintPool', () => {
 		}
 	});
 
+	it('isolated builds give the same bytes whatever the worker built before', async () => {
+		const one = new PrintPool({ size: 1 });
+		try {
+			const hazards = { type: 'sheets' as const, isolated: true, game: demo.game, art: demo.art, options: { ...OPTIONS, kinds: ['kd-hazard'] } };
+			const press = { type: 'press' as const, isolated: true, game: demo.game, art: demo.art, cardId: demo.game.cards[0].id, options: { date: '2026-01-01' } };
+			const first = [await one.run(hazards), await one.run(press)];
+			// In between, a build with other texts (the wager cards' fi ligature) and other faces in the worker's cache.
+			await one.run({ type: 'sheets', game: demo.game, art: demo.art, options: OPTIONS });
+			await new Promise((r) => setTimeout(r, 1100));
+			const again = [await one.run(hazards), await one.run(press)];
+			expect(Buffer.from(again[0].bytes).equals(Buffer.from(first[0].bytes))).toBe(true);
+			expect(Buffer.from(again[1].bytes).equals(Buffer.from(first[1].bytes))).toBe(true);
+		} finally {
+			await one.close();
+		}
+	});
+
 	it('sends refusals back as PrintOptionsError with their status', async () => {
 		const err = await pool.run({ type: 'sheets', game: demo.game, art: demo.art, options: { ...OPTIONS, kinds: ['kd-missing'] } }).catch((e) => e);
 		expect(err).toBeInstanceOf(PrintOptionsError);

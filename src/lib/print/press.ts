@@ -79,6 +79,8 @@ export interface PressPdfInput {
 	fonts?: FontSet;
 	/** Encoded image pixels kept between documents (see ./pdf-image.ts). */
 	imageStore?: EncodedImageStore;
+	/** YYYY-MM-DD: the document's date, so the same input gives the same bytes (now when absent). */
+	date?: string;
 }
 
 export async function buildPressPdf(input: PressPdfInput): Promise<Uint8Array> {
@@ -86,6 +88,11 @@ export async function buildPressPdf(input: PressPdfInput): Promise<Uint8Array> {
 	if (input.title) doc.setTitle(input.title);
 	doc.setProducer('Paddock');
 	doc.setCreator('Paddock');
+	const stamp = input.date ? new Date(`${input.date}T00:00:00Z`) : undefined;
+	if (stamp && !Number.isNaN(stamp.getTime())) {
+		doc.setCreationDate(stamp);
+		doc.setModificationDate(stamp);
+	}
 	const writer = await PdfFaceWriter.create(doc, {
 		fonts: input.fonts ?? (await loadFonts()),
 		images: input.images,
