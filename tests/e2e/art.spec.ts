@@ -1,18 +1,12 @@
 import { test, expect, type Page } from '@playwright/test';
 import { Jimp } from 'jimp';
-import { hydrated, signIn } from './helpers';
-
-async function firstGame(page: Page) {
-	const me = await (await page.request.get('/api/v1/me')).json();
-	const list = await (await page.request.get(`/api/v1/teams/${me.memberships[0].teamId}/games`)).json();
-	return list.games[0].id as string;
-}
+import { hydrated, signIn, demoGameId } from './helpers';
 
 const artCount = async (page: Page, gameId: string) => (await (await page.request.get(`/api/v1/games/${gameId}/art`)).json()).art.length as number;
 
 test('an artist uploads a low-resolution PNG for a poker-size back and is warned it prints under 300 dpi', async ({ page }) => {
 	await signIn(page, 'artist@paddock.test');
-	const gameId = await firstGame(page);
+	const gameId = await demoGameId(page);
 	await page.goto(`/games/${gameId}/art`);
 	await hydrated(page);
 
@@ -41,7 +35,7 @@ test('an artist uploads a low-resolution PNG for a poker-size back and is warned
 
 test('a hostile upload shows why it was refused, and nothing is added', async ({ page }) => {
 	await signIn(page, 'artist@paddock.test');
-	const gameId = await firstGame(page);
+	const gameId = await demoGameId(page);
 	const before = await artCount(page, gameId);
 	await page.goto(`/games/${gameId}/art`);
 	await hydrated(page);
@@ -62,7 +56,7 @@ test('a hostile upload shows why it was refused, and nothing is added', async ({
 
 test('an artist replaces a file and the earlier one stays in the history', async ({ page }) => {
 	await signIn(page, 'artist@paddock.test');
-	const gameId = await firstGame(page);
+	const gameId = await demoGameId(page);
 	await page.goto(`/games/${gameId}/art?art=art-portrait-rn-pebble`);
 	await hydrated(page);
 	const panel = page.getByRole('complementary');
@@ -81,7 +75,7 @@ test('an artist replaces a file and the earlier one stays in the history', async
 
 test('a reviewer reads the art and its warnings but cannot change it; a printer is turned away', async ({ page, browser }) => {
 	await signIn(page, 'reviewer@paddock.test');
-	const gameId = await firstGame(page);
+	const gameId = await demoGameId(page);
 	await page.goto(`/games/${gameId}/art?art=art-back-dew`);
 	await hydrated(page);
 	await expect(page.getByText('You can read the art; artists, designers and owners upload and change it.')).toBeVisible();

@@ -1,22 +1,16 @@
-import { test, expect, type Page } from '@playwright/test';
-import { hydrated, signIn } from './helpers';
-
-async function firstGame(page: Page) {
-	const me = await (await page.request.get('/api/v1/me')).json();
-	const list = await (await page.request.get(`/api/v1/teams/${me.memberships[0].teamId}/games`)).json();
-	return list.games[0].id as string;
-}
+import { test, expect } from '@playwright/test';
+import { hydrated, signIn, demoGameId } from './helpers';
 
 test('two tabs edit one money table: the stale save is refused and the newer data kept', async ({ context }) => {
 	const a = await context.newPage();
 	await signIn(a, 'designer@paddock.test');
-	const gameId = await firstGame(a);
+	const gameId = await demoGameId(a);
 	const b = await context.newPage();
 	await a.goto(`/games/${gameId}/money-tables`);
 	await b.goto(`/games/${gameId}/money-tables`);
 	await hydrated(a);
 	await hydrated(b);
-	const original = await a.getByLabel('Name').inputValue();
+	const original = await a.getByLabel('Name', { exact: true }).inputValue();
 
 	await a.getByLabel('Name').fill(`${original} (tab A)`);
 	await a.getByRole('button', { name: 'Save the table' }).click();
@@ -33,11 +27,11 @@ test('two tabs edit one money table: the stale save is refused and the newer dat
 
 test('a reviewer reads the runners but cannot change them', async ({ page }) => {
 	await signIn(page, 'reviewer@paddock.test');
-	const gameId = await firstGame(page);
+	const gameId = await demoGameId(page);
 	await page.goto(`/games/${gameId}/runners`);
 	await expect(page.getByText('You can read the runners; designers change them.')).toBeVisible();
 	await expect(page.getByRole('button', { name: 'Save the runner' })).toHaveCount(0);
-	await expect(page.getByLabel('Name')).toBeDisabled();
+	await expect(page.getByLabel('Name', { exact: true })).toBeDisabled();
 	const runners = await (await page.request.get(`/api/v1/games/${gameId}/runners`)).json();
 	const r = runners.runners[0];
 	const put = await page.request.put(`/api/v1/games/${gameId}/runners/${r.id}`, {

@@ -15,3 +15,12 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
 	await page.getByRole('button', { name: 'Sign in' }).click();
 	await expect(page).toHaveURL('/');
 }
+
+/** The demo game's id (other tests add games of their own to the demo team). */
+export async function demoGameId(page: Page): Promise<string> {
+	const me = await (await page.request.get('/api/v1/me')).json();
+	const list = await (await page.request.get(`/api/v1/teams/${me.memberships[0].teamId}/games`)).json();
+	const demo = list.games.find((g: { name: string }) => g.name === 'The Marrowbed Derby');
+	if (!demo) throw new Error('the demo game is missing');
+	return demo.id as string;
+}

@@ -3,12 +3,12 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { hydrated, signIn } from './helpers';
+import { hydrated, signIn, demoGameId } from './helpers';
 
 test('a printer picks a profile, downloads the sheet PDF of the released demo proof, and it opens', async ({ page }) => {
 	await signIn(page, 'printer@paddock.test');
 	await page.getByRole('link', { name: 'Mossbank Games' }).first().click();
-	await page.getByRole('link', { name: /Derby/ }).first().click();
+	await page.getByRole('link', { name: 'The Marrowbed Derby' }).click();
 	await page.getByRole('link', { name: 'Print', exact: true }).click();
 	await hydrated(page);
 	await expect(page.getByLabel('Print', { exact: true })).toHaveValue('1');
@@ -31,9 +31,7 @@ test('a printer picks a profile, downloads the sheet PDF of the released demo pr
 
 test('printers cannot print the working copy; a bad parameter answers 400 with its reason', async ({ page }) => {
 	await signIn(page, 'printer@paddock.test');
-	const me = await (await page.request.get('/api/v1/me')).json();
-	const games = await (await page.request.get(`/api/v1/teams/${me.memberships[0].teamId}/games`)).json();
-	const gameId = games.games[0].id;
+	const gameId = await demoGameId(page);
 	expect((await page.request.get(`/api/v1/games/${gameId}/print.pdf`)).status()).toBe(403);
 	const bad = await page.request.get(`/api/v1/games/${gameId}/proofs/1/print.pdf?paper=a7`);
 	expect(bad.status()).toBe(400);

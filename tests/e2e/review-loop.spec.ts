@@ -10,19 +10,13 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { hydrated, signIn } from './helpers';
+import { hydrated, signIn, demoGameId } from './helpers';
 
 async function person(browser: Browser, email: string) {
 	const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
 	const page = await context.newPage();
 	await signIn(page, email);
 	return page;
-}
-
-async function firstGame(page: Page) {
-	const me = await (await page.request.get('/api/v1/me')).json();
-	const list = await (await page.request.get(`/api/v1/teams/${me.memberships[0].teamId}/games`)).json();
-	return list.games[0].id as string;
 }
 
 /** The path of the first link in the newest caught message to `to` that contains `text`. */
@@ -48,7 +42,7 @@ test('cut, pin, reply, resolve, approve, release, print', async ({ browser }) =>
 
 	// The designer cuts a proof and opens it.
 	const designer = await person(browser, 'designer@paddock.test');
-	const gameId = await firstGame(designer);
+	const gameId = await demoGameId(designer);
 	await designer.goto(`/games/${gameId}/proofs`);
 	await hydrated(designer);
 	await designer.getByLabel('What is this proof for?').fill(description);
