@@ -32,7 +32,7 @@ export async function pressPdf(event: Ev) {
 		game: source.game,
 		art: await artBytes(source.game),
 		cardId,
-		options: { colour, cropMarks: marks }
+		options: { colour, cropMarks: marks, date: source.date }
 	});
 	await logDownload(d, source, `press:${cardId}`);
 	return fileResponse(result.bytes, 'application/pdf', `${fileStem(source)}-${cardId}.pdf`, result.warnings);
