@@ -59,23 +59,38 @@ export function drawCuttingGuide(
 	text(SCALE_NOTE, 9);
 	y += 3;
 
-	for (const group of input.plan.groups) {
+	// Each size: its words on the left, a small map of the sheet on the right, so several sizes share the page.
+	const mapBox = { widthMm: 60, heightMm: 42 };
+	const textWidth = width - mapBox.widthMm - 6;
+	const groups = input.plan.groups;
+	for (let i = 0; i < groups.length; i++) {
+		const group = groups[i];
 		const imp = group.imposition;
 		const sheets = new Set(group.pages.map((p) => p.sheet));
-		text(
+		const top = y;
+		const para = (s: string, sizePt: number, font: PDFFont = regular) => {
+			for (const line of wrap(s, font, sizePt, textWidth * k)) {
+				page.drawText(line, { x: left * k, y: (H - y) * k, size: sizePt, font, color: ink });
+				y += (sizePt * 1.35) / k;
+			}
+		};
+		para(
 			`${fmt(group.trimWidthMm)} × ${fmt(group.trimHeightMm)} mm cards, bleed ${fmt(group.bleedMm)} mm ` +
 				`(${group.kindKeys.join(', ')}): ${group.cardCount} cards on ${sheets.size} ` +
 				`${sheets.size === 1 ? 'sheet' : 'sheets'}, ${paper.label} ${imp.orientation}, ${imp.columns} × ${imp.rows} per sheet.`,
-			10,
+			9.5,
 			bold
 		);
-		text(`Layout: ${LAYOUT_WORDS[imp.layout]}.`, 9);
-		text(`Cut down the sheet at these distances from its left edge (mm): ${list(imp.cutsXMm)}.`, 9);
-		text(`Cut across the sheet at these distances from its top edge (mm): ${list(imp.cutsYMm)}.`, 9);
-		if (imp.foldsXMm.length) text(`Fold at these distances from the left edge (mm): ${list(imp.foldsXMm)}.`, 9);
-		y += 2;
-		y = drawMap(page, imp, left, y, H, { ink, grey }) + 5;
-		if (y > H - 70) break;
+		para(`Layout: ${LAYOUT_WORDS[imp.layout]}.`, 8.5);
+		para(`Cut down the sheet at these distances from its left edge (mm): ${list(imp.cutsXMm)}.`, 8.5);
+		para(`Cut across the sheet at these distances from its top edge (mm): ${list(imp.cutsYMm)}.`, 8.5);
+		if (imp.foldsXMm.length) para(`Fold at these distances from the left edge (mm): ${list(imp.foldsXMm)}.`, 8.5);
+		const mapBottom = drawMap(page, imp, left + width - mapBox.widthMm, top, H, mapBox, { ink, grey });
+		y = Math.max(y, mapBottom) + 6;
+		if (i < groups.length - 1 && y > H - 110) {
+			text(`${groups.length - i - 1} more card sizes are not shown here: print them with the cutting guide turned on for those kinds alone.`, 9, bold);
+			break;
+		}
 	}
 
 	y = Math.max(y, H - 62);
@@ -94,10 +109,11 @@ function drawMap(
 	leftMm: number,
 	topMm: number,
 	pageHeightMm: number,
+	box: { widthMm: number; heightMm: number },
 	c: { ink: ReturnType<PdfFaceWriter['paint']>; grey: ReturnType<PdfFaceWriter['paint']> }
 ): number {
 	const k = PT_PER_MM;
-	const scale = Math.min(70 / imp.sheetWidthMm, 50 / imp.sheetHeightMm);
+	const scale = Math.min(box.widthMm / imp.sheetWidthMm, box.heightMm / imp.sheetHeightMm);
 	const X = (mm: number) => (leftMm + mm * scale) * k;
 	const Y = (mm: number) => (pageHeightMm - topMm - mm * scale) * k;
 	page.drawRectangle({
