@@ -36,6 +36,13 @@ describe('svgToPng', () => {
 		expect([img.bitmap.width, img.bitmap.height]).toEqual([825, 1125]);
 	});
 
+	it('rounds each side on its own: a mini card with 3 mm bleed at 300 dpi is 591 × 874 px', async () => {
+		// 50 mm / 25.4 × 300 = 590.55 → 591 px; 74 mm / 25.4 × 300 = 874.02 → 874 px (1 in = 25.4 mm).
+		const mini = { ...pokerFace([]), trimWidthMm: 44, trimHeightMm: 68, bleedMm: 3, safeMm: 5 };
+		const r = await renderFacePng({ ...mini, items: [{ ...background, wMm: 50, hMm: 74 }] }, new Map(), { dpi: 300 });
+		expect(imageSize(r.png)).toMatchObject({ width: 591, height: 874 });
+	});
+
 	it('rounds to whole pixels from mm and dpi', () => {
 		expect(mmToPx(25.4, 300)).toBe(300);
 		expect(mmToPx(69.85, 300)).toBe(825);

@@ -29,6 +29,9 @@ export function resvgReady(): Promise<void> {
 	return ready;
 }
 
+/** The root element gives its size in mm. */
+const MM_SIZED = /^\s*(?:<\?xml[^>]*>\s*)?<svg\b[^>]*\swidth="[\d.]+mm"/;
+
 /** Pixels across `mm` at `dpi`, rounded to whole pixels. */
 export const mmToPx = (mm: number, dpi: number) => Math.round((mm / MM_PER_INCH) * dpi);
 
@@ -57,7 +60,10 @@ export async function svgToPng(svg: string, opts: PngOptions): Promise<RenderedP
 		serifFamily: FONT_FAMILY
 	};
 	const resvg = new Resvg(svg, {
-		fitTo: { mode: 'width', value: mmToPx(opts.widthMm, opts.dpi) },
+		// An SVG sized in mm (our faces) is zoomed by dpi / 96 (resvg reads mm at 96 px per inch,
+		// CSS 2.1 §4.3.2), which rounds each side on its own: round(mm / 25.4 × dpi) both ways.
+		// Anything else is fitted to the width.
+		fitTo: MM_SIZED.test(svg) ? { mode: 'zoom', value: opts.dpi / 96 } : { mode: 'width', value: mmToPx(opts.widthMm, opts.dpi) },
 		background: opts.background,
 		font
 	});
