@@ -1,5 +1,5 @@
 import { defineConfig } from '@playwright/test';
-import { E2E_DATA_DIR, E2E_PORT, CHROMIUM } from './tests/e2e/env';
+import { E2E_DATA_DIR, E2E_PORT, CHROMIUM, CHROMIUM_ARGS } from './tests/e2e/env';
 
 export default defineConfig({
 	testDir: 'tests/e2e',
@@ -11,16 +11,7 @@ export default defineConfig({
 		baseURL: `http://localhost:${E2E_PORT}`,
 		launchOptions: {
 			executablePath: CHROMIUM,
-			args: [
-				'--headless',
-				'--no-sandbox',
-				'--disable-gpu',
-				'--disable-quic',
-				'--no-first-run',
-				'--disable-background-networking',
-				'--disable-component-update',
-				'--disable-sync'
-			]
+			args: CHROMIUM_ARGS
 		}
 	},
 	webServer: {

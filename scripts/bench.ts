@@ -28,23 +28,12 @@ import { buildGamePdf, cachedFacePng, renderGameFaces, type GamePdfOptions } fro
 import { paperSize } from '../src/lib/print/paper';
 import { PrintPool } from '../src/lib/print/pool';
 import { planSheets, type SheetOptions } from '../src/lib/print/sheets';
+import { CHROMIUM, CHROMIUM_ARGS } from '../tests/e2e/env';
 
 const { values: flags } = parseArgs({
 	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
 });
 const REPEATS = Math.max(1, Number(flags.repeats ?? 5));
-const CHROMIUM = '/usr/bin/chromium';
-const CHROMIUM_ARGS = [
-	'--headless',
-	'--no-sandbox',
-	'--disable-gpu',
-	'--disable-quic',
-	'--no-first-run',
-	'--disable-background-networking',
-	'--disable-component-update',
-	'--disable-sync'
-];
-
 /** The job every scenario runs: A4, spaced, long-edge duplex, crop marks, cutting guide. */
 const JOB: GamePdfOptions = { paper: 'a4', layout: 'spaced', duplex: 'long', marks: true, sets: 1, colour: 'rgb', date: '2026-01-01' };
 
