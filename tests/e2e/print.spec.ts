@@ -9,7 +9,7 @@ test('a printer picks a profile, downloads the sheet PDF of the released demo pr
 	await signIn(page, 'printer@paddock.test');
 	await page.getByRole('link', { name: 'Mossbank Games' }).first().click();
 	await page.getByRole('link', { name: 'The Marrowbed Derby' }).click();
-	await page.getByRole('link', { name: 'Print', exact: true }).click();
+	await page.getByRole('navigation', { name: 'Game' }).getByRole('link', { name: 'Print', exact: true }).click();
 	await hydrated(page);
 	await expect(page.getByLabel('Print', { exact: true })).toHaveValue('1');
 	await page.getByLabel('Printer profile').selectOption({ label: 'Office laser, A4 duplex' });
