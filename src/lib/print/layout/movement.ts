@@ -5,20 +5,13 @@
 import type { MovementData } from '../../game/model';
 import { chevronPath } from '../symbols';
 import type { FaceContext } from './context';
-import { drawSlot, slotArt } from './context';
+import { drawCardName, drawStepsAndArt, type StepsParams } from './steps';
 import { hex, type Box, type FaceBuilder } from './face-builder';
-import { drawBand, drawFrame, drawGround, runnerColour, type FrontParams } from './frame';
+import { drawBand, drawFrame, drawGround, runnerColour } from './frame';
 import type { FracBox } from './templates';
 
-export interface MovementParams extends FrontParams {
-	bodyPt: number;
-	numberPt: number;
-	numberMinPt: number;
-	numberBox: FracBox;
+export interface MovementParams extends StepsParams {
 	chevronBox: FracBox;
-	artBox: FracBox;
-	numberBoxWithArt: FracBox;
-	cardNameBox: FracBox;
 }
 
 /** When a runner is missing from the game, draw the card neutral (and say so). */
@@ -44,7 +37,7 @@ export function drawChevrons(b: FaceBuilder, box: Box, count: number, direction:
 }
 
 export function drawMovement(ctx: FaceContext<MovementParams>, data: MovementData) {
-	const { b, game, card, params: p } = ctx;
+	const { b, game, params: p } = ctx;
 	const runner = game.runners.find((r) => r.id === data.runnerId);
 	if (!runner) b.warn(`runner ${data.runnerId} is not in the game`);
 	const r = runner ?? UNKNOWN_RUNNER;
@@ -59,28 +52,7 @@ export function drawMovement(ctx: FaceContext<MovementParams>, data: MovementDat
 	});
 	drawFrame(b, p, panel);
 
-	const art = p.show.art ? slotArt(ctx, runner?.id) : undefined;
-	if (art) drawSlot(ctx, b.place(p.artBox), art);
-	b.text(String(data.steps), b.place(art ? p.numberBoxWithArt : p.numberBox), {
-		maxPt: p.numberPt,
-		minPt: p.numberMinPt,
-		weight: 'bold',
-		align: 'center',
-		valign: 'middle',
-		wrap: false,
-		fill: hex(p.inkHex),
-		label: 'step count'
-	});
+	const art = drawStepsAndArt(ctx, runner?.id, data.steps);
 	if (!art && p.show.chevrons) drawChevrons(b, b.place(p.chevronBox), data.steps, 'forward', colour.hex, p.inkHex);
-	if (p.show.cardName && card)
-		b.text(card.name, b.place(p.cardNameBox), {
-			maxPt: p.bodyPt,
-			minPt: 5,
-			align: 'center',
-			valign: 'middle',
-			wrap: false,
-			ellipsis: true,
-			fill: hex(p.mutedHex),
-			label: 'card name'
-		});
+	drawCardName(ctx);
 }

@@ -5,29 +5,22 @@
 import type { RogueData } from '../../game/model';
 import { arrowPath } from '../symbols';
 import type { FaceContext } from './context';
-import { drawSlot, slotArt } from './context';
+import { drawCardName, drawStepsAndArt, type StepsParams } from './steps';
 import { hex } from './face-builder';
-import { drawBand, drawFrame, drawGround, runnerColour, type FrontParams } from './frame';
+import { drawBand, drawFrame, drawGround, runnerColour } from './frame';
 import { UNKNOWN_RUNNER } from './movement';
 import type { FracBox } from './templates';
 
-export interface RogueParams extends FrontParams {
-	bodyPt: number;
-	numberPt: number;
-	numberMinPt: number;
+export interface RogueParams extends StepsParams {
 	stripeMm: number;
 	caption: string;
-	numberBox: FracBox;
 	arrowBox: FracBox;
 	captionBox: FracBox;
-	artBox: FracBox;
-	numberBoxWithArt: FracBox;
 	arrowBoxWithArt: FracBox;
-	cardNameBox: FracBox;
 }
 
 export function drawRogue(ctx: FaceContext<RogueParams>, data: RogueData) {
-	const { b, game, card, params: p } = ctx;
+	const { b, game, params: p } = ctx;
 	const rogue = game.rogueRunner;
 	if (!rogue) b.warn('the game has no rogue runner');
 	const r = rogue ?? UNKNOWN_RUNNER;
@@ -43,18 +36,7 @@ export function drawRogue(ctx: FaceContext<RogueParams>, data: RogueData) {
 	});
 	drawFrame(b, p, panel);
 
-	const art = p.show.art ? slotArt(ctx, rogue?.id) : undefined;
-	if (art) drawSlot(ctx, b.place(p.artBox), art);
-	b.text(String(data.steps), b.place(art ? p.numberBoxWithArt : p.numberBox), {
-		maxPt: p.numberPt,
-		minPt: p.numberMinPt,
-		weight: 'bold',
-		align: 'center',
-		valign: 'middle',
-		wrap: false,
-		fill: hex(p.inkHex),
-		label: 'step count'
-	});
+	const art = drawStepsAndArt(ctx, rogue?.id, data.steps);
 	if (p.show.arrow) {
 		const box = b.place(art ? p.arrowBoxWithArt : p.arrowBox);
 		const lengthMm = Math.min(box.wMm, box.hMm * 3.2);
@@ -81,15 +63,5 @@ export function drawRogue(ctx: FaceContext<RogueParams>, data: RogueData) {
 			fill: hex(p.inkHex),
 			label: 'caption'
 		});
-	if (p.show.cardName && card)
-		b.text(card.name, b.place(p.cardNameBox), {
-			maxPt: p.bodyPt,
-			minPt: 5,
-			align: 'center',
-			valign: 'middle',
-			wrap: false,
-			ellipsis: true,
-			fill: hex(p.mutedHex),
-			label: 'card name'
-		});
+	drawCardName(ctx);
 }
