@@ -5,7 +5,6 @@
  */
 import { isHttpError, isRedirect, isActionFailure } from '@sveltejs/kit';
 import { stringify } from 'devalue';
-import { eq } from 'drizzle-orm';
 import { openDatabase, type Db } from '$lib/server/db';
 import { useRuntime, startMail } from '$lib/server/runtime';
 import { seedDemo, DEMO_ROLES, demoEmail } from '$lib/server/demo';
@@ -129,10 +128,6 @@ export async function statusOf(run: () => unknown): Promise<number> {
 	}
 }
 
-export async function gameOf(db: Db, id: string) {
-	const [g] = await db.select().from(games).where(eq(games.id, id));
-	return g;
-}
 
 /** The body superforms posts for `dataType: 'json'` forms. */
 export function superformJson(data: unknown): Record<string, string> {

@@ -115,11 +115,3 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 	}
 	return parsed.data;
 }
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
-/** An id from the path; malformed ids are simply not found. */
-export function idParam(value: string | undefined, what = 'thing'): string {
-	if (!value || !UUID.test(value)) throw new ApiError(404, `No such ${what}`);
-	return value;
-}

@@ -64,9 +64,14 @@ export const proofPath = (gameId: string, number: number) => `/games/${gameId}/p
 export const snapshotOf = (proof: Proof): Game => GameSchema.parse(proof.snapshot);
 export const isReleased = (proof: Proof) => !!proof.releasedAt && !proof.withdrawnAt;
 
+async function gameRow(db: Db, gameId: string) {
+	const [game] = await db.select().from(games).where(eq(games.id, gameId));
+	return game;
+}
+
 /** People of the game's team in the given roles who have not muted the game, minus `except`. */
 async function audience(db: Db, gameId: string, roles: Role[], except?: string) {
-	const [game] = await db.select().from(games).where(eq(games.id, gameId));
+	const game = await gameRow(db, gameId);
 	const rows = await db
 		.select({ id: users.id, email: users.email, role: memberships.role })
 		.from(memberships)
@@ -207,7 +212,7 @@ export async function addComment(
 		values = { proofId: proof.id, cardId: card.id, side: input.side, xMm: input.xMm, yMm: input.yMm, body: input.body, authorId: author.id };
 	}
 	const [row] = await db.insert(proofComments).values(values).returning();
-	const [g] = await db.select().from(games).where(eq(games.id, proof.gameId));
+	const g = await gameRow(db, proof.gameId);
 	await logActivity(db, {
 		teamId: g.teamId,
 		gameId: proof.gameId,
@@ -255,7 +260,7 @@ export async function resolveComment(db: Db, proof: Proof, commentId: string, us
 		if (any.threadId) throw new ProofError(400, 'Resolve the thread from its first comment');
 		throw new ProofError(409, 'This comment is resolved already');
 	}
-	const [g] = await db.select().from(games).where(eq(games.id, proof.gameId));
+	const g = await gameRow(db, proof.gameId);
 	await logActivity(db, { teamId: g.teamId, gameId: proof.gameId, userId, action: 'comment.resolved', detail: { proof: proof.number, commentId } });
 	return row;
 }
@@ -263,7 +268,7 @@ export async function resolveComment(db: Db, proof: Proof, commentId: string, us
 export async function giveVerdict(db: Db, proof: Proof, reviewer: { id: string; name: string }, input: z.infer<typeof VerdictSchema>) {
 	if (proof.withdrawnAt) throw new ProofError(409, 'This proof is withdrawn; a verdict on it no longer counts.');
 	const [row] = await db.insert(proofVerdicts).values({ proofId: proof.id, reviewerId: reviewer.id, verdict: input.verdict, note: input.note }).returning();
-	const [g] = await db.select().from(games).where(eq(games.id, proof.gameId));
+	const g = await gameRow(db, proof.gameId);
 	await logActivity(db, { teamId: g.teamId, gameId: proof.gameId, userId: reviewer.id, action: 'proof.verdict', detail: { proof: proof.number, verdict: input.verdict } });
 	await tell(db, proof.gameId, await audience(db, proof.gameId, ['owner', 'designer'], reviewer.id), 'verdict', {
 		author: reviewer.name,
@@ -280,7 +285,7 @@ export async function releaseProof(db: Db, proof: Proof, by: { id: string; name:
 	if (proof.withdrawnAt) throw new ProofError(409, 'A withdrawn release cannot be released again; cut a new proof.');
 	if (proof.releasedAt) throw new ProofError(409, 'This proof is released already.');
 	const [row] = await db.update(proofs).set({ releasedAt: new Date(), releasedBy: by.id }).where(eq(proofs.id, proof.id)).returning();
-	const [g] = await db.select().from(games).where(eq(games.id, proof.gameId));
+	const g = await gameRow(db, proof.gameId);
 	await logActivity(db, { teamId: g.teamId, gameId: proof.gameId, userId: by.id, action: 'proof.released', detail: { proof: proof.number } });
 	await tell(db, proof.gameId, await audience(db, proof.gameId, ['printer'], by.id), 'release', {
 		author: by.name,
@@ -300,7 +305,7 @@ export async function withdrawProof(db: Db, proof: Proof, by: { id: string; name
 		.set({ withdrawnAt: new Date(), withdrawnBy: by.id, withdrawNote: note })
 		.where(eq(proofs.id, proof.id))
 		.returning();
-	const [g] = await db.select().from(games).where(eq(games.id, proof.gameId));
+	const g = await gameRow(db, proof.gameId);
 	await logActivity(db, { teamId: g.teamId, gameId: proof.gameId, userId: by.id, action: 'proof.withdrawn', detail: { proof: proof.number, note } });
 	await tell(db, proof.gameId, await audience(db, proof.gameId, ['printer'], by.id), 'withdrawal', {
 		author: by.name,

@@ -2,7 +2,7 @@
  * Slowing down password guessing: failed sign-ins are counted per account and per address over
  * a window; past the limit further attempts are refused (429) until the window moves on.
  */
-import { and, eq, gt, lt, count, or } from 'drizzle-orm';
+import { and, eq, gt, lt, count } from 'drizzle-orm';
 import type { Db } from '../db';
 import { signInFailures } from '../db/schema';
 
@@ -34,8 +34,4 @@ export async function recordFailure(db: Db, email: string, ip: string): Promise<
 	await db
 		.delete(signInFailures)
 		.where(lt(signInFailures.createdAt, new Date(Date.now() - WINDOW_MS)));
-}
-
-export async function clearFailures(db: Db, email: string): Promise<void> {
-	await db.delete(signInFailures).where(or(eq(signInFailures.key, accountKey(email))));
 }
