@@ -1,5 +1,5 @@
 import type { ParamMatcher } from '@sveltejs/kit';
+import { isUuid } from '$lib/schemas/ids';
 
 /** Ids are UUIDs; anything else is not a route. */
-export const match: ParamMatcher = (param) =>
-	/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(param);
+export const match: ParamMatcher = isUuid;

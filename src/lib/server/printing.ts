@@ -20,6 +20,7 @@ import { parsePrintOptions, PrintOptionsError, renderGameFaces, toSheetOptions, 
 import { planSheets } from '$lib/print/sheets';
 import { sheetPreviewSvg } from '$lib/print/preview';
 import { profileQuery } from '$lib/schemas/printing';
+import { isUuid } from '$lib/schemas/ids';
 
 export interface PrintSource {
 	game: Game;
@@ -72,7 +73,7 @@ export async function printOptions(db: Db, source: PrintSource, query: URLSearch
 	delete raw.profile;
 	let values = raw;
 	if (profileId) {
-		if (!/^[0-9a-f-]{36}$/i.test(profileId)) throw new ApiError(404, 'No such printer profile in this team');
+		if (!isUuid(profileId)) throw new ApiError(404, 'No such printer profile in this team');
 		const profile = await findProfile(db, source.teamId, profileId);
 		// The profile's settings; a query may still choose sets and kinds.
 		values = { ...profileQuery(profile), ...(raw.sets ? { sets: raw.sets } : {}), ...(raw.kinds ? { kinds: raw.kinds } : {}) };

@@ -6,8 +6,8 @@ import { requireGameRole, may, type Permission } from './guard';
 import { ApiError } from './api';
 import { findProof, ProofError } from './proofs';
 import type { Db } from './db';
+import { isUuid } from '$lib/schemas/ids';
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 export async function requireProof(
 	db: Db,
@@ -19,7 +19,7 @@ export async function requireProof(
 	const { user, role, game } = await requireGameRole(db, locals, gameId, 'release.read');
 	const releasedOnly = !may(role, 'game.read');
 	const byNumber = /^\d{1,6}$/.test(key);
-	if (!byNumber && !UUID.test(key)) throw new ApiError(404, 'No such proof');
+	if (!byNumber && !isUuid(key)) throw new ApiError(404, 'No such proof');
 	const proof = await findProof(db, gameId, byNumber ? { number: Number(key) } : { id: key }, releasedOnly);
 	if (!may(role, permission)) throw new ApiError(403, `A ${role} may not do this`);
 	return { user, role, game, proof };

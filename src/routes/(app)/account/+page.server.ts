@@ -5,6 +5,7 @@ import { tokenSchema } from '$lib/schemas/account';
 import { requireUser } from '$lib/server/guard';
 import { createApiToken, revokeApiToken, tokensOf } from '$lib/server/api-tokens';
 import { db } from '$lib/server/runtime';
+import { isUuid } from '$lib/schemas/ids';
 
 export const load = async ({ locals }) => {
 	const user = requireUser(locals);
@@ -25,7 +26,7 @@ export const actions = {
 	revokeToken: async ({ request, locals }) => {
 		const user = requireUser(locals);
 		const id = String((await request.formData()).get('id') ?? '');
-		if (!/^[0-9a-f-]{36}$/i.test(id) || !(await revokeApiToken(await db(), user.id, id))) {
+		if (!isUuid(id) || !(await revokeApiToken(await db(), user.id, id))) {
 			return fail(404, { revokeError: 'No such token' });
 		}
 		return { revoked: true };

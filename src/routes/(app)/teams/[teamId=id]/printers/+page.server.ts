@@ -6,6 +6,7 @@ import { profilesOf, saveProfile, deleteProfile, ProfileError } from '$lib/serve
 import { findTeam } from '$lib/server/teams';
 import { PrinterProfileSchema, DEFAULT_PROFILE } from '$lib/schemas/printing';
 import { db } from '$lib/server/runtime';
+import { isUuid } from '$lib/schemas/ids';
 
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
@@ -40,7 +41,7 @@ export const actions = {
 		const d = await db();
 		const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
 		const id = String((await request.formData()).get('id') ?? '');
-		if (!/^[0-9a-f-]{36}$/i.test(id)) return fail(404, { deleteError: 'No such printer profile' });
+		if (!isUuid(id)) return fail(404, { deleteError: 'No such printer profile' });
 		try {
 			await deleteProfile(d, params.teamId, id, user.id);
 		} catch (e) {
