@@ -18,6 +18,8 @@ import {
 	RunnerSchema,
 	findReferenceProblems,
 	validateMoneyTable,
+	CARD_SIZES,
+	cardSize,
 	type Game
 } from '$lib/game/model';
 import { logActivity } from './activity';
@@ -102,16 +104,9 @@ export async function loadGame(db: Conn, gameId: string): Promise<Game> {
 	return doc;
 }
 
+/** The game's default card size from its preset name (poker when the name is unknown). */
 function defaultSizeOf(preset: string): Game['defaultSize'] {
-	const sizes: Record<string, [number, number]> = {
-		poker: [63.5, 88.9],
-		bridge: [57.15, 88.9],
-		mini: [44, 68],
-		tarot: [70, 120],
-		square: [70, 70]
-	};
-	const [widthMm, heightMm] = sizes[preset] ?? sizes.poker;
-	return { preset: (preset in sizes ? preset : 'poker') as 'poker', widthMm, heightMm };
+	return preset in CARD_SIZES ? cardSize(preset as keyof typeof CARD_SIZES) : cardSize('poker');
 }
 
 /** Problems that would break the game: broken references, money tables missing a place. */
