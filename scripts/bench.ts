@@ -18,7 +18,7 @@ import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
-import { demoGameWithArt } from '../src/lib/game/demo-art';
+import { demoGameWithArt } from '../src/lib/demo/demo-art';
 import type { BetType, Card, Game } from '../src/lib/game/model';
 import { PrintCache } from '../src/lib/print/cache';
 import { forgetSharedFonts } from '../src/lib/print/pdf-fontkit';

@@ -11,7 +11,7 @@
 import { readFileSync, writeFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { BundleError, readBundle } from '../src/lib/game/bundle';
-import { demoGameWithArt } from '../src/lib/game/demo-art';
+import { demoGameWithArt } from '../src/lib/demo/demo-art';
 import type { Game } from '../src/lib/game/model';
 import { buildCalibrationPdf } from '../src/lib/print/calibration';
 import {

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openWorld, type World } from './harness';
 import { loadGame, applyChanges, StoreError } from '$lib/server/game-store';
 import { exportBundle, importBundle } from '$lib/server/game-io';
-import { demoGame } from '$lib/game/demo';
+import { demoGame } from '$lib/demo/demo';
 import { BundleError } from '$lib/game/bundle';
 import { games } from '$lib/server/db/schema';
 import { zipSync, strToU8 } from 'fflate';

@@ -9,7 +9,7 @@ import Papa from 'papaparse';
 import { isActionFailure } from '@sveltejs/kit';
 import { openWorld, fakeEvent, type World } from './harness';
 import { applyChanges, loadGame } from '$lib/server/game-store';
-import { newKind } from '$lib/components/kinds/kind-defaults';
+import { newKind } from '$lib/game/kind-defaults';
 import { cardSize, type CardKind } from '$lib/game/model';
 import { importBasis } from '../../src/routes/(app)/games/[gameId=id]/kinds/[kindId]/csv/import-plan';
 import * as csvPage from '../../src/routes/(app)/games/[gameId=id]/kinds/[kindId]/csv/+page.server';

@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { strToU8, zipSync } from 'fflate';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { BundleError, MAX_BUNDLE_UNCOMPRESSED_BYTES, readBundle, sha256Hex, writeBundle } from './bundle';
-import { demoGame } from './demo';
+import { demoGame } from '$lib/demo/demo';
 import type { ArtAsset, Game } from './model';
 
 /** Two tiny art files (not real images: the bundle only carries bytes). */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { compareGames } from './compare';
-import { demoGame } from './demo';
+import { demoGame } from '$lib/demo/demo';
 
 describe('comparing two snapshots', () => {
 	it('finds nothing between a game and itself', () => {

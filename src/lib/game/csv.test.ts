@@ -1,7 +1,7 @@
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { csvColumns, diffCards, exportCardsCsv, importCardsCsv } from './csv';
-import { demoGame } from './demo';
+import { demoGame } from '$lib/demo/demo';
 import type { Card, CardKind } from './model';
 
 const game = demoGame();

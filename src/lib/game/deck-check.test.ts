@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { cardCount, checkDeal, checkDeck, deckSupply, kindTotals, type DeckSupply } from './deck-check';
-import { demoGame } from './demo';
+import { demoGame } from '$lib/demo/demo';
 import type { SetupData } from './model';
 
 const supply = (deckCards: number, tiles = 16): DeckSupply => ({

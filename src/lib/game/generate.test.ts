@@ -8,7 +8,7 @@ import {
 	replaceKindCards
 } from './generate';
 import { CardSchema, type CardKind, type MoneyTable, type Runner } from './model';
-import { DEMO_KINDS, DEMO_ROGUE } from './demo';
+import { DEMO_KINDS, DEMO_ROGUE } from '$lib/demo/demo';
 
 const kindOf = (type: CardKind['type']) => DEMO_KINDS.find((k) => k.type === type)!;
 const runner = (id: string, name: string, sortOrder: number): Runner => ({

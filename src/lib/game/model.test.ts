@@ -16,7 +16,7 @@ import {
 	validateMoneyTable,
 	type MoneyTable
 } from './model';
-import { demoGame } from './demo';
+import { demoGame } from '$lib/demo/demo';
 
 describe('card sizes', () => {
 	// Common practice among card printers, no formal standard. The inch is 25.4 mm exactly

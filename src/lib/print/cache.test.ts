@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { demoGameWithArt } from '../game/demo-art';
+import { demoGameWithArt } from '../demo/demo-art';
 import type { Game } from '../game/model';
 import { faceScope, PrintCache, canonicalJson } from './cache';
 import { loadFonts, type FontSet } from './fonts';

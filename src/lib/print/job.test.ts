@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { unzipSync, strFromU8 } from 'fflate';
 import { imageSize } from 'image-size';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { demoGameWithArt } from '../game/demo-art';
+import { demoGameWithArt } from '../demo/demo-art';
 import { cardSize, type Game } from '../game/model';
 import { PrintCache } from './cache';
 import type { TextItem } from './display-list';

@@ -1,5 +1,5 @@
 import { beforeAll, afterAll, describe, expect, it } from 'vitest';
-import { demoGameWithArt } from '../game/demo-art';
+import { demoGameWithArt } from '../demo/demo-art';
 import type { Game } from '../game/model';
 import { PrintOptionsError, type GamePdfOptions } from './job';
 import { PrintBusyError, PrintPool } from './pool';

@@ -8,7 +8,7 @@ import { users, memberships, type Role } from './db/schema';
 import { createUser } from './users';
 import { createTeam } from './teams';
 import { createGameFrom } from './game-io';
-import { demoGameWithArt } from '$lib/game/demo-art';
+import { demoGameWithArt } from '$lib/demo/demo-art';
 import { saveProfile } from './printer-profiles';
 import { cutProof, releaseProof } from './proofs';
 import { DEFAULT_PROFILE } from '$lib/schemas/printing';

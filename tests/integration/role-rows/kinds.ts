@@ -4,7 +4,7 @@ import type { Row } from '../role-table';
 import { as, g, game, readers, designers, editors } from '../role-table';
 import { statusOf, superformJson, type World } from '../harness';
 import { applyChanges } from '$lib/server/game-store';
-import { newKind } from '$lib/components/kinds/kind-defaults';
+import { newKind } from '$lib/game/kind-defaults';
 import { cardSize, type Card, type CardKindType } from '$lib/game/model';
 import { importBasis } from '../../../src/routes/(app)/games/[gameId=id]/kinds/[kindId]/csv/import-plan';
 import * as kindsPage from '../../../src/routes/(app)/games/[gameId=id]/kinds/+page.server';

@@ -3,7 +3,7 @@
  * frame, corner radius, which fields show and where the boxes sit (as fractions of the safe
  * area, so one layout serves every card size). A kind's `params` override these defaults.
  */
-import type { CardKindType } from '../../game/model';
+import type { CardKind, CardKindType } from '../../game/model';
 import back from '../../../../templates/cards/back.json' with { type: 'json' };
 import custom from '../../../../templates/cards/custom.json' with { type: 'json' };
 import modifier from '../../../../templates/cards/modifier.json' with { type: 'json' };
@@ -122,4 +122,20 @@ export function mergeParams<T extends Record<string, unknown>>(
 				: value;
 	}
 	return out as T;
+}
+
+/** Layouts that can draw the front of a card of this type, the usual one first. */
+export function frontTemplates(type: CardKindType): CardTemplate[] {
+	const usual = DEFAULT_FRONT_TEMPLATE;
+	return [...TEMPLATES.values()]
+		.filter((t) => MODULE_DATA[t.face] === type)
+		.sort((a, b) => Number(b.id === usual[type]) - Number(a.id === usual[type]));
+}
+
+/** Layouts for a back: the shared back draws no card data; a per-card back draws the card's own. */
+export function backTemplates(type: CardKindType, mode: CardKind['back']['mode']): CardTemplate[] {
+	if (mode === 'shared') return [...TEMPLATES.values()].filter((t) => MODULE_DATA[t.face] === undefined);
+	return [...TEMPLATES.values()]
+		.filter((t) => MODULE_DATA[t.face] === type)
+		.sort((a, b) => Number(b.face === 'tile-back') - Number(a.face === 'tile-back'));
 }

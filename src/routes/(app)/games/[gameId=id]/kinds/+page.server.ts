@@ -6,7 +6,8 @@ import { applyChanges, loadGame, StoreError } from '$lib/server/game-store';
 import { db } from '$lib/server/runtime';
 import { cardCount } from '$lib/game/deck-check';
 import { bleedMm, newId } from '$lib/game/model';
-import { NewKindSchema, newKind, type NewKind } from '$lib/components/kinds/kind-defaults';
+import { newKind } from '$lib/game/kind-defaults';
+import { NewKindSchema, type NewKind } from '$lib/schemas/kinds';
 
 /** The game's card kinds with their sizes and card counts, and the new-kind form. */
 export const load = async ({ locals, params }) => {

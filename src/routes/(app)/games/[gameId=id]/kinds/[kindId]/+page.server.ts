@@ -7,14 +7,14 @@ import { saveObjectAction, deleteObjectAction } from '$lib/server/object-actions
 import { db } from '$lib/server/runtime';
 import { cardCount } from '$lib/game/deck-check';
 import { CardKindSchema, CardSchema, type Card, type Game } from '$lib/game/model';
-import { blankCard } from '$lib/components/kinds/kind-defaults';
+import { blankCard } from '$lib/game/kind-defaults';
 import {
 	currentRun,
 	isGenerated,
 	planRun,
 	runCards,
 	RUN_SCHEMAS
-} from '$lib/components/kinds/generator';
+} from '$lib/game/generator';
 
 const VIEWS = ['cards', 'settings', 'generate'] as const;
 type View = (typeof VIEWS)[number];

@@ -5,8 +5,8 @@
  */
 import { diffCards, importCardsCsv, type CsvError } from '$lib/game/csv';
 import { newId, type Card, type CardKind, type Game, type Id } from '$lib/game/model';
-import { cardSummary, type RowContext } from '$lib/components/kinds/card-rows';
-import type { CardWrite } from '$lib/components/kinds/generator';
+import { cardSummary, type RowContext } from '$lib/game/card-rows';
+import type { CardWrite } from '$lib/game/generator';
 
 export interface PlannedCard {
 	name: string;

@@ -5,8 +5,8 @@
  * stay editable one by one.
  */
 import { z } from 'zod';
-import { BET_TYPES, IdSchema, type BetType, type Card, type CardKind, type Game, type Id } from '$lib/game/model';
-import { generateMovementCards, generateRogueCards, generateTiles, generateWagerCards } from '$lib/game/generate';
+import { BET_TYPES, IdSchema, type BetType, type Card, type CardKind, type Game, type Id } from './model';
+import { generateMovementCards, generateRogueCards, generateTiles, generateWagerCards } from './generate';
 
 const copies = z.int().min(0).max(999);
 const steps = z

@@ -1,11 +1,11 @@
 import { imageSize } from 'image-size';
 import { describe, expect, it } from 'vitest';
-import { checkArtResolution } from './art-check';
-import { readBundle, writeBundle } from './bundle';
-import { checkDeck } from './deck-check';
+import { checkArtResolution } from '../game/art-check';
+import { readBundle, writeBundle } from '../game/bundle';
+import { checkDeck } from '../game/deck-check';
 import { demoGame } from './demo';
 import { demoGameWithArt, initResvg, renderDemoArt } from './demo-art';
-import { findReferenceProblems, GameSchema, RUNNERS_MAX, RUNNERS_MIN, validateMoneyTable } from './model';
+import { findReferenceProblems, GameSchema, RUNNERS_MAX, RUNNERS_MIN, validateMoneyTable } from '../game/model';
 
 describe('demo game', () => {
 	const game = demoGame();

@@ -1,10 +1,9 @@
 /**
  * What a new card kind and a new card start with. Plain data in, plain data out: the kinds
- * pages, their actions and the tests all build new objects here.
+ * pages, their actions and the tests all build new objects here. The new-kind form's schema,
+ * which also checks the chosen layout, is in $lib/schemas/kinds.
  */
-import { z } from 'zod';
 import {
-	CardKindSchema,
 	newId,
 	type Card,
 	type CardData,
@@ -12,33 +11,10 @@ import {
 	type CardKindType,
 	type Game,
 	type Id
-} from '$lib/game/model';
-import { DEFAULT_FRONT_TEMPLATE, MODULE_DATA, TEMPLATES, type CardTemplate } from '$lib/print/layout/templates';
+} from './model';
 
-/** Layouts that can draw the front of a card of this type, the usual one first. */
-export function frontTemplates(type: CardKindType): CardTemplate[] {
-	const usual = DEFAULT_FRONT_TEMPLATE;
-	return [...TEMPLATES.values()]
-		.filter((t) => MODULE_DATA[t.face] === type)
-		.sort((a, b) => Number(b.id === usual[type]) - Number(a.id === usual[type]));
-}
-
-/** Layouts for a back: the shared back draws no card data; a per-card back draws the card's own. */
-export function backTemplates(type: CardKindType, mode: CardKind['back']['mode']): CardTemplate[] {
-	if (mode === 'shared') return [...TEMPLATES.values()].filter((t) => MODULE_DATA[t.face] === undefined);
-	return [...TEMPLATES.values()]
-		.filter((t) => MODULE_DATA[t.face] === type)
-		.sort((a, b) => Number(b.face === 'tile-back') - Number(a.face === 'tile-back'));
-}
-
-/** The new-kind form: the settings a designer picks first; the rest starts from the layouts. */
-export const NewKindSchema = CardKindSchema.pick({ name: true, type: true, size: true, bleed: true, template: true }).superRefine(
-	(k, ctx) => {
-		if (!frontTemplates(k.type).some((t) => t.id === k.template))
-			ctx.addIssue({ code: 'custom', path: ['template'], message: `That layout does not draw ${k.type} cards` });
-	}
-);
-export type NewKind = z.infer<typeof NewKindSchema>;
+/** The settings the new-kind form asks for (validated by NewKindSchema in $lib/schemas/kinds). */
+export type NewKindInput = Pick<CardKind, 'name' | 'type' | 'size' | 'bleed' | 'template'>;
 
 /** Art slots per type, as the demo game uses them: a picture on the front, one on the shared back. */
 const ART_SLOTS: Record<CardKindType, string[]> = {
@@ -56,7 +32,7 @@ const ART_SLOTS: Record<CardKindType, string[]> = {
  * colours, type sizes and frame apply until the designer changes them. Track tiles are
  * double-sided, so their back is drawn per card; every other kind shares one back.
  */
-export function newKind(input: NewKind, id: Id = newId()): CardKind {
+export function newKind(input: NewKindInput, id: Id = newId()): CardKind {
 	const back: CardKind['back'] =
 		input.type === 'tile'
 			? { mode: 'per-card', template: 'tile-back', params: {} }

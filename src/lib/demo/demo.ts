@@ -7,7 +7,7 @@
  * card for 2 to 8 players whose deal fits the deck, hazard tokens, a player aid and card backs.
  * `demoGame()` has no art; `demoGameWithArt()` in ./demo-art adds the rendered illustrations.
  */
-import { generateMovementCards, generateRogueCards, generateTiles, generateWagerCards } from './generate';
+import { generateMovementCards, generateRogueCards, generateTiles, generateWagerCards } from '../game/generate';
 import {
 	cardSize,
 	GAME_FORMAT_VERSION,
@@ -18,7 +18,7 @@ import {
 	type RogueRunner,
 	type Runner,
 	type SetupData
-} from './model';
+} from '../game/model';
 
 export const DEMO_RUNNERS: Runner[] = [
 	{ id: 'rn-rosehip', name: 'Rosehip', colourHex: '#c8363d', cmyk: { c: 0, m: 85, y: 75, k: 15 }, symbol: 'dot', sortOrder: 1 },

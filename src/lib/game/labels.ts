@@ -1,5 +1,5 @@
 /** The words the card-kind pages show for the model's values. */
-import { MM_PER_INCH, type BetType, type BleedStandard, type CardKindType, type TileRole } from '$lib/game/model';
+import { MM_PER_INCH, type BetType, type BleedStandard, type CardKindType, type TileRole } from './model';
 
 export const KIND_TYPE_LABEL: Record<CardKindType, string> = {
 	movement: 'Movement',

@@ -3,7 +3,7 @@
  * money tables by name), sorting by a column and a text filter. Plain data in and out, so the
  * browser table and the server's import preview read the cards the same way.
  */
-import { type Card, type CardKind, type MoneyTable, type RogueRunner, type Runner } from '$lib/game/model';
+import { type Card, type CardKind, type MoneyTable, type RogueRunner, type Runner } from './model';
 import { BET_LABEL, TILE_ROLE_LABEL } from './labels';
 
 export interface Column {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { demoGame } from '$lib/game/demo';
+import { demoGame } from '$lib/demo/demo';
 import { cardColumns, cardRow, filterRows, sortRows } from './card-rows';
 
 const game = demoGame();

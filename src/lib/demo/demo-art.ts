@@ -7,10 +7,10 @@
  * pieces left deliberately coarse (Pebble's portrait, the hazard back) so the art warning shows.
  */
 import { Resvg } from '@resvg/resvg-wasm';
-import { faceWithBleedMm, pxForPrint, type SlotMm } from './art-check';
-import { sha256Hex } from './bundle';
+import { faceWithBleedMm, pxForPrint, type SlotMm } from '../game/art-check';
+import { sha256Hex } from '../game/bundle';
 import { DEMO_KINDS, DEMO_ROGUE, DEMO_RUNNERS, demoGame } from './demo';
-import type { ArtAsset, ArtAssignment, ArtStatus, CardKind, Game, RunnerSymbol } from './model';
+import type { ArtAsset, ArtAssignment, ArtStatus, CardKind, Game, RunnerSymbol } from '../game/model';
 import { symbolPath } from '../print/symbols';
 import { resvgReady } from '../print/png';
 
