@@ -136,8 +136,8 @@ describe('setup, modifier, custom', () => {
 		const f = face(testGame(), 'md-puddle');
 		const words = texts(f).map((t) => t.text);
 		expect(words).toContain('Puddle');
-		expect(words).toContain('\u22121');
-		expect(words.join(' ')).toContain('slides one space back');
+		expect(words).toContain('\u22123');
+		expect(words.join(' ')).toContain('slips three spaces back');
 	});
 
 	it('the custom card prints its title and every field with its label', () => {

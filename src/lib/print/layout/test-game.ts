@@ -72,14 +72,14 @@ export function testGame(): Game {
 			kindId: 'k-mod',
 			name: 'Puddle',
 			copies: 2,
-			data: { type: 'modifier', name: 'Puddle', effectText: 'A runner that lands here slides one space back, carrying its stack.', steps: -1 }
+			data: { type: 'modifier', name: 'Puddle', effectText: 'A runner that stops here slips three spaces back, under whoever waits there.', steps: -3 }
 		},
 		{
 			id: 'md-leaf',
 			kindId: 'k-mod',
 			name: 'Leaf ramp',
 			copies: 2,
-			data: { type: 'modifier', name: 'Leaf ramp', effectText: 'Lands here? Move on two spaces. The owner of the token takes one coin.', steps: 2 }
+			data: { type: 'modifier', name: 'Leaf ramp', effectText: 'Stops here? Glide on two spaces, then the ramp is lifted off the track.', steps: 2 }
 		},
 		{
 			id: 'aid-1',
@@ -120,9 +120,9 @@ export function testGame(): Game {
 				sortOrder: 5
 			}
 		],
-		rogueRunner: { id: 'r-gravel', name: 'Gravel', colourHex: '#3b3b3f', cmyk: cmyk(0, 0, 0, 85), symbol: 'bars' },
+		rogueRunner: { id: 'r-gravel', name: 'Gravel', colourHex: '#8a5a3c', cmyk: cmyk(20, 60, 75, 25), symbol: 'bars' },
 		moneyTables: [
-			{ id: 'mt-stage-1', name: 'Stage, first taker', rows: [{ place: 1, coins: 5 }, { place: 2, coins: 1 }], otherCoins: -1 },
+			{ id: 'mt-stage-1', name: 'Stage, first taker', rows: [{ place: 1, coins: 4 }, { place: 2, coins: 2 }, { place: 3, coins: 1 }], otherCoins: -3 },
 			{
 				id: 'mt-winner-2',
 				name: 'Race winner, second taker',

@@ -58,13 +58,13 @@ describe('wager face', () => {
 		const items = texts(face.items);
 		const table = game.moneyTables.find((t) => t.id === 'mt-stage-1')!;
 		const lines = moneyLines(table, 'any other');
-		expect(lines.map((l) => l.label)).toEqual(['1st', '2nd', 'any other']);
+		expect(lines.map((l) => l.label)).toEqual(['1st', '2nd', '3rd', 'any other']);
 		for (const line of lines) {
 			const label = items.find((t) => t.text === line.label)!;
 			expect(label).toBeDefined();
 			expect(items.some((t) => t.yMm === label.yMm && t.text === formatCoins(line.coins))).toBe(true);
 		}
-		expect(items.some((t) => t.text === '\u22121')).toBe(true);
+		expect(items.some((t) => t.text === '\u22123')).toBe(true);
 	});
 
 	it('shows the bet, the runner and the tier', () => {
