@@ -14,8 +14,9 @@ import * as proofPages from './role-rows/proof-pages';
 import * as printRows from './role-rows/printing';
 import * as artRows from './role-rows/art';
 import * as kindRows from './role-rows/kinds';
+import * as dailyRows from './role-rows/daily';
 
-const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...proofPages.rows, ...printRows.rows, ...printRows.pageRows, ...artRows.rows, ...kindRows.rows, ...foundation.lastRows];
+const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...proofPages.rows, ...printRows.rows, ...printRows.pageRows, ...artRows.rows, ...kindRows.rows, ...dailyRows.rows, ...foundation.lastRows];
 
 let world: World;
 beforeAll(async () => {

@@ -12,6 +12,7 @@ export const GET: RequestHandler = api(async ({ locals, params, url }) => {
 	query.delete('proof');
 	const source = await printSource(d, locals, params.gameId, proof);
 	const options = await printOptions(d, source, query);
-	// Art is linked to the game's art route, which printers cannot use: their preview shows no art.
-	return json(await previewFirstSheet(source, options, (sha) => `/api/v1/games/${params.gameId}/art-files/${sha}`));
+	// A proof's art is served through the proof, which its printers may read; never through the working game.
+	const base = `/api/v1/games/${params.gameId}${proof ? `/proofs/${source.proofNumber}` : ''}`;
+	return json(await previewFirstSheet(source, options, (sha) => `${base}/art-files/${sha}`));
 });

@@ -1,0 +1,51 @@
+/**
+ * GET …/art-files/{sha256}: one art file (or its thumbnail with ?thumb=1). The working game's route
+ * serves any version the game has had; a proof's route serves only the art its snapshot froze, so
+ * a printer (who may read released proofs) sees the art the proof prints.
+ */
+import { eq } from 'drizzle-orm';
+import { ApiError } from './api';
+import { requireGameRole } from './guard';
+import { requireProof } from './proof-access';
+import { snapshotOf } from './proofs';
+import { artHistory } from './game-io';
+import { readArtFile, readArtThumbnail } from './art-files';
+import { artFiles } from './db/schema';
+import type { Db } from './db';
+import { db } from './runtime';
+
+async function artFileResponse(d: Db, sha: string, thumb: boolean) {
+	const [file] = await d.select().from(artFiles).where(eq(artFiles.sha256, sha));
+	if (!file) throw new ApiError(404, 'No such art file');
+	const { bytes, mime } = thumb ? await readArtThumbnail(sha) : { bytes: await readArtFile(sha), mime: undefined };
+	return new Response(Buffer.from(bytes), {
+		headers: {
+			'content-type': mime ?? file.mime,
+			// Content-addressed: the bytes behind this URL never change.
+			'cache-control': 'private, max-age=31536000, immutable',
+			'x-content-type-options': 'nosniff',
+			...(file.mime === 'image/svg+xml' ? { 'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'" } : {})
+		}
+	});
+}
+
+interface ArtEvent {
+	locals: App.Locals;
+	params: { gameId: string; sha256: string; proofId?: string };
+	url: URL;
+}
+
+export async function gameArtFile({ locals, params, url }: ArtEvent) {
+	const d = await db();
+	await requireGameRole(d, locals, params.gameId, 'game.read');
+	const used = (await artHistory(d, params.gameId)).some((v) => v.sha256 === params.sha256);
+	if (!used) throw new ApiError(404, 'No such art file in this game');
+	return artFileResponse(d, params.sha256, url.searchParams.get('thumb') === '1');
+}
+
+export async function proofArtFile({ locals, params, url }: ArtEvent) {
+	const d = await db();
+	const { proof } = await requireProof(d, locals, params.gameId, params.proofId!);
+	if (!snapshotOf(proof).art.some((a) => a.sha256 === params.sha256)) throw new ApiError(404, 'No such art file in this proof');
+	return artFileResponse(d, params.sha256, url.searchParams.get('thumb') === '1');
+}
