@@ -4,6 +4,7 @@ import { faceHeightMm, faceWidthMm, type DisplayItem, type FaceLayout, type Imag
 import { loadFonts, type FontSet } from '../fonts';
 import { pathBounds } from '../symbols';
 import { layoutFace, type LayoutFaceInput } from './index';
+import { START_LINE_MM } from './tile';
 import { testGame } from './test-game';
 
 let fonts: FontSet;
@@ -166,6 +167,17 @@ describe('track tiles', () => {
 		const game = testGame();
 		expect(texts(face(game, 'tl-1')).map((t) => t.text)).toContain('Start');
 		expect(texts(face(game, 'tl-9')).map((t) => t.text)).toContain('Finish');
+	});
+
+	it('draws the start line as one solid ink bar, with no light outline to read as a white sliver', () => {
+		const game = testGame();
+		const f = face(game, 'tl-1');
+		const cell = f.items.find((i) => i.type === 'rect' && i.fill?.hex === '#f7f3ea' && i.stroke)!;
+		if (cell.type !== 'rect') throw new Error('no cell');
+		// The bar runs the full height of the cells, left of the first one.
+		const bar = f.items.find((i) => i.type === 'rect' && i.xMm < cell.xMm && Math.abs(i.hMm - cell.hMm) < 1 && i.wMm < 5);
+		expect(bar).toMatchObject({ type: 'rect', wMm: START_LINE_MM });
+		expect(bar && 'stroke' in bar ? bar.stroke : undefined).toBeUndefined();
 	});
 });
 

@@ -32,7 +32,12 @@ export interface TileParams extends Record<string, unknown> {
 	cellsBox: FracBox;
 }
 
-const START_LINE_MM = 1.6;
+/**
+ * The start line is one solid ink bar. It used to be a 1.6 mm bar outlined in the light cell colour,
+ * which left a 0.8 mm dark core between two light hairlines: at screen sizes it read as a white
+ * sliver at the tile's left edge. Solid and wider, it reads as a line.
+ */
+export const START_LINE_MM = 2.5;
 const CHEQUER_COLUMNS = 2;
 
 function drawHeader(b: FaceBuilder, p: TileParams, number: number, label: string) {
@@ -120,11 +125,7 @@ function drawCells(b: FaceBuilder, p: TileParams, area: Box, spaces: number, rol
 		const bar: Box = horizontal
 			? { xMm: box.xMm, yMm: box.yMm, wMm: START_LINE_MM, hMm: box.hMm }
 			: { xMm: box.xMm, yMm: box.yMm + box.hMm - START_LINE_MM, wMm: box.wMm, hMm: START_LINE_MM };
-		const s = 0.4;
-		b.add(
-			{ type: 'rect', xMm: bar.xMm + s / 2, yMm: bar.yMm + s / 2, wMm: bar.wMm - s, hMm: bar.hMm - s, fill: hex(p.inkHex), stroke: hex(p.cellHex), strokeMm: s },
-			'start line'
-		);
+		b.add({ type: 'rect', ...bar, radiusMm: Math.min(p.cellRadiusMm, START_LINE_MM / 2), fill: hex(p.inkHex) }, 'start line');
 		box = horizontal
 			? { ...box, xMm: box.xMm + START_LINE_MM + p.cellGapMm, wMm: box.wMm - START_LINE_MM - p.cellGapMm }
 			: { ...box, hMm: box.hMm - START_LINE_MM - p.cellGapMm };
