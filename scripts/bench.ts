@@ -27,7 +27,7 @@ import { loadFonts } from '../src/lib/print/fonts';
 import { buildGamePdf, cachedFacePng, renderGameFaces, type GamePdfOptions } from '../src/lib/print/job';
 import { paperSize } from '../src/lib/print/paper';
 import { PrintPool } from '../src/lib/print/pool';
-import { planSheets, type SheetOptions } from '../src/lib/print/sheets';
+import { planSheets, type SheetOptions } from '../src/lib/print/sheet-plan';
 import { CHROMIUM, CHROMIUM_ARGS } from '../tests/e2e/env';
 
 const { values: flags } = parseArgs({

@@ -14,14 +14,8 @@ import { BundleError, readBundle } from '../src/lib/game/bundle';
 import { demoGameWithArt } from '../src/lib/demo/demo-art';
 import type { Game } from '../src/lib/game/model';
 import { buildCalibrationPdf } from '../src/lib/print/calibration';
-import {
-	buildCardPressPdf,
-	buildCardsPngZip,
-	buildGamePdf,
-	parsePrintOptions,
-	PNG_DPI_DEFAULT,
-	PrintOptionsError
-} from '../src/lib/print/job';
+import { buildCardPressPdf, buildCardsPngZip, buildGamePdf, PNG_DPI_DEFAULT } from '../src/lib/print/job';
+import { parsePrintOptions, PrintOptionsError } from '../src/lib/print/options';
 
 const USAGE = `Usage: npm run print -- (--demo | --bundle game.zip) [options] --out file.pdf
        npm run print -- (--demo | --bundle game.zip) --press CARD_ID [--crop-marks] [--colour cmyk|rgb] --out card.pdf

@@ -6,7 +6,7 @@
 import { type PDFDocument, type PDFFont, type PDFPage } from 'pdf-lib';
 import { mmToPt, paperSize, PT_PER_MM } from './paper';
 import type { PdfFaceWriter } from './pdf';
-import type { SheetOptions, SheetPlan } from './sheets';
+import type { SheetOptions, SheetPlan } from './sheet-plan';
 
 export const SAFETY_NOTE =
 	'Blades are sharp. Craft knives, rotary cutters and guillotines: cut away from yourself, keep your fingers ' +

@@ -14,12 +14,10 @@ import {
 	buildCardsPngZip,
 	buildGamePdf,
 	loadGameImages,
-	parsePrintOptions,
-	PrintOptionsError,
-	PrintOptionsSchema,
 	renderGameFaces,
 	type GamePdfOptions
 } from './job';
+import { parsePrintOptions, PrintOptionsError, PrintOptionsSchema } from './options';
 import { pdfinfoBoxes, pdftotext, qpdfCheck, qpdfJson, rasterGrey } from './testing/poppler';
 
 let demo: { game: Game; art: Map<string, Uint8Array> };

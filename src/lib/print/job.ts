@@ -1,7 +1,7 @@
 /**
  * Print jobs: a whole game (data + art bytes) → the files a designer, playtester or print shop
  * downloads. The HTTP routes, the CLI (scripts/print.ts) and the worker pool (./pool.ts) all call
- * these functions, and all parse their options with the same schema.
+ * these functions, and all parse their options with the same schema (./options.ts).
  *
  * - `renderGameFaces`: every card's front and back laid out (./layout), cached by content.
  * - `buildGamePdf`: the imposed sheet PDF (./sheets.ts), with options checked first.
@@ -14,166 +14,25 @@
 import { strToU8, zipSync, type Zippable } from 'fflate';
 import { imageSize } from 'image-size';
 import Papa from 'papaparse';
-import { z } from 'zod';
 import { effectiveDpi, faceWithBleedMm, MIN_PRINT_DPI } from '../game/art-check';
 import type { ArtAsset, Card, CardKind, Game } from '../game/model';
 import { faceBytes, faceKey, printCache, type PrintCache } from './cache';
 import { PRINT_SHOP_NOTE } from './cutting-guide';
 import { faceHeightMm, faceWidthMm, type FaceLayout, type ImageAsset } from './display-list';
-import type { DuplexMode } from './duplex';
 import { loadFonts } from './fonts';
-import { impose, type ImposeLayout } from './impose';
+import { impose } from './impose';
+import { checkPrintOptions, DEFAULT_MARGIN_MM, PrintOptionsError, SETS_MAX, toSheetOptions, type PrintOptions } from './options';
 import { layoutFace, TEMPLATES } from './layout/index';
-import { paperSize, type PaperName, type PaperSpec } from './paper';
+import { paperSize, type PaperSpec } from './paper';
 import type { ColourMode } from './pdf';
 import { svgToPng } from './png';
 import { buildPressPdf } from './press';
-import { buildSheetPdf, planSheets, type SheetFace, type SheetOptions } from './sheets';
+import { planSheets, type SheetFace } from './sheet-plan';
+import { buildSheetPdf } from './sheets';
 import { renderSvg } from './svg';
 
-/* ---------------------------------------------------------------- errors */
-
-/** A request the engine refuses as asked (bad or impossible options); `status` is the HTTP answer. */
-export class PrintOptionsError extends Error {
-	constructor(
-		message: string,
-		readonly status = 400
-	) {
-		super(message);
-		this.name = 'PrintOptionsError';
-	}
-}
-
-/* --------------------------------------------------------------- options */
-
-/** Sides of a custom sheet, mm: from a postcard to a large-format roll width (our own bounds). */
-export const CUSTOM_PAPER_MIN_MM = 50;
-export const CUSTOM_PAPER_MAX_MM = 1500;
-export const SETS_MAX = 50;
-export const MARGIN_MAX_MM = 50;
-/** Office printers are often off by 1–2 mm; the calibration sheet reads up to 10 (see ./calibration.ts). */
-export const BACK_OFFSET_MAX_MM = 10;
-/**
- * Unprintable border assumed when none is given. Office printers commonly need 3–6 mm (common
- * practice, from memory); the printer profile should say.
- */
-export const DEFAULT_MARGIN_MM = 5;
-
-const PAPER_NAMES = ['a4', 'a3', 'letter', 'tabloid'] as const satisfies readonly PaperName[];
-
-/** 'a4' | 'a3' | 'letter' | 'tabloid' | 'custom:<w>x<h>' (mm), case-insensitive. */
-export function parsePaper(text: string): PaperSpec {
-	const v = text.trim().toLowerCase();
-	if ((PAPER_NAMES as readonly string[]).includes(v)) return v as PaperName;
-	const m = /^custom:(\d+(?:\.\d+)?)x(\d+(?:\.\d+)?)$/.exec(v);
-	if (!m) throw new PrintOptionsError(`Unknown paper “${text}”: use a4, a3, letter, tabloid or custom:<width>x<height> in mm`);
-	const [w, h] = [Number(m[1]), Number(m[2])];
-	for (const side of [w, h])
-		if (side < CUSTOM_PAPER_MIN_MM || side > CUSTOM_PAPER_MAX_MM)
-			throw new PrintOptionsError(`Custom paper sides must be ${CUSTOM_PAPER_MIN_MM}–${CUSTOM_PAPER_MAX_MM} mm, not ${side} mm`);
-	return { widthMm: w, heightMm: h };
-}
-
-/** Query-string booleans: 1/0, true/false, yes/no, on/off; a bare `?marks` counts as yes. */
-const Boolish = z
-	.union([z.boolean(), z.string().trim().toLowerCase()])
-	.transform((v, ctx) => {
-		if (typeof v === 'boolean') return v;
-		if (['', '1', 'true', 'yes', 'on'].includes(v)) return true;
-		if (['0', 'false', 'no', 'off'].includes(v)) return false;
-		ctx.addIssue({ code: 'custom', message: `“${v}” is not yes or no` });
-		return z.NEVER;
-	});
-
-const Paper = z
-	.string()
-	.transform((v, ctx) => {
-		try {
-			return parsePaper(v);
-		} catch (e) {
-			ctx.addIssue({ code: 'custom', message: (e as Error).message });
-			return z.NEVER;
-		}
-	});
-
-const mm = (max: number, what: string) =>
-	z.coerce.number({ error: `${what} must be a number of mm` }).min(-max, `${what} is at most ${max} mm either way`).max(max, `${what} is at most ${max} mm either way`);
-
-/** The query parameters of a sheet PDF request (also the CLI's flags), as they arrive: strings. */
-export const PrintQuerySchema = z.object({
-	paper: Paper.default('a4'),
-	layout: z.enum(['spaced', 'butted', 'fold'], { error: 'layout is spaced, butted or fold' }).default('spaced'),
-	duplex: z.enum(['none', 'long', 'short'], { error: 'duplex is none, long or short' }).default('none'),
-	marks: Boolish.default(true),
-	sets: z.coerce
-		.number({ error: 'sets must be a whole number' })
-		.int('sets must be a whole number')
-		.min(1, `sets is 1 to ${SETS_MAX}`)
-		.max(SETS_MAX, `sets is 1 to ${SETS_MAX}`)
-		.default(1),
-	margin: z.coerce
-		.number({ error: 'margin must be a number of mm' })
-		.min(0, 'margin cannot be negative')
-		.max(MARGIN_MAX_MM, `margin is at most ${MARGIN_MAX_MM} mm`)
-		.default(DEFAULT_MARGIN_MM),
-	colour: z.enum(['rgb', 'cmyk'], { error: 'colour is rgb or cmyk' }).default('rgb'),
-	guide: Boolish.default(true),
-	/** Card kind ids, comma-separated; all kinds when absent. */
-	kinds: z
-		.string()
-		.transform((v) => v.split(',').map((s) => s.trim()).filter(Boolean))
-		.optional(),
-	backX: mm(BACK_OFFSET_MAX_MM, 'backX').default(0),
-	backY: mm(BACK_OFFSET_MAX_MM, 'backY').default(0)
-});
-
-/** The query parsed into the options `buildGamePdf` takes. */
-export const PrintOptionsSchema = PrintQuerySchema.transform(
-	(q): GamePdfOptions => ({
-		paper: q.paper,
-		marginMm: q.margin,
-		layout: q.layout,
-		duplex: q.duplex,
-		marks: q.marks,
-		sets: q.sets,
-		colour: q.colour,
-		cuttingGuide: q.guide,
-		kinds: q.kinds,
-		backOffsetMm: { x: q.backX, y: q.backY }
-	})
-);
-export type PrintQuery = z.input<typeof PrintQuerySchema>;
-
-/** Parse query parameters (URLSearchParams or a plain record); throws PrintOptionsError with every reason. */
-export function parsePrintOptions(query: URLSearchParams | Record<string, string | undefined>): GamePdfOptions {
-	const raw = query instanceof URLSearchParams ? Object.fromEntries(query) : query;
-	const parsed = PrintOptionsSchema.safeParse(raw);
-	if (!parsed.success)
-		throw new PrintOptionsError(
-			parsed.error.issues
-				.map((i) => {
-					const where = i.path.join('.');
-					// Most messages name their parameter already.
-					return !where || i.message.toLowerCase().includes(where.toLowerCase()) ? i.message : `${where}: ${i.message}`;
-				})
-				.join('; ')
-		);
-	return parsed.data;
-}
-
-export interface GamePdfOptions {
-	paper: PaperSpec;
-	marginMm?: number;
-	layout: ImposeLayout;
-	duplex: DuplexMode;
-	marks: boolean;
-	sets: number;
-	/** The printer's back-side error read from the calibration sheet (see ./duplex.ts). */
-	backOffsetMm?: { x: number; y: number };
-	colour: ColourMode;
-	cuttingGuide?: boolean;
-	/** Card kind ids to print; all when absent. */
-	kinds?: string[];
+/** A sheet PDF request: what to print and how (./options.ts), and how this run reports. */
+export interface GamePdfOptions extends PrintOptions {
 	title?: string;
 	versionLabel?: string;
 	/** As the sheet label should read it; today (UTC) when absent. */
@@ -444,36 +303,9 @@ function checkFit(cards: RenderedCard[], o: Required<Pick<GamePdfOptions, 'paper
 	}
 }
 
-function checkCommon(o: GamePdfOptions): void {
-	if (!Number.isInteger(o.sets) || o.sets < 1 || o.sets > SETS_MAX) throw new PrintOptionsError(`sets is 1 to ${SETS_MAX}`);
-	const margin = o.marginMm ?? DEFAULT_MARGIN_MM;
-	if (!(margin >= 0 && margin <= MARGIN_MAX_MM)) throw new PrintOptionsError(`margin is 0 to ${MARGIN_MAX_MM} mm`);
-	for (const v of [o.backOffsetMm?.x ?? 0, o.backOffsetMm?.y ?? 0])
-		if (!(Math.abs(v) <= BACK_OFFSET_MAX_MM)) throw new PrintOptionsError(`the back offset is at most ${BACK_OFFSET_MAX_MM} mm either way`);
-	if (!['spaced', 'butted', 'fold'].includes(o.layout)) throw new PrintOptionsError('layout is spaced, butted or fold');
-	if (!['none', 'long', 'short'].includes(o.duplex)) throw new PrintOptionsError('duplex is none, long or short');
-	if (!['rgb', 'cmyk'].includes(o.colour)) throw new PrintOptionsError('colour is rgb or cmyk');
-	paperSize(o.paper);
-}
-
-/** The sheet module's options for a print request (the defaults filled in). */
-export function toSheetOptions(options: GamePdfOptions): SheetOptions {
-	return {
-		paper: options.paper,
-		marginMm: options.marginMm ?? DEFAULT_MARGIN_MM,
-		layout: options.layout,
-		duplex: options.duplex,
-		marks: options.marks,
-		sets: options.sets,
-		backOffsetMm: options.backOffsetMm ? { xMm: options.backOffsetMm.x, yMm: options.backOffsetMm.y } : undefined,
-		colour: options.colour,
-		cuttingGuide: options.cuttingGuide ?? true
-	};
-}
-
 /** The imposed sheet PDF of a game. Progress counts faces laid out, then pages drawn. */
 export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Array>, options: GamePdfOptions): Promise<GamePdf> {
-	checkCommon(options);
+	checkPrintOptions(options);
 	const cache = options.cache ?? printCache;
 	const marginMm = options.marginMm ?? DEFAULT_MARGIN_MM;
 	const kinds = selectKinds(game, options.kinds);

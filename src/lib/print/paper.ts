@@ -4,8 +4,8 @@
  * PDF user space is 1/72 inch per unit by default (ISO 32000-1 §8.3.2.3), and an inch is
  * exactly 25.4 mm, so 1 mm = 72 / 25.4 pt ≈ 2.834646 pt.
  */
+import { MM_PER_INCH } from '../game/model';
 
-export const MM_PER_INCH = 25.4;
 /** ISO 32000-1 §8.3.2.3: default user space unit is 1/72 inch. */
 export const PT_PER_INCH = 72;
 export const PT_PER_MM = PT_PER_INCH / MM_PER_INCH;

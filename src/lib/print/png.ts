@@ -4,12 +4,10 @@
 import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import { initWasm, Resvg } from '@resvg/resvg-wasm';
+import { MM_PER_INCH } from '../game/model';
 import { faceWidthMm, type FaceLayout } from './display-list';
 import { FONT_FAMILY, loadFonts } from './fonts';
 import { renderSvg, type ImageSource, type SvgOptions } from './svg';
-
-/** 1 in = 25.4 mm exactly (international inch, 1959). */
-const MM_PER_INCH = 25.4;
 
 let ready: Promise<void> | undefined;
 

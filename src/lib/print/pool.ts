@@ -15,7 +15,8 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { Game } from '../game/model';
 import type { CacheArea, CacheStats } from './cache';
-import { PrintOptionsError, type CardPressOptions, type GamePdfOptions, type PngZipOptions } from './job';
+import type { CardPressOptions, GamePdfOptions, PngZipOptions } from './job';
+import { PrintOptionsError } from './options';
 
 type Plain<T> = Omit<T, 'onProgress' | 'cache'>;
 

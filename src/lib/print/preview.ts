@@ -4,7 +4,7 @@
  * PDF clips it) and the crop marks. Drawn from the same plan as the PDF (./sheets.ts planSheets).
  */
 
-import type { PlannedPage, SheetGroup } from './sheets';
+import type { PlannedPage, SheetGroup } from './sheet-plan';
 import { sheetMarks } from './marks';
 import { renderSvg, type ImageSource } from './svg';
 

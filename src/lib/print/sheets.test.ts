@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { BoxMm } from './impose';
 import { PAPER } from './paper';
-import { buildSheetPdf, planSheets, type SheetOptions, type SheetPdfInput } from './sheets';
+import { planSheets, type SheetOptions } from './sheet-plan';
+import { buildSheetPdf, type SheetPdfInput } from './sheets';
 import { greyFor, numberedFace } from './testing/faces';
 import {
 	flipGrey,

@@ -6,11 +6,13 @@
  */
 import type { Colour, FontWeight, TextItem } from './display-list';
 import type { FontSet, LoadedFont } from './fonts';
+import { MM_PER_INCH } from '../game/model';
+import { PT_PER_INCH } from './paper';
 
 type FontMetrics = LoadedFont['metrics'];
 
-/** 1 pt = 1/72 in and 1 in = 25.4 mm (PostScript point, as used by PDF: ISO 32000-1 §8.3.2.3). */
-export const MM_PER_PT = 25.4 / 72;
+/** 1 pt = 1/72 in (PostScript point, as used by PDF: ISO 32000-1 §8.3.2.3). */
+export const MM_PER_PT = MM_PER_INCH / PT_PER_INCH;
 
 export const ptToMm = (pt: number) => pt * MM_PER_PT;
 

@@ -16,10 +16,10 @@ import { logActivity } from './activity';
 import type { Db } from './db';
 import type { Game } from '$lib/game/model';
 import { printPool, PrintBusyError, type PrintJob, type PrintJobResult } from '$lib/print/pool';
-import { parsePrintOptions, PrintOptionsError, renderGameFaces, toSheetOptions, type GamePdfOptions } from '$lib/print/job';
-import { planSheets } from '$lib/print/sheets';
+import { renderGameFaces, type GamePdfOptions } from '$lib/print/job';
+import { parsePrintOptions, PrintOptionsError, settingsQuery, toSheetOptions } from '$lib/print/options';
+import { planSheets } from '$lib/print/sheet-plan';
 import { sheetPreviewSvg } from '$lib/print/preview';
-import { profileQuery } from '$lib/schemas/printing';
 import { isUuid } from '$lib/schemas/ids';
 
 export interface PrintSource {
@@ -76,7 +76,7 @@ export async function printOptions(db: Db, source: PrintSource, query: URLSearch
 		if (!isUuid(profileId)) throw new ApiError(404, 'No such printer profile in this team');
 		const profile = await findProfile(db, source.teamId, profileId);
 		// The profile's settings; a query may still choose sets and kinds.
-		values = { ...profileQuery(profile), ...(raw.sets ? { sets: raw.sets } : {}), ...(raw.kinds ? { kinds: raw.kinds } : {}) };
+		values = { ...settingsQuery(profile), ...(raw.sets ? { sets: raw.sets } : {}), ...(raw.kinds ? { kinds: raw.kinds } : {}) };
 	}
 	try {
 		return { ...parsePrintOptions(values), title: source.game.name, versionLabel: source.versionLabel, date: source.date };

@@ -3,7 +3,7 @@ import { api, ApiError } from '$lib/server/api';
 import { requireUser } from '$lib/server/guard';
 import { fileResponse } from '$lib/server/printing';
 import { buildCalibrationPdf } from '$lib/print/calibration';
-import { parsePaper, PrintOptionsError } from '$lib/print/job';
+import { parsePaper, PrintOptionsError } from '$lib/print/options';
 
 /** The duplex calibration sheet (front and back) for `?paper=` and `?duplex=long|short`. */
 export const GET: RequestHandler = api(async ({ locals, url }) => {
