@@ -3,7 +3,7 @@
  * proof; the reviewer follows the e-mail, pins a comment on a card; the designer sees it arrive
  * without reloading, replies and resolves; the reviewer approves; the designer releases; the
  * printer follows the release e-mail and downloads the sheet PDF, which poppler's pdfinfo reads.
- * E-mail is caught by the instance and read on the owner's "Caught mail" page.
+ * E-mail is caught by the instance and read by its recipient on their own "Caught mail" page.
  */
 import { test, expect, type Browser, type Page } from '@playwright/test';
 import { execFileSync } from 'node:child_process';
@@ -19,15 +19,15 @@ async function person(browser: Browser, email: string) {
 	return page;
 }
 
-/** The path of the first link in the newest caught message to `to` that contains `text`. */
-async function mailLink(owner: Page, to: string, text: string) {
+/** The path of the first link in the newest caught message to `to` that contains `text`, read by its recipient. */
+async function mailLink(recipient: Page, to: string, text: string) {
 	let href: string | null = null;
 	await expect(async () => {
-		await owner.goto('/mail');
-		const message = owner
+		await recipient.goto('/mail');
+		const message = recipient
 			.getByTestId('mail')
 			.filter({ hasText: text })
-			.filter({ has: owner.getByTestId('mail-to').getByText(to, { exact: true }) })
+			.filter({ has: recipient.getByTestId('mail-to').getByText(to, { exact: true }) })
 			.first();
 		await expect(message).toBeVisible({ timeout: 1000 });
 		href = await message.getByRole('link').first().getAttribute('href');
@@ -58,11 +58,10 @@ test('cut, pin, reply, resolve, approve, release, print', async ({ browser }) =>
 	// Marks this very page: a reload would lose it.
 	await designer.evaluate(() => ((window as unknown as { stayed: string }).stayed = 'yes'));
 
-	// The reviewer reads the "proof ready" e-mail (caught, read on the owner's page) and follows it.
-	const owner = await person(browser, 'owner@paddock.test');
-	const reviewLink = await mailLink(owner, 'reviewer@paddock.test', description);
-	expect(reviewLink).toBe(`/games/${gameId}/proofs/${number}`);
+	// The reviewer reads the "proof ready" e-mail (caught, on their own mail page) and follows it.
 	const reviewer = await person(browser, 'reviewer@paddock.test');
+	const reviewLink = await mailLink(reviewer, 'reviewer@paddock.test', description);
+	expect(reviewLink).toBe(`/games/${gameId}/proofs/${number}`);
 	await reviewer.goto(reviewLink);
 	await hydrated(reviewer);
 	await expect(reviewer.getByTestId('threads')).toBeAttached();
@@ -115,7 +114,7 @@ test('cut, pin, reply, resolve, approve, release, print', async ({ browser }) =>
 	await expect(thread.getByText('resolved', { exact: true })).toBeVisible();
 
 	// The e-mail link to the thread (?comment=) opens it, resolved or not, and puts the reader on it.
-	const threadLink = await mailLink(owner, 'reviewer@paddock.test', 'Moved the disc up by 2 mm');
+	const threadLink = await mailLink(reviewer, 'reviewer@paddock.test', 'Moved the disc up by 2 mm');
 	expect(threadLink).toMatch(new RegExp(`/games/${gameId}/proofs/${number}\\?comment=`));
 	await reviewer.goto(threadLink);
 	await hydrated(reviewer);
@@ -137,9 +136,9 @@ test('cut, pin, reply, resolve, approve, release, print', async ({ browser }) =>
 	await expect(designer.getByTestId('release-files')).toBeVisible();
 
 	// The printer reads the release e-mail and opens the release page.
-	const releaseLink = await mailLink(owner, 'printer@paddock.test', `released proof ${number}`);
-	expect(releaseLink).toBe(`/games/${gameId}/proofs/${number}`);
 	const printer = await person(browser, 'printer@paddock.test');
+	const releaseLink = await mailLink(printer, 'printer@paddock.test', `released proof ${number}`);
+	expect(releaseLink).toBe(`/games/${gameId}/proofs/${number}`);
 	await printer.goto(releaseLink);
 	await hydrated(printer);
 	await expect(printer.getByRole('heading', { name: `Released for printing: proof ${number}` })).toBeVisible();
@@ -173,5 +172,5 @@ test('cut, pin, reply, resolve, approve, release, print', async ({ browser }) =>
 	await expect(log).toContainText(`resolved a thread on proof ${number}`);
 	await expect(log).toContainText(`cut proof ${number}: ${description}`);
 
-	for (const p of [designer, owner, reviewer, printer]) await p.context().close();
+	for (const p of [designer, reviewer, printer]) await p.context().close();
 });

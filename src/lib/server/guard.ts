@@ -25,8 +25,8 @@ export const PERMISSIONS = {
 	'proof.release': ['owner', 'designer'],
 	/** Released proofs and their files. */
 	'release.read': ['owner', 'designer', 'artist', 'printer', 'reviewer'],
-	'profile.edit': ['owner', 'designer', 'printer'],
-	'mail.read': ['owner']
+	/** Add, change and delete the team's printer profiles: printers keep them, whoever made one. */
+	'profile.edit': ['owner', 'designer', 'printer']
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;

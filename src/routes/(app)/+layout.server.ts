@@ -9,6 +9,6 @@ export const load = async ({ locals, url }) => {
 	return {
 		user: locals.user,
 		memberships,
-		showMail: (await mailIsCaught()) && memberships.some((m) => m.role === 'owner')
+		showMail: await mailIsCaught()
 	};
 };

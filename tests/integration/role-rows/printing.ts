@@ -113,11 +113,13 @@ export const rows: Row[] = [
 		expect: { ...profileEditors, owner: 200, designer: 200, printer: 200, default: 403 }
 	},
 	{
-		route: 'DELETE /api/v1/teams/{teamId}/printer-profiles/{profileId}',
+		route: 'DELETE /api/v1/teams/{teamId}/printer-profiles/{profileId} (made by the designer)',
 		run: async (w, who) => {
 			const p = await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'scratch' }, designer(w).id);
 			return statusOf(() => profileApi.DELETE(as(w, who, { method: 'DELETE', params: { teamId: w.teamId, profileId: p.id } })));
 		},
+		// Intended: printers keep the team's printer profiles (product brief, roles), so a printer may
+		// delete any of them, including one another member made. Artists and reviewers may not.
 		expect: { ...profileEditors, owner: 200, designer: 200, printer: 200, default: 403 }
 	}
 ];
