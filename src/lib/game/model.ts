@@ -333,7 +333,13 @@ export const SetupDataSchema = z.object({
 	/** Cards added from the remaining deck to the shared deck once the hands are dealt. */
 	extraFromDeck: count,
 	/** Number of track tiles laid, start and finish included. */
-	trackLength: z.int().min(2).max(99)
+	trackLength: z.int().min(2).max(99),
+	/**
+	 * Rogue cards added to each stage's shared deck. Absent or 0: the rogue cards are shuffled into
+	 * the movement deck and dealt like any other card; above 0: they are kept apart and this many
+	 * join the shared deck.
+	 */
+	rogueToDeck: z.int().min(0).max(99).optional()
 });
 export const ModifierDataSchema = z.object({
 	type: z.literal('modifier'),
@@ -443,6 +449,23 @@ export const ArtAssetSchema = z.object({
 });
 export type ArtAsset = z.infer<typeof ArtAssetSchema>;
 
+/* -------------------------------------------------------------- race rules */
+
+/**
+ * The numbers of the movement model that vary between designs (the odds lab reads them).
+ * A game without its own rules uses these defaults.
+ */
+export const RaceRulesSchema = z.object({
+	/** Extra spaces the rogue moves when anyone rides on it. */
+	rogueCarryBonus: z.int().min(0).max(9).default(1),
+	/** A modifier acts once and is then removed from the track. */
+	modifiersOneUse: z.boolean().default(true),
+	/** A modifier that moves a group back slides it under the stack there (else on top). */
+	backUnder: z.boolean().default(true)
+});
+export type RaceRules = z.infer<typeof RaceRulesSchema>;
+export const DEFAULT_RACE_RULES: RaceRules = { rogueCarryBonus: 1, modifiersOneUse: true, backUnder: true };
+
 /* -------------------------------------------------------------------- game */
 
 export const GAME_FORMAT_VERSION = 1;
@@ -459,6 +482,8 @@ export const GameSchema = z.object({
 	kinds: z.array(CardKindSchema),
 	cards: z.array(CardSchema),
 	art: z.array(ArtAssetSchema),
+	/** Absent: DEFAULT_RACE_RULES. */
+	raceRules: RaceRulesSchema.optional(),
 	version: VersionSchema
 });
 export type Game = z.infer<typeof GameSchema>;

@@ -8,11 +8,9 @@
  * Workers load ./worker.ts through tsx (TypeScript, no build step). Progress messages come back
  * while a job runs; the output bytes are transferred, not copied.
  */
-import { existsSync, readFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import { dirname, join, resolve } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
-import { Worker } from 'node:worker_threads';
+import { existsSync } from 'node:fs';
+import type { Worker } from 'node:worker_threads';
+import { resolveWorkerModule, startTsWorker, type TsWorkerData } from '../threads/ts-worker';
 import type { Game } from '../game/model';
 import type { CacheArea, CacheStats } from './cache';
 import type { CardPressOptions, GamePdfOptions, PngZipOptions } from './job';
@@ -57,10 +55,7 @@ export type FromWorker =
 	| { id: number; kind: 'error'; error: { name: string; message: string; status?: number } };
 
 /** What a worker is started with. */
-export interface WorkerData {
-	entry: string;
-	/** tsx's register API, when the entry is TypeScript. */
-	tsx?: string;
+export interface WorkerData extends TsWorkerData {
 	cacheBytes?: number;
 }
 
@@ -112,48 +107,9 @@ interface Slot {
 export const DEFAULT_POOL_SIZE = 2;
 export const DEFAULT_MAX_QUEUE = 64;
 
-/**
- * Where the worker module is: beside this file when running from source; otherwise (this file
- * bundled somewhere else) the source tree under the working directory.
- */
+/** The print worker module (see ../threads/ts-worker.ts). */
 export function resolveWorkerPath(explicit?: string): string {
-	if (explicit) return resolve(process.cwd(), explicit);
-	// Not `new URL('./worker.ts', import.meta.url)`: a bundler would copy the file as an asset.
-	try {
-		const beside = join(dirname(fileURLToPath(import.meta.url)), 'worker.ts');
-		if (existsSync(beside)) return beside;
-	} catch {
-		// import.meta.url is not a file URL once bundled for some targets.
-	}
-	return resolve(process.cwd(), 'src/lib/print/worker.ts');
-}
-
-/**
- * The worker's first lines: register tsx's loader inside the thread, then import the module.
- * (Node 20 applies `--import` hooks given in a worker's execArgv only after its entry point has
- * been resolved, so a `.ts` entry fails there; registering from a small script always works.)
- */
-function bootstrap(entry: string, cacheBytes?: number): { code: string; workerData: WorkerData } {
-	const tsx = entry.endsWith('.ts') ? tsxEsmApi() : undefined;
-	const code = `
-const { workerData } = require('node:worker_threads');
-(async () => {
-	if (workerData.tsx) {
-		const api = await import(workerData.tsx);
-		(api.register ?? api.default.register)();
-	}
-	await import(workerData.entry);
-})();
-`;
-	return { code, workerData: { entry: pathToFileURL(entry).href, tsx, cacheBytes } };
-}
-
-/** tsx's ESM register API as a file URL (its `import` export; the CommonJS build cannot be imported). */
-function tsxEsmApi(): string {
-	const require = createRequire(import.meta.url);
-	const manifest = require.resolve('tsx/package.json');
-	const pkg = JSON.parse(readFileSync(manifest, 'utf8')) as { exports: Record<string, { import: { default: string } }> };
-	return pathToFileURL(resolve(dirname(manifest), pkg.exports['./esm/api'].import.default)).href;
+	return resolveWorkerModule(import.meta.url, 'worker.ts', 'src/lib/print/worker.ts', explicit);
 }
 
 export class PrintPool {
@@ -240,8 +196,7 @@ export class PrintPool {
 	}
 
 	private spawn(): Slot {
-		const { code, workerData } = bootstrap(this.workerPath, this.cacheBytes);
-		const worker = new Worker(code, { eval: true, workerData });
+		const worker = startTsWorker(this.workerPath, { cacheBytes: this.cacheBytes });
 		const slot: Slot = { id: this.nextWorker++, worker, calls: new Map() };
 		worker.on('message', (m: FromWorker) => this.onMessage(slot, m));
 		worker.on('error', (e) => this.onCrash(slot, e));
