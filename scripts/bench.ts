@@ -29,6 +29,7 @@ import { paperSize } from '../src/lib/print/paper';
 import { PrintPool } from '../src/lib/print/pool';
 import { planSheets, type SheetOptions } from '../src/lib/print/sheet-plan';
 import { CHROMIUM, CHROMIUM_ARGS } from '../tests/e2e/env';
+import { benchOdds } from './bench/odds';
 
 const { values: flags } = parseArgs({
 	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
@@ -497,7 +498,8 @@ async function main() {
 				thousandCardsOwnProcess: memory,
 				chromium: chrome,
 				chromiumOverPaddock: ratios,
-				targets
+				targets,
+				odds: await benchOdds()
 			},
 			null,
 			'\t'

@@ -104,8 +104,11 @@ export function checkDeal(
 ): DealCheck {
 	const handCards = setup.players * setup.handSize;
 	const neededCards = handCards + setup.discards + setup.toSharedDeck + setup.faceUp + setup.extraFromDeck;
-	const remainder = supply.deckCards - neededCards;
-	const sharedDeckCards = setup.toSharedDeck + setup.extraFromDeck;
+	// Rogue cards added to the shared deck are kept apart: the deal then comes from movement cards only.
+	const rogueToDeck = setup.rogueToDeck ?? 0;
+	const deckCards = rogueToDeck > 0 ? supply.movementCards : supply.deckCards;
+	const remainder = deckCards - neededCards;
+	const sharedDeckCards = setup.toSharedDeck + setup.extraFromDeck + rogueToDeck;
 	const issues: DeckIssue[] = [];
 	const who = `${setup.players} players`;
 	const add = (severity: Severity, message: string) =>
@@ -122,9 +125,11 @@ export function checkDeal(
 		add(
 			'error',
 			`the deal needs ${plural(neededCards, 'movement card')} (${parts.join(', ')}) but the deck has ` +
-				`${supply.deckCards}: ${-remainder} short`
+				`${deckCards}: ${-remainder} short`
 		);
 	}
+	if (rogueToDeck > supply.rogueCards)
+		add('error', `the shared deck takes ${plural(rogueToDeck, 'rogue card')} but the game has ${supply.rogueCards}`);
 	if (sharedDeckCards === 0) add('error', 'the shared deck would be empty, so a stage would end before it starts');
 	if (setup.handSize === 0) add('warning', 'players are dealt no cards');
 	if (setup.trackLength > supply.tiles)
@@ -140,7 +145,7 @@ export function checkDeal(
 		players: setup.players,
 		handCards,
 		neededCards,
-		deckCards: supply.deckCards,
+		deckCards,
 		remainder,
 		sharedDeckCards,
 		trackLength: setup.trackLength,

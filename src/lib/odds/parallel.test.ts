@@ -1,6 +1,6 @@
 /** Worker threads give the single-thread answer for the same seed, report progress, and cancel. */
 import { afterAll, describe, expect, it } from 'vitest';
-import { demoGame } from '../game/demo';
+import { demoGame } from '../demo/demo';
 import { OddsCancelled, OddsPool } from './parallel';
 import { raceSetupFromGame, simulateRaces } from './race';
 import { ScenarioSchema } from './scenario';

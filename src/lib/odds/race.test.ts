@@ -1,6 +1,6 @@
 /** Whole races of the demo game: the deal, the track, sums, the length distribution, and seeds. */
 import { describe, expect, it } from 'vitest';
-import { demoGame } from '../game/demo';
+import { demoGame } from '../demo/demo';
 import { raceSetupFromGame, RaceSetupError, simulateRaces } from './race';
 
 describe('whole races from the game data', () => {

@@ -26,12 +26,12 @@ port.on('message', (m: ToOddsWorker) => {
 			const tally = emptyTally(c.track.ranked);
 			sampleStage(c, chunkGenerator(job.seed, m.chunk), chunkSize(job.samples, m.chunk), tally);
 			const reply: FromOddsWorker = { jobId: m.jobId, chunk: m.chunk, kind: 'stage', tally };
-			port.postMessage(reply, [tally.places.buffer, tally.squares.buffer]);
+			port.postMessage(reply, [tally.places.buffer as ArrayBuffer, tally.squares.buffer as ArrayBuffer]);
 		} else {
 			const tally = emptyRaceTally(job.setup);
 			compiled.race!.run(chunkGenerator(job.seed, m.chunk), chunkSize(job.races, m.chunk), tally);
 			const reply: FromOddsWorker = { jobId: m.jobId, chunk: m.chunk, kind: 'race', tally };
-			port.postMessage(reply, [tally.final.buffer, tally.finalSquares.buffer, tally.stageEnds.buffer, tally.stageCounts.buffer]);
+			port.postMessage(reply, [tally.final, tally.finalSquares, tally.stageEnds, tally.stageCounts].map((a) => a.buffer as ArrayBuffer));
 		}
 	} catch (e) {
 		port.postMessage({ jobId: m.jobId, chunk: m.chunk, kind: 'error', message: (e as Error).message ?? String(e) } satisfies FromOddsWorker);
