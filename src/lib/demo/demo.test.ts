@@ -4,7 +4,7 @@ import { checkArtResolution } from '../game/art-check';
 import { readBundle, writeBundle } from '../game/bundle';
 import { checkDeck } from '../game/deck-check';
 import { demoGame } from './demo';
-import { demoGameWithArt, initResvg, renderDemoArt } from './demo-art';
+import { demoGameWithArt, initResvg, renderDemoArt, renderSvgToPng } from './demo-art';
 import { findReferenceProblems, GameSchema, RUNNERS_MAX, RUNNERS_MIN, validateMoneyTable } from '../game/model';
 
 describe('demo game', () => {
@@ -44,8 +44,14 @@ describe('demo game', () => {
 
 describe('demo art', () => {
 	it('initialises resvg once, however often it is asked', async () => {
-		await Promise.all([initResvg(), initResvg()]);
-		await initResvg();
+		// Every caller shares one initialisation: the same promise, settled without error.
+		const first = initResvg();
+		expect(initResvg()).toBe(first);
+		await expect(Promise.all([first, initResvg()])).resolves.toEqual([undefined, undefined]);
+		// And the engine draws afterwards: a 40 × 20 viewBox drawn 80 px wide is 80 × 40 px.
+		const drawn = await renderSvgToPng('<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 40 20"><rect width="40" height="20"/></svg>', 80);
+		expect([drawn.widthPx, drawn.heightPx]).toEqual([80, 40]);
+		expect(imageSize(drawn.bytes)).toMatchObject({ type: 'png', width: 80, height: 40 });
 	});
 
 	it('renders PNGs whose size an independent reader confirms, mostly ≥ 300 dpi, two deliberately coarse', async () => {
