@@ -6,6 +6,7 @@ import { findUser } from '$lib/server/users';
 import { userForToken } from '$lib/server/api-tokens';
 import { apiError } from '$lib/server/api';
 import { DataDirLockedError } from '$lib/server/db/lock';
+import '$lib/schemas/messages';
 
 export const init: ServerInit = async () => {
 	try {

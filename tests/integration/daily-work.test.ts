@@ -4,7 +4,10 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openWorld, fakeEvent, type World } from './harness';
-import { loadGame } from '$lib/server/game-store';
+import { applyChanges, loadGame, StoreError } from '$lib/server/game-store';
+import { savedNote } from '$lib/server/object-actions';
+import * as runnersPage from '../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
+import * as pressColour from '../../src/routes/api/v1/press-colour/+server';
 import { cutProof, releaseProof } from '$lib/server/proofs';
 import * as printPreview from '../../src/routes/api/v1/games/[gameId=id]/print-preview/+server';
 import * as proofArt from '../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/art-files/[sha256]/+server';
@@ -42,5 +45,57 @@ describe("a released proof's print preview", () => {
 		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'no such art' });
 		const res = await proofArt.GET(ev('designer', { params: { gameId: w.gameId, proofId: p.id, sha256: 'a'.repeat(64) } }));
 		expect(res.status).toBe(404);
+	});
+});
+
+describe('saving one object is never refused because of another', () => {
+	it('a new runner saves although a table now lacks a place; the warning links to the table', async () => {
+		const by = { userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' };
+		let game = await loadGame(w.db, w.gameId);
+		const field = game.runners.length;
+		const rows = Array.from({ length: field }, (_, i) => ({ place: i + 1, coins: field - i }));
+		await applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: 'exact-fit', baseVersion: null, object: { id: 'exact-fit', name: 'Exact fit', rows } }], by);
+		game = await loadGame(w.db, w.gameId);
+		const runner = { ...game.runners[0], id: 'late-entry', name: 'Late Entry', sortOrder: 50 };
+		delete (runner as { version?: number }).version;
+		const saved = await applyChanges(w.db, w.gameId, [{ collection: 'runner', id: runner.id, baseVersion: null, object: runner }], by);
+		expect((await loadGame(w.db, w.gameId)).runners.map((r) => r.id)).toContain('late-entry');
+		const warning = saved.saveWarnings.find((x) => x.ref?.id === 'exact-fit');
+		expect(warning?.message).toContain(`place ${field + 1} has no coins`);
+		const note = savedNote(w.gameId, saved.saveWarnings);
+		expect(note.tone).toBe('warning');
+		expect(note.links?.map((l) => l.href)).toContain(`/games/${w.gameId}/money-tables?table=exact-fit`);
+		// Saving the table itself with the gap is still refused: that is its own problem.
+		const table = (await loadGame(w.db, w.gameId)).moneyTables.find((t) => t.id === 'exact-fit')!;
+		await expect(
+			applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: table.id, baseVersion: table.version!, object: { ...table, name: 'Renamed' } }], by)
+		).rejects.toThrow(StoreError);
+	});
+
+	it('a runner in use cannot be deleted and the answer says what uses it', async () => {
+		const game = await loadGame(w.db, w.gameId);
+		const used = game.runners.find((r) => game.cards.some((c) => 'runnerId' in c.data && c.data.runnerId === r.id))!;
+		const res = await runnersPage.actions.delete(ev('designer', { params: { gameId: w.gameId }, form: { id: used.id, version: String(used.version) } }));
+		expect(res).toMatchObject({ status: 409 });
+		expect(JSON.stringify(res)).toMatch(/used by \d+ cards? of/);
+	});
+});
+
+describe('new-runner defaults', () => {
+	it('propose an unused symbol and order and a press colour converted from the screen colour', async () => {
+		const game = await loadGame(w.db, w.gameId);
+		const data = (await runnersPage.load(ev('designer', { params: { gameId: w.gameId }, path: '/?new' }))) as Awaited<ReturnType<typeof runnersPage.load>>;
+		const blank = data.form.data;
+		expect(game.runners.map((r) => r.symbol)).not.toContain(blank.symbol);
+		expect(game.runners.map((r) => r.sortOrder)).not.toContain(blank.sortOrder);
+		expect(blank.cmyk.c + blank.cmyk.m + blank.cmyk.y + blank.cmyk.k).toBeGreaterThan(0);
+		expect(data.pressColourNote).toMatch(/approximation/);
+		expect(data.pressColourNote).toMatch(/print shop/);
+		// White paper needs no ink, black mostly K: the direction any press profile takes.
+		const white = await (await pressColour.GET(ev('artist', { path: '/?hex=%23ffffff' }))).json();
+		expect(white.cmyk).toEqual({ c: 0, m: 0, y: 0, k: 0 });
+		const black = await (await pressColour.GET(ev('artist', { path: '/?hex=%23000000' }))).json();
+		expect(black.cmyk.k).toBeGreaterThan(50);
+		expect((await pressColour.GET(ev('artist', { path: '/?hex=red' }))).status).toBe(400);
 	});
 });

@@ -6,6 +6,8 @@
  * Every editable object carries an optional integer `version`; the database layer uses it for
  * optimistic locking, the schemas only carry it.
  */
+// Plain-language validation messages for every schema in the process.
+import '../schemas/messages';
 import { z } from 'zod';
 
 /* ------------------------------------------------------------------ basics */

@@ -23,6 +23,7 @@ import {
 	type Game
 } from '$lib/game/model';
 import { logActivity } from './activity';
+import type { ReadinessItem } from '$lib/game/readiness';
 
 export const OBJECT_SCHEMAS = {
 	runner: RunnerSchema,
@@ -112,14 +113,31 @@ function defaultSizeOf(preset: string): Game['defaultSize'] {
 /** Problems that would break the game: broken references, money tables missing a place. */
 export function gameProblems(game: Game): string[] {
 	const problems = findReferenceProblems(game).map((p) => p.message);
-	const field = game.runners.length;
-	if (field > 0) {
-		for (const table of game.moneyTables) {
-			const check = validateMoneyTable(table, field);
-			problems.push(...check.problems.filter((p) => p.severity === 'error').map((p) => p.message));
-		}
-	}
+	for (const table of game.moneyTables) problems.push(...tableErrors(game, table.id).map((p) => p.message));
 	return problems;
+}
+
+function tableErrors(game: Game, tableId: string) {
+	const table = game.moneyTables.find((t) => t.id === tableId);
+	if (!table || game.runners.length === 0) return [];
+	return validateMoneyTable(table, game.runners.length).problems.filter((p) => p.severity === 'error');
+}
+
+/**
+ * What refuses a save, and what only warns. A save is refused for its own objects' problems
+ * (a money table missing a place, a reference to something missing); a problem it causes in
+ * another object (a new runner leaves a table one place short) is a warning naming that object.
+ */
+function saveVerdict(game: Game, changes: Change[]): { refusals: string[]; warnings: ReadinessItem[] } {
+	const refusals = findReferenceProblems(game).map((p) => p.message);
+	const warnings: ReadinessItem[] = [];
+	const saved = new Set(changes.filter((c) => c.collection === 'moneyTable' && !c.remove).map((c) => c.id));
+	for (const table of game.moneyTables) {
+		const errors = tableErrors(game, table.id);
+		if (saved.has(table.id)) refusals.push(...errors.map((p) => p.message));
+		else warnings.push(...errors.map((p) => ({ code: 'table-gap' as const, message: p.message, ref: { collection: 'moneyTable' as const, id: table.id } })));
+	}
+	return { refusals, warnings };
 }
 
 function parseObject<C extends Collection>(collection: C, value: unknown): ObjectOf<C> {
@@ -167,7 +185,7 @@ export async function applyChanges(
 	gameId: string,
 	changes: Change[],
 	by: { userId: string; teamId: string; action: string }
-): Promise<Game> {
+): Promise<Game & { saveWarnings: ReadinessItem[] }> {
 	return db.transaction(async (tx) => {
 		for (const change of changes) {
 			const [row] = await tx
@@ -230,7 +248,7 @@ export async function applyChanges(
 			}
 		}
 		const game = await loadGame(tx, gameId);
-		const problems = gameProblems(game);
+		const { refusals: problems, warnings } = saveVerdict(game, changes);
 		if (problems.length) {
 			throw new StoreError(400, problems.slice(0, 5).join('; ') + (problems.length > 5 ? ` (and ${problems.length - 5} more)` : ''));
 		}
@@ -242,7 +260,7 @@ export async function applyChanges(
 			action: by.action,
 			detail: { changes: changes.length, ids: changes.slice(0, 20).map((c) => `${c.collection}:${c.id}`) }
 		});
-		return { ...game, version: game.version! + 1 };
+		return { ...game, version: game.version! + 1, saveWarnings: warnings };
 	});
 }
 
@@ -269,7 +287,7 @@ export async function saveSettings(
 			await tx.insert(gameSettings).values({ gameId, data: stripRogueVersion(settings), version: 1 });
 		}
 		const game = await loadGame(tx, gameId);
-		const problems = gameProblems(game);
+		const problems = findReferenceProblems(game).map((p) => p.message);
 		if (problems.length) throw new StoreError(400, problems.slice(0, 5).join('; '));
 		await touchGame(tx, gameId);
 		await logActivity(tx as unknown as Db, { teamId: by.teamId, gameId, userId: by.userId, action: 'game.settings' });

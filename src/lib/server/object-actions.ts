@@ -7,10 +7,22 @@ import { fail, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireGameRole } from './guard';
-import { applyChanges, OBJECT_SCHEMAS, StoreError } from './game-store';
+import { applyChanges, loadGame, OBJECT_SCHEMAS, StoreError } from './game-store';
 import { editPermission } from './game-access';
 import type { Collection } from './db/schema';
 import { db } from './runtime';
+import { objectPath, usersOf, type ReadinessItem } from '$lib/game/readiness';
+import type { FormNote } from '$lib/schemas/messages';
+
+/** "Saved.", or "Saved, but …" with a link to each object that now needs a look. */
+export function savedNote(gameId: string, warnings: ReadinessItem[], what = 'Saved.'): FormNote {
+	if (!warnings.length) return { text: what, tone: 'success' };
+	return {
+		text: `${what} Other parts of the game need a look now:`,
+		tone: 'warning',
+		links: warnings.map((w) => ({ href: w.ref ? objectPath(gameId, w.ref) : `/games/${gameId}`, label: w.message }))
+	};
+}
 
 export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, collection: Collection) {
 	const d = await db();
@@ -18,18 +30,19 @@ export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, 
 	const form = await superValidate(event.request, zod4(OBJECT_SCHEMAS[collection]));
 	if (!form.valid) return fail(400, { form });
 	const { version, ...object } = form.data as { id: string; version?: number };
+	let saved;
 	try {
-		await applyChanges(
+		saved = await applyChanges(
 			d,
 			game.id,
 			[{ collection, id: object.id, baseVersion: version ?? null, object }],
 			{ userId: user.id, teamId: game.teamId, action: `${collection}.saved` }
 		);
 	} catch (e) {
-		if (e instanceof StoreError) return message(form, e.message, { status: e.status });
+		if (e instanceof StoreError) return message(form, { text: e.message, tone: 'error' } satisfies FormNote, { status: e.status });
 		throw e;
 	}
-	return message(form, 'Saved.');
+	return message(form, savedNote(game.id, saved.saveWarnings));
 }
 
 export async function deleteObjectAction(event: RequestEvent<{ gameId: string }>, collection: Collection) {
@@ -39,6 +52,11 @@ export async function deleteObjectAction(event: RequestEvent<{ gameId: string }>
 	const id = String(body.get('id') ?? '');
 	const version = Number(body.get('version'));
 	if (!id || !Number.isInteger(version)) return fail(400, { deleteError: 'Say what to delete and its version' });
+	if (collection === 'runner' || collection === 'moneyTable') {
+		const users = usersOf(await loadGame(d, game.id), { collection, id });
+		if (users.length)
+			return fail(409, { deleteError: `This ${collection === 'runner' ? 'runner' : 'table'} is used by ${users.join('; ')}. Change or delete those first.` });
+	}
 	try {
 		await applyChanges(d, game.id, [{ collection, id, baseVersion: version, remove: true }], {
 			userId: user.id,

@@ -4,6 +4,8 @@ import { as, g, game } from '../role-table';
 import { statusOf, type World } from '../harness';
 import { cutProof, releaseProof } from '$lib/server/proofs';
 import * as proofArt from '../../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/art-files/[sha256]/+server';
+import * as pressColour from '../../../src/routes/api/v1/press-colour/+server';
+import * as runnersPage from '../../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
 import * as printPreview from '../../../src/routes/api/v1/games/[gameId=id]/print-preview/+server';
 
 let releasedId: string | undefined;
@@ -18,6 +20,19 @@ async function released(w: World) {
 const everyone = { default: 200, anonymous: 401, outsider: 404 };
 
 export const rows: Row[] = [
+	{
+		route: 'GET /api/v1/press-colour?hex=',
+		run: (w, who) => statusOf(() => pressColour.GET(as(w, who, { path: '/?hex=%23336699' }))),
+		expect: { default: 200, anonymous: 401 }
+	},
+	{
+		route: 'action /games/{gameId}/runners?/delete (a runner in use: 409 with what uses it)',
+		run: async (w, who) => {
+			const r = (await game(w)).runners[0];
+			return statusOf(() => runnersPage.actions.delete(as(w, who, { params: g(w), form: { id: r.id, version: String(r.version) } })));
+		},
+		expect: { owner: 409, designer: 409, artist: 403, printer: 403, reviewer: 403, anonymous: 401, outsider: 404, default: 403 }
+	},
 	{
 		route: 'GET /api/v1/games/{gameId}/proofs/{proofId}/art-files/{sha256} (released)',
 		run: async (w, who) => {

@@ -6,35 +6,35 @@ import { loadGame, saveSettings, StoreError } from '$lib/server/game-store';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/object-actions';
 import { db } from '$lib/server/runtime';
 import { RunnerSchema, RogueRunnerSchema, newId, type Runner, type RogueRunner } from '$lib/game/model';
+import { newRunnerDefaults } from '$lib/game/runner-defaults';
+import { usersOf } from '$lib/game/readiness';
+import { pressCmykOf, PRESS_COLOUR_NOTE } from '$lib/server/press-colour';
 
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
 	await requireGameRole(d, locals, params.gameId, 'game.read');
 	const game = await loadGame(d, params.gameId);
 	const chosen = game.runners.find((r) => r.id === url.searchParams.get('runner'));
-	const blank: Runner = {
-		id: newId(),
-		name: '',
-		colourHex: '#808080',
-		cmyk: { c: 0, m: 0, y: 0, k: 50 },
-		symbol: 'dot',
-		sortOrder: game.runners.length
-	};
+	const fresh = newRunnerDefaults(game);
+	const blank: Runner = { id: newId(), name: '', ...fresh, cmyk: await pressCmykOf(fresh.colourHex) };
 	const editing = chosen ?? (url.searchParams.has('new') || game.runners.length === 0 ? blank : game.runners[0]);
 	return {
 		runners: game.runners,
 		rogue: game.rogueRunner ?? null,
 		isNew: !chosen && editing === blank,
+		pressColourNote: PRESS_COLOUR_NOTE,
+		/** What uses each runner: a runner can be deleted only when nothing does. */
+		usedBy: Object.fromEntries(game.runners.map((r) => [r.id, usersOf(game, { collection: 'runner', id: r.id })])),
 		form: await superValidate(editing, zod4(RunnerSchema), { errors: false }),
-		rogueForm: await superValidate(game.rogueRunner ?? blankRogue(), zod4(RogueRunnerSchema), { id: 'rogue', errors: false })
+		rogueForm: await superValidate(game.rogueRunner ?? (await blankRogue()), zod4(RogueRunnerSchema), { id: 'rogue', errors: false })
 	};
 };
 
-const blankRogue = (): RogueRunner => ({
+const blankRogue = async (): Promise<RogueRunner> => ({
 	id: newId(),
 	name: '',
 	colourHex: '#3a3a3a',
-	cmyk: { c: 0, m: 0, y: 0, k: 80 },
+	cmyk: await pressCmykOf('#3a3a3a'),
 	symbol: 'cross'
 });
 
@@ -53,7 +53,7 @@ export const actions = {
 			if (e instanceof StoreError) return message(form, e.message, { status: e.status });
 			throw e;
 		}
-		return message(form, 'Saved.');
+		return message(form, { text: 'Saved.', tone: 'success' as const });
 	},
 	delete: (event) => deleteObjectAction(event, 'runner')
 };
