@@ -17,8 +17,9 @@ import * as kindRows from './role-rows/kinds';
 import * as dailyRows from './role-rows/daily';
 import * as publicRows from './role-rows/public-pages';
 import * as coverageRows from './role-rows/coverage';
+import * as oddsRows from './role-rows/odds';
 
-const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...proofPages.rows, ...printRows.rows, ...printRows.pageRows, ...artRows.rows, ...kindRows.rows, ...dailyRows.rows, ...publicRows.rows, ...coverageRows.rows, ...foundation.lastRows];
+const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...proofPages.rows, ...printRows.rows, ...printRows.pageRows, ...artRows.rows, ...kindRows.rows, ...dailyRows.rows, ...publicRows.rows, ...coverageRows.rows, ...oddsRows.rows, ...foundation.lastRows];
 
 let world: World;
 beforeAll(async () => {

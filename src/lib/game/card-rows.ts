@@ -51,7 +51,8 @@ export function cardColumns(kind: Pick<CardKind, 'type' | 'fields'>): Column[] {
 					col('toSharedDeck', 'To shared deck', true),
 					col('faceUp', 'Face up', true),
 					col('extraFromDeck', 'Extra', true),
-					col('trackLength', 'Track tiles', true)
+					col('trackLength', 'Track tiles', true),
+					col('rogueToDeck', 'Rogue to deck', true)
 				];
 			case 'modifier':
 				return [col('modifierName', 'Token'), col('steps', 'Steps', true), col('effectText', 'Effect')];

@@ -107,7 +107,7 @@ describe('csv import errors', () => {
 		);
 		expect(tiles.errors[0]).toMatchObject({ line: 2, column: 'role' });
 		const setups = importCardsCsv(
-			`${csvColumns(kind('kd-setup')).join(',')}\nS,1,1,5,3,8,2,2,14`,
+			`${csvColumns(kind('kd-setup')).join(',')}\nS,1,1,5,3,8,2,2,14,0`,
 			kind('kd-setup'),
 			ctx
 		);

@@ -52,13 +52,15 @@ const DATA_COLUMNS: Record<Exclude<CardKindType, 'custom'>, readonly string[]> =
 	movement: ['runner', 'steps'],
 	rogue: ['steps'],
 	wager: ['betType', 'runner', 'tier', 'moneyTable'],
-	setup: ['players', 'handSize', 'discards', 'toSharedDeck', 'faceUp', 'extraFromDeck', 'trackLength'],
+	setup: ['players', 'handSize', 'discards', 'toSharedDeck', 'faceUp', 'extraFromDeck', 'trackLength', 'rogueToDeck'],
 	modifier: ['modifierName', 'effectText', 'steps'],
 	tile: ['number', 'role', 'spacesFront', 'spacesBack', 'backLabel']
 };
 
 /** Columns whose cells may be left empty. */
 const OPTIONAL_TEXT = new Set(['effectText', 'backLabel']);
+/** Columns added after files were already in use: a file may leave them out (or a cell empty). */
+const OPTIONAL_COLUMNS = new Set(['rogueToDeck']);
 
 export function csvColumns(kind: Pick<CardKind, 'type' | 'fields'>): string[] {
 	const data = kind.type === 'custom' ? kind.fields : DATA_COLUMNS[kind.type];
@@ -88,7 +90,8 @@ function rowOf(card: Card, ctx: CsvContext): Record<string, string | number> {
 				toSharedDeck: d.toSharedDeck,
 				faceUp: d.faceUp,
 				extraFromDeck: d.extraFromDeck,
-				trackLength: d.trackLength
+				trackLength: d.trackLength,
+				rogueToDeck: d.rogueToDeck ?? ''
 			};
 		case 'modifier':
 			return { ...base, modifierName: d.name, effectText: d.effectText, steps: d.steps };
@@ -173,7 +176,7 @@ export function importCardsCsv(text: string, kind: CardKind, ctx: CsvContext): C
 		else if (index.has(known)) errors.push({ line: 1, column: h, message: `Column “${h}” appears twice` });
 		else index.set(known, i);
 	});
-	for (const c of expected) if (!index.has(c)) errors.push({ line: 1, column: c, message: `Missing column “${c}”` });
+	for (const c of expected) if (!index.has(c) && !OPTIONAL_COLUMNS.has(c)) errors.push({ line: 1, column: c, message: `Missing column “${c}”` });
 	if (errors.length > 0) return fail();
 	if (records.length === 1) {
 		errors.push({ line: 1, message: 'The file has a header but no data rows' });
@@ -195,6 +198,7 @@ export function importCardsCsv(text: string, kind: CardKind, ctx: CsvContext): C
 			continue;
 		}
 		const cell = (col: string) => {
+			if (!index.has(col)) return '';
 			const raw = cells[index.get(col)!];
 			return FORMULA_ESCAPED.test(raw) ? raw.slice(1) : raw;
 		};
@@ -247,7 +251,9 @@ export function importCardsCsv(text: string, kind: CardKind, ctx: CsvContext): C
 				candidate = { betType: text('betType'), runnerId: runner('runner'), tier: num('tier'), moneyTableId: table('moneyTable') };
 				break;
 			case 'setup':
-				candidate = Object.fromEntries(DATA_COLUMNS.setup.map((c) => [c, num(c)]));
+				candidate = Object.fromEntries(
+					DATA_COLUMNS.setup.filter((c) => !(OPTIONAL_COLUMNS.has(c) && cell(c).trim() === '')).map((c) => [c, num(c)])
+				);
 				break;
 			case 'modifier':
 				candidate = { name: text('modifierName'), effectText: text('effectText'), steps: num('steps') };

@@ -14,6 +14,7 @@ import {
 	CardSchema,
 	GAME_FORMAT_VERSION,
 	MoneyTableSchema,
+	RaceRulesSchema,
 	RogueRunnerSchema,
 	RunnerSchema,
 	findReferenceProblems,
@@ -53,7 +54,9 @@ const NOUN: Record<Collection, string> = {
 	art: 'art piece'
 };
 
-export const SettingsSchema = z.object({ rogueRunner: RogueRunnerSchema.optional() });
+/** Game-wide settings: the rogue runner and the race rules the odds lab plays by. */
+export const SettingsSchema = z.object({ rogueRunner: RogueRunnerSchema.optional(), raceRules: RaceRulesSchema.optional() });
+type Settings = z.infer<typeof SettingsSchema>;
 
 /** A refusal with an HTTP status and a message for people; `current` is the newer object on 409. */
 export class StoreError extends Error {
@@ -96,9 +99,10 @@ export async function loadGame(db: Conn, gameId: string): Promise<Game> {
 		art: [],
 		version: game.version
 	};
-	const rogue = settings ? SettingsSchema.parse(settings.data).rogueRunner : undefined;
+	const stored = settings ? SettingsSchema.parse(settings.data) : {};
 	// The rogue runner is saved with the settings, so it carries their version.
-	if (rogue) doc.rogueRunner = { ...rogue, version: settings.version };
+	if (stored.rogueRunner) doc.rogueRunner = { ...stored.rogueRunner, version: settings!.version };
+	if (stored.raceRules) doc.raceRules = stored.raceRules;
 	for (const row of rows) {
 		(doc[COLLECTION_FIELD[row.collection]] as unknown[]).push({ ...row.data, version: row.version });
 	}
@@ -264,14 +268,21 @@ export async function applyChanges(
 	});
 }
 
-const stripRogueVersion = (s: z.infer<typeof SettingsSchema>) =>
-	s.rogueRunner ? { rogueRunner: stripVersion(s.rogueRunner) } : {};
+/** Settings as stored: no versions inside, absent keys left out. */
+const storedSettings = (s: Settings) => ({
+	...(s.rogueRunner ? { rogueRunner: stripVersion(s.rogueRunner) } : {}),
+	...(s.raceRules ? { raceRules: s.raceRules } : {})
+});
 
-/** Replaces the game's settings (the rogue runner), version-checked like an object. */
+/**
+ * Changes the game's settings, version-checked like an object. Each key given replaces the stored
+ * one (given as undefined: removed); keys not given are kept, so the rogue runner's form and the
+ * race rules' form do not undo each other.
+ */
 export async function saveSettings(
 	db: Db,
 	gameId: string,
-	settings: z.infer<typeof SettingsSchema>,
+	settings: Settings,
 	baseVersion: number | null,
 	by: { userId: string; teamId: string }
 ) {
@@ -281,10 +292,11 @@ export async function saveSettings(
 		if (baseVersion !== null && baseVersion !== current) {
 			throw new StoreError(409, 'Someone changed these settings after you opened them; reload to see theirs.');
 		}
+		const merged = storedSettings({ ...(row ? SettingsSchema.parse(row.data) : {}), ...settings });
 		if (row) {
-			await tx.update(gameSettings).set({ data: stripRogueVersion(settings), version: current + 1 }).where(eq(gameSettings.gameId, gameId));
+			await tx.update(gameSettings).set({ data: merged, version: current + 1 }).where(eq(gameSettings.gameId, gameId));
 		} else {
-			await tx.insert(gameSettings).values({ gameId, data: stripRogueVersion(settings), version: 1 });
+			await tx.insert(gameSettings).values({ gameId, data: merged, version: 1 });
 		}
 		const game = await loadGame(tx, gameId);
 		const problems = findReferenceProblems(game).map((p) => p.message);
@@ -297,8 +309,8 @@ export async function saveSettings(
 /** Writes a whole game document into an existing (empty) game: the import and seed path. */
 export async function writeGameContent(db: Db, gameId: string, game: Game, userId: string | null) {
 	await db.transaction(async (tx) => {
-		if (game.rogueRunner) {
-			await tx.insert(gameSettings).values({ gameId, data: { rogueRunner: stripVersion(game.rogueRunner) } });
+		if (game.rogueRunner || game.raceRules) {
+			await tx.insert(gameSettings).values({ gameId, data: storedSettings({ rogueRunner: game.rogueRunner, raceRules: game.raceRules }) });
 		}
 		const rows = (Object.keys(COLLECTION_FIELD) as Collection[]).flatMap((collection) =>
 			(game[COLLECTION_FIELD[collection]] as { id: string; version?: number }[]).map((obj, position) => ({

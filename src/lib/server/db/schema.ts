@@ -349,3 +349,25 @@ export const printerProfiles = pgTable('printer_profiles', {
 	version: integer('version').notNull().default(1),
 	createdAt: createdAt()
 });
+
+/* ------------------------------------------------------------------ odds lab */
+
+/** A stage scenario kept by name per game, with the answer of its last run. */
+export const oddsScenarios = pgTable(
+	'odds_scenarios',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		gameId: uuid('game_id')
+			.notNull()
+			.references(() => games.id, { onDelete: 'cascade' }),
+		name: text('name').notNull(),
+		/** The scenario as src/lib/odds/scenario.ts describes it. */
+		scenario: jsonb('scenario').$type<Record<string, unknown>>().notNull(),
+		/** The last answer (the API's JSON), null until it has been run. */
+		lastResult: jsonb('last_result').$type<Record<string, unknown>>(),
+		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: createdAt(),
+		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [uniqueIndex('odds_scenarios_game_name').on(t.gameId, t.name)]
+);
