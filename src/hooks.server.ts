@@ -1,18 +1,19 @@
 import type { Handle, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { authHandle } from '$lib/server/auth/authjs';
-import { startRuntime, db } from '$lib/server/runtime';
+import { startRuntime, db, StartupError } from '$lib/server/runtime';
 import { findUser } from '$lib/server/users';
 import { userForToken } from '$lib/server/api-tokens';
 import { apiError } from '$lib/server/api';
 import { DataDirLockedError } from '$lib/server/db/lock';
 import '$lib/schemas/messages';
+import { DatabaseUnreachableError } from '$lib/server/db';
 
 export const init: ServerInit = async () => {
 	try {
 		await startRuntime();
 	} catch (e) {
-		if (e instanceof DataDirLockedError) {
+		if (e instanceof DataDirLockedError || e instanceof DatabaseUnreachableError || e instanceof StartupError) {
 			console.error(`Paddock cannot start: ${e.message}`);
 			process.exit(1);
 		}

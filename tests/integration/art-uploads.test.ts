@@ -1,20 +1,17 @@
 /**
  * Artwork uploads through the API route and the Art page's form actions: hostile files are
- * refused with their status and message and leave nothing behind (no file on disk, no row);
+ * refused with their status and message and leave nothing behind (no stored file, no row);
  * a valid file is stored once however often it is sent; a replace keeps the earlier file.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
-import { mkdtempSync, readdirSync, statSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { crc32 } from 'node:zlib';
 import { count, eq } from 'drizzle-orm';
 import { Jimp } from 'jimp';
 import { imageSize } from 'image-size';
-import { openWorld, superformJson, type World } from './harness';
+import { openWorld, superformJson, testStorage, type World } from './harness';
 import { as, g } from './role-table';
-import { useArtRoot } from '$lib/server/art-files';
+import { useStorage, storageFor, type Storage } from '$lib/server/storage';
 import { artFiles, artVersions, gameObjects, games } from '$lib/server/db/schema';
 import { loadGame } from '$lib/server/game-store';
 import * as uploadApi from '../../src/routes/api/v1/games/[gameId=id]/art/upload/+server';
@@ -22,13 +19,13 @@ import * as artFileApi from '../../src/routes/api/v1/games/[gameId=id]/art-files
 import * as artPage from '../../src/routes/(app)/games/[gameId=id]/art/+page.server';
 
 let w: World;
-let artDir: string;
+let store: Storage;
 
 beforeAll(async () => {
 	w = await openWorld();
-	// A directory of our own, empty at the start, so every file an upload writes can be seen.
-	artDir = mkdtempSync(join(tmpdir(), 'paddock-art-uploads-'));
-	useArtRoot(artDir);
+	// A store of our own, empty at the start, so every file an upload writes can be seen.
+	store = testStorage();
+	useStorage(store);
 });
 afterAll(async () => w?.close());
 
@@ -121,16 +118,6 @@ async function pageUpload(bytes: Uint8Array, fileName: string, fields: Record<st
 
 /* ---------------------------------------------------------- snapshot */
 
-function filesUnder(dir: string): string[] {
-	const out: string[] = [];
-	for (const name of readdirSync(dir)) {
-		const path = join(dir, name);
-		if (statSync(path).isDirectory()) out.push(...filesUnder(path).map((p) => `${name}/${p}`));
-		else out.push(name);
-	}
-	return out.sort();
-}
-
 async function snapshot() {
 	const [[files], [versions], [objects], [game]] = await Promise.all([
 		w.db.select({ n: count() }).from(artFiles),
@@ -138,7 +125,7 @@ async function snapshot() {
 		w.db.select({ n: count() }).from(gameObjects).where(eq(gameObjects.gameId, w.gameId)),
 		w.db.select({ version: games.version }).from(games).where(eq(games.id, w.gameId))
 	]);
-	return { artFiles: files.n, artVersions: versions.n, gameObjects: objects.n, gameVersion: game.version, disk: filesUnder(artDir) };
+	return { artFiles: files.n, artVersions: versions.n, gameObjects: objects.n, gameVersion: game.version, disk: (await store.list('art/')).map((k) => k.slice('art/'.length)) };
 }
 
 /* ------------------------------------------------------------- tests */
@@ -340,5 +327,26 @@ describe('valid uploads', () => {
 		const after = await loadGame(w.db, w.gameId);
 		expect(after.art.find((a) => a.id === first.id)?.assignment).toBeNull();
 		expect(after.art.find((a) => a.id === pebble.id)?.assignment).toEqual({ scope: 'kind', targetId: 'kd-setup', slot: 'backArt' });
+	});
+});
+
+describe('the file store out of reach', () => {
+	// A bucket address where nothing listens: every request to it fails to connect.
+	const unreachable = storageFor('s3://key:secret@paddock?endpoint=http%3A%2F%2F127.0.0.1%3A1&region=us-east-1', '');
+
+	it('uploads answer 503 and nothing is half-written: no row, no asset, no version', async () => {
+		const before = await snapshot();
+		useStorage(unreachable);
+		try {
+			const res = await apiUpload('artist', await png(64, 64, 0x224466ff), 'while-down.png');
+			expect(res.status).toBe(503);
+			expect(res.body.error.message).toMatch(/file store cannot be reached.*nothing was stored/i);
+			const page = await pageUpload(await png(64, 64, 0x224467ff), 'while-down-2.png', { status: 'sketch', place: '' });
+			expect(page.status).toBe(503);
+			expect(page.message).toMatch(/^Nothing was stored\. The file store cannot be reached/);
+		} finally {
+			useStorage(store);
+		}
+		expect(await snapshot()).toEqual(before);
 	});
 });

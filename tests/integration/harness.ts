@@ -5,14 +5,16 @@
  */
 import { isHttpError, isRedirect, isActionFailure } from '@sveltejs/kit';
 import { stringify } from 'devalue';
-import { openDatabase, type Db } from '$lib/server/db';
+import { openDatabase, connectDatabase, type Database, type Db } from '$lib/server/db';
 import { useRuntime, startMail } from '$lib/server/runtime';
 import { seedDemo, DEMO_ROLES, demoEmail } from '$lib/server/demo';
 import { findUserByEmail, createUser } from '$lib/server/users';
 import { createTeam } from '$lib/server/teams';
 import { games, type Role } from '$lib/server/db/schema';
-import { useArtRoot } from '$lib/server/art-files';
+import { useStorage, storageFor, type Storage } from '$lib/server/storage';
 import { mkdtempSync } from 'node:fs';
+import { randomUUID } from 'node:crypto';
+import pg from 'pg';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
@@ -35,8 +37,8 @@ export interface World {
 }
 
 export async function openWorld(): Promise<World> {
-	useArtRoot(mkdtempSync(join(tmpdir(), 'paddock-art-')));
-	const database = await openDatabase(null);
+	useStorage(testStorage());
+	const database = await openTestDatabase();
 	const mail = await startMail(database.db, null);
 	useRuntime(database, true);
 	await seedDemo(database.db);
@@ -62,6 +64,48 @@ export async function openWorld(): Promise<World> {
 		close: async () => {
 			await mail.stop?.();
 			await database.close();
+		}
+	};
+}
+
+/**
+ * A file store of its own, empty: a temp directory, or, when PADDOCK_TEST_STORAGE_URL names a
+ * bucket (the second pass), a fresh prefix in that bucket.
+ */
+export function testStorage(): Storage {
+	const bucket = process.env.PADDOCK_TEST_STORAGE_URL;
+	if (!bucket) return storageFor(null, mkdtempSync(join(tmpdir(), 'paddock-files-')));
+	const url = new URL(bucket);
+	url.pathname = `/${randomUUID()}`;
+	return storageFor(url.toString(), '');
+}
+
+/**
+ * In-memory PGlite, or, when PADDOCK_TEST_DATABASE_URL names a PostgreSQL server (the second
+ * pass of the suite), a database of its own on that server, dropped when the world closes.
+ */
+export async function openTestDatabase(migrationsFolder?: string): Promise<Database> {
+	const server = process.env.PADDOCK_TEST_DATABASE_URL;
+	if (!server) return openDatabase(null, migrationsFolder);
+	const name = `paddock_test_${randomUUID().replaceAll('-', '')}`;
+	const admin = async (sql: string) => {
+		const client = new pg.Client(server);
+		await client.connect();
+		try {
+			await client.query(sql);
+		} finally {
+			await client.end();
+		}
+	};
+	await admin(`create database ${name}`);
+	const url = new URL(server);
+	url.pathname = `/${name}`;
+	const database = await connectDatabase(url.toString(), { poolSize: 4, migrationsFolder });
+	return {
+		...database,
+		close: async () => {
+			await database.close();
+			await admin(`drop database ${name} with (force)`);
 		}
 	};
 }

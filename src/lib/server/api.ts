@@ -17,7 +17,8 @@ const CODES: Record<number, string> = {
 	415: 'unsupported_media_type',
 	422: 'invalid',
 	429: 'too_many_requests',
-	500: 'internal'
+	500: 'internal',
+	503: 'unavailable'
 };
 
 export class ApiError extends Error {
@@ -49,8 +50,9 @@ export function api<H extends RequestHandler<any, any>>(handler: H): H {
 			if (e instanceof ApiError) return apiError(e.status, e.message, e.code, e.details);
 			if (isHttpError(e)) return apiError(e.status, e.body.message);
 			if (isRedirect(e)) throw e;
-			// Domain refusals (TeamError and the like) carry a 4xx status and a message for people.
-			if (e instanceof Error && 'status' in e && typeof e.status === 'number' && e.status < 500) {
+			// Domain refusals (TeamError and the like) carry a 4xx status and a message for people;
+			// 503 says a store is out of reach and the request may be tried again.
+			if (e instanceof Error && 'status' in e && typeof e.status === 'number' && (e.status < 500 || e.status === 503)) {
 				// A refused stale save carries the newer object, so the client can show it.
 				const current = 'current' in e && e.current !== undefined ? { current: e.current } : undefined;
 				return apiError(e.status, e.message, undefined, current);

@@ -9,7 +9,8 @@ import { requireGameRole } from './guard';
 import { requireProof } from './proof-access';
 import { snapshotOf } from './proofs';
 import { artHistory } from './game-io';
-import { readArtFile, readArtThumbnail } from './art-files';
+import { openArtFile } from './art-files';
+import { streamBody } from './storage';
 import { artFiles } from './db/schema';
 import type { Db } from './db';
 import { db } from './runtime';
@@ -17,10 +18,12 @@ import { db } from './runtime';
 async function artFileResponse(d: Db, sha: string, thumb: boolean) {
 	const [file] = await d.select().from(artFiles).where(eq(artFiles.sha256, sha));
 	if (!file) throw new ApiError(404, 'No such art file');
-	const { bytes, mime } = thumb ? await readArtThumbnail(sha) : { bytes: await readArtFile(sha), mime: undefined };
-	return new Response(Buffer.from(bytes), {
+	// Streamed from the store as it is sent, never held whole in memory.
+	const stored = await openArtFile(sha, thumb);
+	return new Response(streamBody(stored), {
 		headers: {
-			'content-type': mime ?? file.mime,
+			'content-type': stored.thumbnail ? 'image/png' : file.mime,
+			'content-length': String(stored.bytes),
 			// Content-addressed: the bytes behind this URL never change.
 			'cache-control': 'private, max-age=31536000, immutable',
 			'x-content-type-options': 'nosniff',

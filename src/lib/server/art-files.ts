@@ -1,37 +1,18 @@
 /**
- * Art files on disk, content-addressed under the data directory (never under static/): each file
- * is stored once, named by its SHA-256, and served only through authorised routes.
+ * Art files, content-addressed in the file store (the data directory or a bucket, never under
+ * static/): each file is stored once, named by its SHA-256, and served only through authorised routes.
  */
-import { mkdir, readFile, writeFile, rename, access } from 'node:fs/promises';
-import { join } from 'node:path';
 import { createHash } from 'node:crypto';
 import type { Db } from './db';
 import { artFiles } from './db/schema';
-import { config } from './config';
+import { storage, artKey, StorageMissingError, type StoredFile } from './storage';
 
 export const sha256Of = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
 
-let artRoot = join(config.dataDir, 'art');
-
-/** Tests keep their files in a directory of their own. */
-export function useArtRoot(dir: string) {
-	artRoot = dir;
-}
-
-const pathOf = (sha256: string, suffix = '') => join(artRoot, sha256.slice(0, 2), sha256 + suffix);
-
-async function writeOnce(path: string, bytes: Uint8Array) {
-	try {
-		await access(path);
-		return;
-	} catch {
-		/* not there yet */
-	}
-	await mkdir(join(path, '..'), { recursive: true });
-	const temp = `${path}.${process.pid}.tmp`;
-	await writeFile(temp, bytes);
-	await rename(temp, path);
-}
+const checked = (sha256: string) => {
+	if (!/^[0-9a-f]{64}$/.test(sha256)) throw new Error('Not an art file name');
+	return sha256;
+};
 
 export async function storeArtFile(
 	db: Db,
@@ -40,8 +21,9 @@ export async function storeArtFile(
 	thumbnail?: Uint8Array
 ): Promise<string> {
 	const sha256 = sha256Of(bytes);
-	await writeOnce(pathOf(sha256), bytes);
-	if (thumbnail) await writeOnce(pathOf(sha256, '.thumb.png'), thumbnail);
+	// Files first, the row last: a row never points at a file that is not there.
+	await storage().putOnce(artKey(sha256), bytes, meta.mime);
+	if (thumbnail) await storage().putOnce(artKey(sha256, '.thumb.png'), thumbnail, 'image/png');
 	await db
 		.insert(artFiles)
 		.values({
@@ -58,15 +40,17 @@ export async function storeArtFile(
 }
 
 export async function readArtFile(sha256: string): Promise<Uint8Array> {
-	if (!/^[0-9a-f]{64}$/.test(sha256)) throw new Error('Not an art file name');
-	return new Uint8Array(await readFile(pathOf(sha256)));
+	return storage().get(artKey(checked(sha256)));
 }
 
-/** The thumbnail when one was made, else the file itself. */
-export async function readArtThumbnail(sha256: string): Promise<{ bytes: Uint8Array; mime?: string }> {
-	try {
-		return { bytes: new Uint8Array(await readFile(pathOf(sha256, '.thumb.png'))), mime: 'image/png' };
-	} catch {
-		return { bytes: await readArtFile(sha256) };
+/** The file as a stream (downloads), with the thumbnail instead when asked and one was made. */
+export async function openArtFile(sha256: string, thumbnail = false): Promise<StoredFile & { thumbnail: boolean }> {
+	if (thumbnail) {
+		try {
+			return { ...(await storage().open(artKey(checked(sha256), '.thumb.png'))), thumbnail: true };
+		} catch (e) {
+			if (!(e instanceof StorageMissingError)) throw e;
+		}
 	}
+	return { ...(await storage().open(artKey(checked(sha256)))), thumbnail: false };
 }

@@ -19,6 +19,7 @@ import { ApiError, readBody } from './api';
 import { requireGameRole } from './guard';
 import { applyChanges, loadGame, StoreError, type Change } from './game-store';
 import { storeArtFile } from './art-files';
+import { StorageUnavailableError } from './storage';
 import { db } from './runtime';
 import { inspectArt, ArtRejected, MAX_ART_BYTES, type InspectedArt } from '$lib/art/inspect';
 import { describeAssignment, parsePlaceKey } from '$lib/art/placement';
@@ -152,7 +153,11 @@ export async function uploadArt(
 			.select({ last: max(artVersions.number) })
 			.from(artVersions)
 			.where(and(eq(artVersions.gameId, gameId), eq(artVersions.artId, object.id)));
-		await storeArtFile(t, inspected.bytes, inspected, inspected.thumbnail.bytes);
+		await storeArtFile(t, inspected.bytes, inspected, inspected.thumbnail.bytes).catch((e) => {
+			// The transaction rolls back: no row points at a file the store does not have.
+			if (e instanceof StorageUnavailableError) throw new StoreError(503, 'The file store cannot be reached right now, so nothing was stored. Try again in a moment.');
+			throw e;
+		});
 		const [version] = await tx
 			.insert(artVersions)
 			.values({ gameId, artId: object.id, number: (last ?? 0) + 1, sha256: inspected.sha256, fileName, uploadedBy: by.userId })

@@ -61,7 +61,7 @@ type Settings = z.infer<typeof SettingsSchema>;
 /** A refusal with an HTTP status and a message for people; `current` is the newer object on 409. */
 export class StoreError extends Error {
 	constructor(
-		readonly status: 400 | 404 | 409,
+		readonly status: 400 | 404 | 409 | 503,
 		message: string,
 		readonly current?: unknown
 	) {

@@ -2,7 +2,7 @@
  * The app's long-lived parts: the database, the mail path and the demo seed. Started once per
  * process (kept on globalThis so dev reloads reuse them) and closed on shutdown.
  */
-import { openDatabase, type Database, type Db } from './db';
+import { openConfiguredDatabase, type Database, type Db } from './db';
 import { caughtMail } from './db/schema';
 import { startCatcher } from './mail/catcher';
 import { configureMail } from './mail';
@@ -29,12 +29,21 @@ export async function startMail(db: Db, smtpUrl: string | null) {
 	return { catching: true, stop: catcher.stop };
 }
 
+/** Refusal to start with a message for the operator (printed without a stack, exit 1). */
+export class StartupError extends Error {}
+
 async function start(): Promise<Runtime> {
-	const database = await openDatabase(config.dataDir);
+	if (config.databaseUrl && !process.env.AUTH_SECRET) {
+		throw new StartupError(
+			'AUTH_SECRET must be set when DATABASE_URL is: every Paddock process signs and reads the same session cookies. ' +
+				'Make one with `openssl rand -base64 32` and give the same value to every process.'
+		);
+	}
+	const database = await openConfiguredDatabase(config.databaseUrl, config.dataDir);
 	const mail = await startMail(database.db, config.smtpUrl);
 	if (config.demo) {
 		const { seedDemo } = await import('./demo');
-		await seedDemo(database.db);
+		await database.exclusive(() => seedDemo(database.db));
 	}
 	const runtime: Runtime = { database, stopCatcher: mail.stop, catching: mail.catching };
 	const stop = async () => {

@@ -1,34 +1,53 @@
 /**
- * Opening the database: embedded PGlite in a data directory (or in memory for tests), with the
- * drizzle-kit migrations applied. The schema is plain PostgreSQL, so a PostgreSQL server behind
- * DATABASE_URL can take the same migrations when the app runs as several processes.
+ * Opening the database: embedded PGlite in a data directory (or in memory for tests), or a
+ * PostgreSQL server behind DATABASE_URL when the app runs as several processes. Both take the
+ * same schema and the same drizzle-kit migrations.
  */
 import { PGlite } from '@electric-sql/pglite';
-import { drizzle, type PgliteDatabase } from 'drizzle-orm/pglite';
-import { migrate } from 'drizzle-orm/pglite/migrator';
+import { drizzle as drizzlePglite } from 'drizzle-orm/pglite';
+import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator';
+import { drizzle as drizzlePg } from 'drizzle-orm/node-postgres';
+import { migrate as migratePg } from 'drizzle-orm/node-postgres/migrator';
+import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
+import pg from 'pg';
 import { resolve } from 'node:path';
 import * as schema from './schema';
 import { lockDataDir } from './lock';
+import { describeServerError, serverName } from './server-errors';
 
-export type Db = PgliteDatabase<typeof schema>;
+export type Db = PgDatabase<PgQueryResultHKT, typeof schema>;
 
 export interface Database {
 	db: Db;
+	/** 'server' when behind DATABASE_URL: shared with other processes. */
+	kind: 'embedded' | 'server';
+	/** Throws when the database does not answer (readiness checks). */
+	ping: () => Promise<void>;
+	/** Runs `work` while no other process runs its own (start-up steps such as the demo seed). */
+	exclusive: <T>(work: () => Promise<T>) => Promise<T>;
+	/** Applies the migrations of a folder (done at open; upgrade tests call it again). */
+	migrate: (migrationsFolder: string) => Promise<void>;
 	close: () => Promise<void>;
 }
 
 export const MIGRATIONS_DIR = resolve(process.env.PADDOCK_MIGRATIONS_DIR ?? 'drizzle');
 
 /** `dataDir: null` opens a throw-away in-memory database. */
-export async function openDatabase(dataDir: string | null): Promise<Database> {
+export async function openDatabase(dataDir: string | null, migrationsFolder = MIGRATIONS_DIR): Promise<Database> {
 	const release = dataDir ? lockDataDir(dataDir) : () => {};
 	try {
 		const client = dataDir ? new PGlite(resolve(dataDir, 'pg')) : new PGlite();
 		await client.waitReady;
-		const db = drizzle({ client, schema });
-		await migrate(db, { migrationsFolder: MIGRATIONS_DIR });
+		const db = drizzlePglite({ client, schema });
+		const migrate = (folder: string) => migratePglite(db, { migrationsFolder: folder });
+		await migrate(migrationsFolder);
 		return {
-			db,
+			db: db as unknown as Db,
+			kind: 'embedded',
+			ping: async () => void (await client.query('select 1')),
+			exclusive: (work) => work(),
+			migrate,
 			close: async () => {
 				await client.close();
 				release();
@@ -38,6 +57,70 @@ export async function openDatabase(dataDir: string | null): Promise<Database> {
 		release();
 		throw e;
 	}
+}
+
+/** Any number for pg_advisory_lock, the same in every process: "paddock start-up". */
+const START_LOCK = 7_461_829_301;
+
+export class DatabaseUnreachableError extends Error {}
+
+export interface ServerOptions {
+	/** Connections this process keeps open at most. */
+	poolSize?: number;
+	migrationsFolder?: string;
+}
+
+/**
+ * A PostgreSQL server: a connection pool, the migrations applied under an advisory lock so two
+ * processes starting at once never run them twice. Connection failures become one clear message
+ * naming the server (never the password).
+ */
+export async function connectDatabase(url: string, options: ServerOptions = {}): Promise<Database> {
+	const pool = new pg.Pool({
+		connectionString: url,
+		max: options.poolSize ?? Number(process.env.DATABASE_POOL_SIZE ?? 10),
+		connectionTimeoutMillis: 10_000,
+		idleTimeoutMillis: 30_000
+	});
+	// An idle connection dropped by the server must not take the process down.
+	pool.on('error', (e) => console.error(`Database connection lost (${serverName(url)}): ${e.message}`));
+	let client: pg.PoolClient;
+	try {
+		client = await pool.connect();
+	} catch (e) {
+		await pool.end().catch(() => {});
+		throw new DatabaseUnreachableError(describeServerError(url, e));
+	}
+	const db = drizzlePg({ client: pool, schema });
+	const exclusive = async <T>(work: (client: pg.PoolClient) => Promise<T>, held?: pg.PoolClient): Promise<T> => {
+		const c = held ?? (await pool.connect());
+		try {
+			await c.query('select pg_advisory_lock($1)', [START_LOCK]);
+			try {
+				return await work(c);
+			} finally {
+				await c.query('select pg_advisory_unlock($1)', [START_LOCK]);
+			}
+		} finally {
+			c.release();
+		}
+	};
+	const migrate = (folder: string, held?: pg.PoolClient) =>
+		exclusive((c) => migratePg(drizzlePg({ client: c, schema }), { migrationsFolder: folder }), held);
+	await migrate(options.migrationsFolder ?? MIGRATIONS_DIR, client);
+	return {
+		db: db as unknown as Db,
+		kind: 'server',
+		ping: async () => void (await db.execute(sql`select 1`)),
+		exclusive: (work) => exclusive(() => work()),
+		migrate: (folder) => migrate(folder),
+		close: () => pool.end()
+	};
+}
+
+/** DATABASE_URL when set, otherwise PGlite in the data directory. */
+export function openConfiguredDatabase(databaseUrl: string | null, dataDir: string): Promise<Database> {
+	return databaseUrl ? connectDatabase(databaseUrl) : openDatabase(dataDir);
 }
 
 export { schema };
