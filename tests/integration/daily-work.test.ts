@@ -99,3 +99,12 @@ describe('new-runner defaults', () => {
 		expect((await pressColour.GET(ev('artist', { path: '/?hex=red' }))).status).toBe(400);
 	});
 });
+
+describe('the readiness list', () => {
+	it('never blocks a proof, and the proof records it', async () => {
+		// Earlier tests left a runner without wager cards and a table one place short.
+		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'with warnings' });
+		const codes = p.readiness.map((r) => r.code);
+		expect(codes).toEqual(expect.arrayContaining(['no-wager', 'table-gap']));
+	});
+});

@@ -259,7 +259,9 @@ export const proofs = pgTable(
 		releasedBy: uuid('released_by').references(() => users.id, { onDelete: 'set null' }),
 		withdrawnAt: timestamp('withdrawn_at', { withTimezone: true }),
 		withdrawnBy: uuid('withdrawn_by').references(() => users.id, { onDelete: 'set null' }),
-		withdrawNote: text('withdraw_note')
+		withdrawNote: text('withdraw_note'),
+		/** The readiness list when the proof was cut: warnings never block, the proof keeps them. */
+		readiness: jsonb('readiness').$type<{ code: string; message: string }[]>().notNull().default([])
 	},
 	(t) => [uniqueIndex('proofs_game_number').on(t.gameId, t.number)]
 );

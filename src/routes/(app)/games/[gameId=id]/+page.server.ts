@@ -2,6 +2,7 @@ import { error } from '@sveltejs/kit';
 import { requireGameRole } from '$lib/server/guard';
 import { loadGame } from '$lib/server/game-store';
 import { checkDeck } from '$lib/game/deck-check';
+import { readiness } from '$lib/game/readiness';
 import { db } from '$lib/server/runtime';
 
 /** The overview: what the game holds, the deck check per player count, export and import. */
@@ -21,6 +22,7 @@ export const load = async ({ locals, params }) => {
 			art: game.art.length
 		},
 		rogue: game.rogueRunner?.name ?? null,
+		readiness: readiness(game),
 		deck
 	};
 };

@@ -3,6 +3,8 @@ import { requireGameRole, may } from '$lib/server/guard';
 import { proofsOf, verdictsOf, commentsOf, isReleased } from '$lib/server/proofs';
 import { users } from '$lib/server/db/schema';
 import { db } from '$lib/server/runtime';
+import { loadGame } from '$lib/server/game-store';
+import { readiness } from '$lib/game/readiness';
 
 /**
  * The game's proofs, newest first, with their state and a summary of the verdicts and open
@@ -44,6 +46,8 @@ export const load = async ({ locals, params }) => {
 	);
 	return {
 		proofs,
+		/** Shown before cutting: what the proof will record. */
+		readiness: may(role, 'proof.cut') ? readiness(await loadGame(d, params.gameId)) : [],
 		printerView: !reader,
 		can: { cut: may(role, 'proof.cut'), compare: reader }
 	};

@@ -61,6 +61,7 @@ export const load = async ({ locals, params }) => {
 		proof: header,
 		cards,
 		kinds: kindsOf(cards),
+		readiness: proof.readiness,
 		me: user.id,
 		muted,
 		can: {

@@ -1,0 +1,1 @@
+ALTER TABLE "proofs" ADD COLUMN "readiness" jsonb DEFAULT '[]'::jsonb NOT NULL;
