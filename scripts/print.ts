@@ -8,10 +8,14 @@
  *   npm run print -- --demo --pngs faces.zip
  *   npm run print -- --calibration --paper a4 --duplex short --out calibration.pdf
  */
-import { readFileSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { BundleError, readBundle } from '../src/lib/game/bundle';
-import { demoGameWithArt } from '../src/lib/demo/demo-art';
+import { demoArtPieces, demoGameWithArt } from '../src/lib/demo/demo-art';
+import { demoGame } from '../src/lib/demo/demo';
+import { hashOf } from '../src/lib/print/cache';
 import type { Game } from '../src/lib/game/model';
 import { buildCalibrationPdf } from '../src/lib/print/calibration';
 import { buildCardPressPdf, buildCardsPngZip, buildGamePdf, PNG_DPI_DEFAULT } from '../src/lib/print/job';
@@ -36,6 +40,31 @@ Sheet options (the same as the app's print page):
   --title TEXT --version-label TEXT              for the sheet label
 
 Sizes and bleed are common practice: confirm them with your print shop before a paid run.`;
+
+/**
+ * The demo game with its art, drawn once and kept (keyed by the drawings and the
+ * game they belong to) under node_modules/.cache, so a run does not redraw the same pictures every time.
+ */
+async function keptDemo(): Promise<{ game: Game; art: Map<string, Uint8Array> }> {
+	const key = hashOf([demoArtPieces().map((p) => [p.key, p.svg, p.widthPx]), demoGame()]).slice(0, 20);
+	// From scripts/ (source) and from build/ (compiled) alike, the project's node_modules/.cache.
+	const dir = fileURLToPath(new URL('../node_modules/.cache/paddock/', import.meta.url));
+	const file = join(dir, `demo-${key}.json`);
+	try {
+		const kept = JSON.parse(readFileSync(file, 'utf8')) as { game: Game; art: [string, string][] };
+		return { game: kept.game, art: new Map(kept.art.map(([sha, b64]) => [sha, new Uint8Array(Buffer.from(b64, 'base64'))])) };
+	} catch {
+		// Not made yet (or unreadable): draw it and keep it.
+	}
+	const made = await demoGameWithArt();
+	try {
+		mkdirSync(dir, { recursive: true });
+		writeFileSync(file, JSON.stringify({ game: made.game, art: [...made.art].map(([sha, b]) => [sha, Buffer.from(b).toString('base64')]) }));
+	} catch {
+		// A read-only checkout still prints; it just draws the art each time.
+	}
+	return made;
+}
 
 class UsageError extends Error {}
 /** Bad input that is not a misuse of the flags (a missing file): no usage text. */
@@ -121,7 +150,7 @@ async function main(argv: string[]): Promise<void> {
 	}
 
 	if (!!v.demo === !!v.bundle) fail('give exactly one of --demo and --bundle game.zip');
-	const { game, art } = v.demo ? await demoGameWithArt() : loadBundle(v.bundle!);
+	const { game, art } = v.demo ? await keptDemo() : loadBundle(v.bundle!);
 
 	if (v.pngs !== undefined) {
 		const dpi = v.dpi === undefined ? PNG_DPI_DEFAULT : Number(v.dpi);

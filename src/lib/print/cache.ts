@@ -5,11 +5,13 @@
  * Entries are laid-out faces (FaceLayout), their SVG text and PNG bytes, loaded art (SVG art
  * rasterised) and image pixels encoded for PDF. One LRU holds them all under one byte budget.
  * Keys are SHA-256 of a canonical JSON of the inputs plus `ENGINE_VERSION` and the built-in
- * layouts, so a new engine or a changed template never serves an old face.
+ * layouts, so a new engine or a changed template never serves an old face. The LRU itself is
+ * lru-cache, bounded by bytes.
  *
  * The cache lives in memory, one per process or worker thread (see ./pool.ts).
  */
 import { createHash } from 'node:crypto';
+import { LRUCache } from 'lru-cache';
 import type { Card, CardKind, Game } from '../game/model';
 import type { FaceLayout, ImageAsset } from './display-list';
 import { TEMPLATES } from './layout/index';
@@ -19,7 +21,7 @@ import type { EncodedImageStore, EncodedPixels } from './pdf-image';
 export const ENGINE_VERSION = 'paddock-print-1';
 
 /** The built-in layouts are inputs too: a changed template file changes every key. */
-const ENGINE_SALT = hashOf([ENGINE_VERSION, [...TEMPLATES.entries()]]);
+export const ENGINE_SALT = hashOf([ENGINE_VERSION, [...TEMPLATES.entries()]]);
 
 /** Default budget: room for a large game's faces and art without crowding a 1 GB host. */
 export const DEFAULT_CACHE_BYTES = 256 * 1024 * 1024;
@@ -44,23 +46,42 @@ export interface CacheStats extends Record<CacheArea, AreaStats> {
 interface Entry {
 	area: CacheArea;
 	value: unknown;
-	bytes: number;
 }
 
 /**
- * A least-recently-used map capped by bytes (each entry's size is estimated by its owner).
- * Map iteration order is insertion order, so re-inserting on use keeps the oldest first.
+ * A least-recently-used map capped by bytes (lru-cache's `maxSize`; each entry's size is
+ * estimated by its owner), with hit, miss and byte figures per area.
  */
 export class PrintCache implements EncodedImageStore {
-	private entries = new Map<string, Entry>();
-	private totalBytes = 0;
+	private lru: LRUCache<string, Entry>;
+	/** Sizes of the entries kept, for the per-area figures (lru-cache keeps only the total). */
+	private sizes = new Map<string, number>();
+	private areaBytes = Object.fromEntries(AREAS.map((a) => [a, 0])) as Record<CacheArea, number>;
+	private areaEntries = Object.fromEntries(AREAS.map((a) => [a, 0])) as Record<CacheArea, number>;
 	private evictions = 0;
 	private counters = Object.fromEntries(AREAS.map((a) => [a, { hits: 0, misses: 0 }])) as Record<
 		CacheArea,
 		{ hits: number; misses: number }
 	>;
 
-	constructor(private budget = DEFAULT_CACHE_BYTES) {}
+	constructor(private budget = DEFAULT_CACHE_BYTES) {
+		this.lru = this.makeLru(budget);
+	}
+
+	private makeLru(maxSize: number): LRUCache<string, Entry> {
+		return new LRUCache<string, Entry>({
+			maxSize,
+			// Sizes are given on each set.
+			sizeCalculation: () => 1,
+			dispose: (entry, key, reason) => {
+				if (reason === 'evict') this.evictions++;
+				const size = this.sizes.get(key) ?? 0;
+				this.sizes.delete(key);
+				this.areaBytes[entry.area] -= size;
+				this.areaEntries[entry.area]--;
+			}
+		});
+	}
 
 	get maxBytes(): number {
 		return this.budget;
@@ -68,44 +89,41 @@ export class PrintCache implements EncodedImageStore {
 
 	/** A new budget; entries beyond it go, least recently used first. */
 	resize(maxBytes: number): void {
+		const old = this.lru;
+		const kept = [...old.rkeys()].map((k) => [k, old.peek(k)!, this.sizes.get(k) ?? 0] as const);
 		this.budget = maxBytes;
-		this.trim();
+		this.lru = this.makeLru(maxBytes);
+		this.sizes.clear();
+		for (const a of AREAS) {
+			this.areaBytes[a] = 0;
+			this.areaEntries[a] = 0;
+		}
+		// Oldest first, so the most recent end up most recent again; the oldest go once over budget.
+		for (const [k, e, size] of kept) this.put(k, e, size);
 	}
 
-	private trim(): void {
-		for (const [k, e] of this.entries) {
-			if (this.totalBytes <= this.budget) break;
-			this.entries.delete(k);
-			this.totalBytes -= e.bytes;
-			this.evictions++;
-		}
+	private put(full: string, entry: Entry, bytes: number): void {
+		this.lru.delete(full);
+		// An entry larger than the whole budget is not kept.
+		if (bytes > this.budget || bytes <= 0) return;
+		this.sizes.set(full, bytes);
+		this.areaBytes[entry.area] += bytes;
+		this.areaEntries[entry.area]++;
+		this.lru.set(full, entry, { size: bytes });
 	}
 
 	lookup<T>(area: CacheArea, key: string): T | undefined {
-		const full = `${area}:${key}`;
-		const entry = this.entries.get(full);
+		const entry = this.lru.get(`${area}:${key}`);
 		if (!entry) {
 			this.counters[area].misses++;
 			return undefined;
 		}
 		this.counters[area].hits++;
-		this.entries.delete(full);
-		this.entries.set(full, entry);
 		return entry.value as T;
 	}
 
 	store<T>(area: CacheArea, key: string, value: T, bytes: number): T {
-		const full = `${area}:${key}`;
-		const old = this.entries.get(full);
-		if (old) {
-			this.totalBytes -= old.bytes;
-			this.entries.delete(full);
-		}
-		// An entry larger than the whole budget is returned but not kept.
-		if (bytes > this.budget) return value;
-		this.entries.set(full, { area, value, bytes });
-		this.totalBytes += bytes;
-		this.trim();
+		this.put(`${area}:${key}`, { area, value }, Math.max(1, Math.ceil(bytes)));
 		return value;
 	}
 
@@ -127,15 +145,10 @@ export class PrintCache implements EncodedImageStore {
 	}
 
 	stats(): CacheStats {
-		const areas = Object.fromEntries(AREAS.map((a) => [a, { ...this.counters[a], entries: 0, bytes: 0 }])) as Record<
-			CacheArea,
-			AreaStats
-		>;
-		for (const e of this.entries.values()) {
-			areas[e.area].entries++;
-			areas[e.area].bytes += e.bytes;
-		}
-		return { ...areas, bytes: this.totalBytes, maxBytes: this.maxBytes, evictions: this.evictions };
+		const areas = Object.fromEntries(
+			AREAS.map((a) => [a, { ...this.counters[a], entries: this.areaEntries[a], bytes: this.areaBytes[a] }])
+		) as Record<CacheArea, AreaStats>;
+		return { ...areas, bytes: this.lru.calculatedSize, maxBytes: this.maxBytes, evictions: this.evictions };
 	}
 
 	/** Zero the hit and miss counters (entries stay). */
@@ -145,8 +158,7 @@ export class PrintCache implements EncodedImageStore {
 	}
 
 	clear(): void {
-		this.entries.clear();
-		this.totalBytes = 0;
+		this.lru.clear();
 		this.resetStats();
 	}
 }

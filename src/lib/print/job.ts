@@ -25,7 +25,7 @@ import { checkPrintOptions, DEFAULT_MARGIN_MM, PrintOptionsError, SETS_MAX, toSh
 import { layoutFace, TEMPLATES } from './layout/index';
 import { paperSize, type PaperSpec } from './paper';
 import type { ColourMode } from './pdf';
-import { svgToPng } from './png';
+import { mmToPx, svgToPng } from './png';
 import { buildPressPdf } from './press';
 import { planSheets, type SheetFace } from './sheet-plan';
 import { buildSheetPdf } from './sheets';
@@ -436,6 +436,20 @@ const slug = (s: string) =>
 /** A fixed date keeps the zip's bytes the same for the same game (no clock in the output). */
 const ZIP_MTIME = new Date(2000, 0, 1);
 
+/** One share of a PNG zip's work: `index` of `count` (faces i with i % count === index). */
+export interface PngShard {
+	index: number;
+	count: number;
+}
+
+/** A part of a PNG zip: its faces' files and, from the first share, cards.csv and about.txt. */
+export interface PngPart {
+	files: [path: string, bytes: Uint8Array][];
+	warnings: string[];
+	/** Distinct face files in the whole zip. */
+	total: number;
+}
+
 /**
  * One PNG per card face with its bleed: `<kind>/<card>-front.png`, `<card>-back.png` for a
  * per-card back, `<kind>/back.png` for a kind's shared back; `cards.csv` lists which files make
@@ -446,14 +460,36 @@ export async function buildCardsPngZip(
 	art: ReadonlyMap<string, Uint8Array>,
 	options: PngZipOptions = {}
 ): Promise<{ zip: Uint8Array; files: number; warnings: string[] }> {
+	return zipPngParts([await renderPngPart(game, art, options)]);
+}
+
+/** The zip of every part's files (PNG is compressed already: stored as it is). */
+export function zipPngParts(parts: PngPart[]): { zip: Uint8Array; files: number; warnings: string[] } {
+	const files: Zippable = {};
+	const entries = parts.flatMap((p) => p.files).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
+	for (const [path, bytes] of entries) files[path] = [bytes, { level: path.endsWith('.png') ? 0 : 6, mtime: ZIP_MTIME }];
+	const pngs = entries.filter(([path]) => path.endsWith('.png')).length;
+	return { zip: zipSync(files), files: pngs, warnings: parts[0]?.warnings ?? [] };
+}
+
+/**
+ * The files of a PNG zip, or one share of them (`shard`), so several workers can draw the faces
+ * of one zip at once. Every share lays out the whole game (cheap, and cached); the first share
+ * also writes cards.csv and about.txt.
+ */
+export async function renderPngPart(
+	game: Game,
+	art: ReadonlyMap<string, Uint8Array>,
+	options: PngZipOptions & { shard?: PngShard } = {}
+): Promise<PngPart> {
 	const dpi = options.dpi ?? PNG_DPI_DEFAULT;
 	if (!Number.isInteger(dpi) || dpi < PNG_DPI_MIN || dpi > PNG_DPI_MAX)
 		throw new PrintOptionsError(`dpi is a whole number from ${PNG_DPI_MIN} to ${PNG_DPI_MAX}`);
+	const shard = options.shard ?? { index: 0, count: 1 };
 	const cache = options.cache ?? printCache;
 	const faces = await renderGameFaces(game, art, { kinds: options.kinds, cache });
 	if (!faces.cards.length) throw new PrintOptionsError('Nothing to export: the chosen card kinds have no cards with copies');
 
-	const files: Zippable = {};
 	const rows: Record<string, string | number>[] = [];
 	const written = new Set<string>();
 	const kindDirs = new Map<string, string>();
@@ -482,38 +518,35 @@ export async function buildCardsPngZip(
 		});
 	}
 	const unique = jobs.filter((j) => !written.has(j.path) && written.add(j.path));
-	const pixels = new Map<FaceLayout, string>();
+	const mine = unique.filter((_, i) => i % shard.count === shard.index);
+	const files: PngPart['files'] = [];
 	let done = 0;
-	for (const j of unique) {
-		const png = await cachedFacePng(j.face, j.key, faces.images, dpi, cache);
-		const size = imageSize(png);
-		pixels.set(j.face, `${size.width} × ${size.height} px`);
-		// PNG is compressed already: store it as it is.
-		files[j.path] = [png, { level: 0, mtime: ZIP_MTIME }];
-		options.onProgress?.(++done, unique.length);
+	for (const j of mine) {
+		files.push([j.path, await cachedFacePng(j.face, j.key, faces.images, dpi, cache)]);
+		options.onProgress?.(++done, mine.length);
 	}
-	files['cards.csv'] = [strToU8(Papa.unparse(rows)), { level: 6, mtime: ZIP_MTIME }];
-	const sizes = new Map<string, string>();
-	for (const c of faces.cards) {
-		const f = c.front;
-		sizes.set(
-			c.kindId,
-			`${c.kindKey}: ${fmtMm(f.trimWidthMm)} × ${fmtMm(f.trimHeightMm)} mm trim + ${fmtMm(f.bleedMm)} mm bleed each side, ` +
-				`${fmtMm(faceWidthMm(f))} × ${fmtMm(faceHeightMm(f))} mm = ${pixels.get(f)}`
-		);
+	if (shard.index === 0) {
+		files.push(['cards.csv', strToU8(Papa.unparse(rows))]);
+		const sizes = new Map<string, string>();
+		for (const c of faces.cards) {
+			const f = c.front;
+			// The rasteriser rounds each side on its own (./png.ts).
+			const px = `${mmToPx(faceWidthMm(f), dpi)} × ${mmToPx(faceHeightMm(f), dpi)} px`;
+			sizes.set(
+				c.kindId,
+				`${c.kindKey}: ${fmtMm(f.trimWidthMm)} × ${fmtMm(f.trimHeightMm)} mm trim + ${fmtMm(f.bleedMm)} mm bleed each side, ` +
+					`${fmtMm(faceWidthMm(f))} × ${fmtMm(faceHeightMm(f))} mm = ${px}`
+			);
+		}
+		const about = [
+			`${game.name}: card faces as PNG at ${dpi} dpi, each with its bleed on every side.`,
+			...sizes.values(),
+			'cards.csv lists the front and back file of every card and how many copies to print.',
+			'',
+			PRINT_SHOP_NOTE,
+			''
+		].join('\n');
+		files.push(['about.txt', strToU8(about)]);
 	}
-	files['about.txt'] = [
-		strToU8(
-			[
-				`${game.name}: card faces as PNG at ${dpi} dpi, each with its bleed on every side.`,
-				...sizes.values(),
-				'cards.csv lists the front and back file of every card and how many copies to print.',
-				'',
-				PRINT_SHOP_NOTE,
-				''
-			].join('\n')
-		),
-		{ level: 6, mtime: ZIP_MTIME }
-	];
-	return { zip: zipSync(files), files: unique.length, warnings: faces.warnings };
+	return { files, warnings: faces.warnings, total: unique.length };
 }

@@ -1,7 +1,7 @@
 import { beforeAll, afterAll, describe, expect, it } from 'vitest';
 import { demoGameWithArt } from '../demo/demo-art';
 import type { Game } from '../game/model';
-import type { GamePdfOptions } from './job';
+import { zipPngParts, type GamePdfOptions } from './job';
 import { PrintOptionsError } from './options';
 import { PrintBusyError, PrintPool } from './pool';
 import { pdfinfoBoxes, qpdfCheck } from './testing/poppler';
@@ -41,6 +41,7 @@ describe('PrintPool', () => {
 		expect(r.jobCache.layout.misses).toBeGreaterThan(0);
 
 		// The same game again goes to the same worker, whose cache has every face.
+		expect(r.workerId).toBeGreaterThan(0);
 		const again = await pool.run({ type: 'sheets', game: demo.game, art: demo.art, options: OPTIONS });
 		expect(again.workerId).toBe(r.workerId);
 		expect(again.jobCache.layout.misses).toBe(0);
@@ -56,13 +57,27 @@ describe('PrintPool', () => {
 		expect(zip.files).toBe(5);
 		// A zip file starts with a local file header, PK\3\4 (APPNOTE.TXT §4.3.7).
 		expect([...zip.bytes.subarray(0, 4)]).toEqual([0x50, 0x4b, 3, 4]);
+
+		// The same zip drawn in two shares on both workers at once: the same bytes.
+		const parts = await Promise.all(
+			[0, 1].map((index) =>
+				pool.run(
+					{ type: 'png-part', game: demo.game, art: demo.art, options: { kinds: ['kd-hazard'], shard: { index, count: 2 } } },
+					{ affinity: `png-${index}` }
+				)
+			)
+		);
+		expect(parts.map((p) => p.part!.files.filter(([f]) => f.endsWith('.png')).length)).toEqual([3, 2]);
+		const joined = zipPngParts(parts.map((p) => p.part!));
+		expect(joined.files).toBe(5);
+		expect(Buffer.from(joined.zip).equals(Buffer.from(zip.bytes))).toBe(true);
 	});
 
 	it('gives each worker the cache budget asked for', async () => {
 		const small = new PrintPool({ size: 1, cacheBytes: 4 << 20 });
 		try {
 			await small.run({ type: 'press', game: demo.game, art: demo.art, cardId: demo.game.cards[0].id, options: {} });
-			const [stats] = await small.cacheStats();
+			const stats = await small.cacheStats();
 			expect(stats.maxBytes).toBe(4 << 20);
 			expect(stats.bytes).toBeLessThanOrEqual(4 << 20);
 			expect(stats.layout.entries).toBe(2);
@@ -93,6 +108,17 @@ describe('PrintPool', () => {
 		expect(err).toBeInstanceOf(PrintOptionsError);
 		expect(err.status).toBe(400);
 		expect(err.message).toMatch(/no card kind “kd-missing”/);
+	});
+
+	it('starts every worker warm: fonts and wasm are loaded before the first job', async () => {
+		const fresh = new PrintPool({ size: 2 });
+		try {
+			await fresh.ready();
+			const stats = await fresh.cacheStats();
+			expect(stats.layout.entries).toBe(0);
+		} finally {
+			await fresh.close();
+		}
 	});
 
 	it('runs at most `size` builds at once and queues the rest; a full queue refuses', async () => {

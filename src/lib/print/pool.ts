@@ -1,20 +1,28 @@
 /**
- * Print jobs off the main thread: a small, long-lived pool of worker threads, each running the
+ * Print jobs off the main thread: a long-lived pool of worker threads (piscina), each running the
  * job functions of ./job.ts with its own print cache (./cache.ts). At most `size` builds run at
- * once (default 2, one per core of a small host); more wait in a queue, first come first served.
- * A rebuild of a game goes to the worker that built it last when that one is free, so its
- * cache still holds the faces and the art.
+ * once (default: one per core); up to `maxQueue` more wait, and past that `run` refuses with
+ * PrintBusyError (HTTP 503). A rebuild of a game goes to the worker that built it last when that
+ * one is free, so its cache still holds the faces and the art.
  *
- * Workers load ./worker.ts through tsx (TypeScript, no build step). Progress messages come back
- * while a job runs; the output bytes are transferred, not copied.
+ * The workers start with the pool and load the fonts and the WebAssembly rasteriser before they
+ * take a job (see ./worker.ts), so the first build after a start is not the slow one. They run
+ * at a lower scheduling priority than the server's own thread, so builds never starve requests.
+ *
+ * Callers see only `PrintRunner` (run, close), so the pool can be swapped for a queue elsewhere.
  */
 import { existsSync } from 'node:fs';
-import type { Worker } from 'node:worker_threads';
-import { resolveWorkerModule, startTsWorker, type TsWorkerData } from '../threads/ts-worker';
+import { availableParallelism } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { once } from 'node:events';
+import { MessageChannel, type MessagePort } from 'node:worker_threads';
+import { Piscina } from 'piscina';
 import type { Game } from '../game/model';
 import type { CacheArea, CacheStats } from './cache';
-import type { CardPressOptions, GamePdfOptions, PngZipOptions } from './job';
+import type { CardPressOptions, GamePdfOptions, PngPart, PngShard, PngZipOptions } from './job';
 import { PrintOptionsError } from './options';
+import { resolveWorkerModule, tsxEsmApi, type TsWorkerData } from '../threads/ts-worker';
 
 type Plain<T> = Omit<T, 'onProgress' | 'cache'>;
 
@@ -25,6 +33,8 @@ type Plain<T> = Omit<T, 'onProgress' | 'cache'>;
 export type PrintJob = { isolated?: boolean } & (
 	| { type: 'sheets'; game: Game; art: Map<string, Uint8Array>; options: Plain<GamePdfOptions> }
 	| { type: 'pngs'; game: Game; art: Map<string, Uint8Array>; options: Plain<PngZipOptions> }
+	/** One share of a PNG zip's faces, so every worker draws some (see `renderPngPart`). */
+	| { type: 'png-part'; game: Game; art: Map<string, Uint8Array>; options: Plain<PngZipOptions> & { shard: PngShard } }
 	| { type: 'press'; game: Game; art: Map<string, Uint8Array>; cardId: string; options: Plain<CardPressOptions> }
 );
 
@@ -38,6 +48,8 @@ export interface PrintJobResult {
 	pages?: number;
 	/** PNG zips: files in it. */
 	files?: number;
+	/** A share of a PNG zip: its files (`bytes` is then empty). */
+	part?: PngPart;
 	/** The worker's cache after the job (hits and misses count since its last reset). */
 	cache: CacheStats;
 	/** Hits and misses of this job alone, per cache area. */
@@ -46,13 +58,11 @@ export interface PrintJobResult {
 	ms: number;
 }
 
-/** Messages between the pool and a worker. */
-export type ToWorker = { id: number; kind: 'job'; job: PrintJob } | { id: number; kind: 'stats' } | { id: number; kind: 'clear' };
-export type FromWorker =
-	| { id: number; kind: 'progress'; done: number; total: number }
-	| { id: number; kind: 'done'; result: Omit<PrintJobResult, 'workerId'> }
-	| { id: number; kind: 'stats'; stats: CacheStats }
-	| { id: number; kind: 'error'; error: { name: string; message: string; status?: number } };
+/** What a worker task carries: a job, or a question about the worker's cache. */
+export type WorkerTask = { kind: 'job'; job: PrintJob; progress?: MessagePort } | { kind: 'stats' };
+export type ProgressMessage = { done: number; total: number };
+/** A job that failed in the worker, as data (an Error loses its name and status between threads). */
+export type WorkerFailure = { failed: { name: string; message: string; status?: number } };
 
 /** What a worker is started with. */
 export interface WorkerData extends TsWorkerData {
@@ -87,192 +97,198 @@ export interface RunOptions {
 	signal?: AbortSignal;
 }
 
-interface Waiting {
-	job: PrintJob;
-	options: RunOptions;
-	resolve: (r: PrintJobResult) => void;
-	reject: (e: unknown) => void;
+/** What the app needs of a print pool; another runner (a shared queue) can stand in. */
+export interface PrintRunner {
+	run(job: PrintJob, options?: RunOptions): Promise<PrintJobResult>;
+	close(): Promise<void>;
+}
+
+/** One per core: builds are CPU-bound. */
+export const DEFAULT_POOL_SIZE = Math.max(1, availableParallelism());
+export const DEFAULT_MAX_QUEUE = 16;
+/** Worker threads yield the CPU to the server's thread (Linux nice value; ignored elsewhere). */
+const WORKER_NICE = 10;
+
+/**
+ * Where the worker module is: beside this file when running from source (../threads/ts-worker.ts);
+ * the compiled worker (`npm run build` writes build/print-worker.js) once this file is bundled.
+ */
+export function resolveWorkerPath(explicit?: string): string {
+	const source = resolveWorkerModule(import.meta.url, 'worker.ts', 'src/lib/print/worker.ts', explicit);
+	if (explicit || isBeside(source)) return source;
+	let here: string | undefined;
+	try {
+		here = dirname(fileURLToPath(import.meta.url));
+	} catch {
+		// import.meta.url is not a file URL once bundled for some targets.
+	}
+	const compiled = [here && join(here, '..', '..', 'print-worker.js'), resolve(process.cwd(), 'build/print-worker.js')];
+	return compiled.find((c) => c && existsSync(c)) ?? source;
+}
+
+/** Whether a worker path is the source file beside this module (running from source). */
+function isBeside(path: string): boolean {
+	try {
+		return dirname(path) === dirname(fileURLToPath(import.meta.url));
+	} catch {
+		return false;
+	}
+}
+
+/** The worker's first module: plain JavaScript that loads the real worker (through tsx when it is TypeScript). */
+function entryFile(): string {
+	const here = (() => {
+		try {
+			return dirname(fileURLToPath(import.meta.url));
+		} catch {
+			return undefined;
+		}
+	})();
+	const candidates = [here && join(here, 'worker-entry.js'), resolve(process.cwd(), 'src/lib/print/worker-entry.js')];
+	const found = candidates.find((c) => c && existsSync(c));
+	if (!found) throw new Error('print worker entry (worker-entry.js) not found');
+	return found;
+}
+
+interface QueueOptions {
 	affinity: string;
 }
 
-interface Slot {
-	id: number;
-	worker: Worker;
-	busy?: { id: number; waiting: Waiting; started: number };
-	lastAffinity?: string;
-	/** Replies to stats / clear requests. */
-	calls: Map<number, (m: FromWorker) => void>;
-}
-
-export const DEFAULT_POOL_SIZE = 2;
-export const DEFAULT_MAX_QUEUE = 64;
-
-/** The print worker module (see ../threads/ts-worker.ts). */
-export function resolveWorkerPath(explicit?: string): string {
-	return resolveWorkerModule(import.meta.url, 'worker.ts', 'src/lib/print/worker.ts', explicit);
-}
-
-export class PrintPool {
+export class PrintPool implements PrintRunner {
 	readonly size: number;
 	readonly maxQueue: number;
 	readonly workerPath: string;
-	private cacheBytes?: number;
-	private slots: Slot[] = [];
-	private queue: Waiting[] = [];
-	private nextId = 1;
-	private nextWorker = 1;
-	private closed = false;
+	private piscina: Piscina<WorkerTask, unknown>;
+	/** The game each worker built last (by piscina's worker id). */
+	private lastAffinity = new Map<number, string>();
+	private inFlight = 0;
+	private warm: Promise<void>;
 
 	constructor(options: PrintPoolOptions = {}) {
 		this.size = Math.max(1, Math.floor(options.size ?? DEFAULT_POOL_SIZE));
 		this.maxQueue = Math.max(0, Math.floor(options.maxQueue ?? DEFAULT_MAX_QUEUE));
 		this.workerPath = resolveWorkerPath(options.workerPath);
-		this.cacheBytes = options.cacheBytes;
 		if (!existsSync(this.workerPath)) throw new Error(`print worker not found at ${this.workerPath}`);
+		const direct = this.workerPath.endsWith('.js');
+		const workerData: WorkerData = {
+			entry: pathToFileURL(this.workerPath).href,
+			tsx: direct ? undefined : tsxEsmApi(),
+			cacheBytes: options.cacheBytes
+		};
+		this.piscina = new Piscina({
+			filename: direct ? this.workerPath : entryFile(),
+			workerData,
+			// Every worker starts now and warms up; none is ever retired for idling.
+			minThreads: this.size,
+			maxThreads: this.size,
+			idleTimeout: Infinity,
+			maxQueue: this.maxQueue,
+			concurrentTasksPerWorker: 1,
+			// Idle workers wait on a message port, so a job's own async work is never parked.
+			atomics: 'disabled',
+			niceIncrement: WORKER_NICE,
+			loadBalancer: (task, workers) => {
+				const free = workers.filter((w) => w.currentUsage === 0 && !w.terminating && !w.destroyed);
+				if (!free.length) return null;
+				const affinity = ((task as unknown as Record<symbol, unknown>)[Piscina.queueOptionsSymbol] as QueueOptions | null)?.affinity;
+				const same = affinity ? free.find((w) => this.lastAffinity.get(w.id) === affinity) : undefined;
+				// Else a worker that holds no other game's cache, if there is one.
+				const pick = same ?? free.find((w) => !this.lastAffinity.has(w.id)) ?? free[0];
+				if (affinity) this.lastAffinity.set(pick.id, affinity);
+				return pick;
+			}
+		});
+		// A worker that failed to start must not bring the server down; its jobs fail instead.
+		this.piscina.on('error', (e) => console.error('print worker error:', e));
+		let warmed = 0;
+		this.warm = new Promise((resolve) => {
+			const onMessage = (m: unknown) => {
+				if ((m as { warm?: boolean })?.warm && ++warmed >= this.size) {
+					this.piscina.off('message', onMessage);
+					resolve();
+				}
+			};
+			this.piscina.on('message', onMessage);
+		});
 	}
 
 	/** Jobs running and waiting now. */
 	get running(): number {
-		return this.slots.filter((s) => s.busy).length;
+		return Math.min(this.size, this.inFlight - this.piscina.queueSize);
 	}
 	get waiting(): number {
-		return this.queue.length;
+		return this.piscina.queueSize;
+	}
+	/** Whether a new job would be refused now. */
+	get full(): boolean {
+		return this.inFlight >= this.size + this.maxQueue;
 	}
 
-	run(job: PrintJob, options: RunOptions = {}): Promise<PrintJobResult> {
-		if (this.closed) return Promise.reject(new Error('the print pool is closed'));
-		if (options.signal?.aborted) return Promise.reject(options.signal.reason ?? new Error('aborted'));
-		const idle = this.slots.some((s) => !s.busy) || this.slots.length < this.size;
-		if (!idle && this.queue.length >= this.maxQueue)
-			return Promise.reject(new PrintBusyError(`The print queue is full (${this.maxQueue} waiting); try again in a minute`));
-		return new Promise<PrintJobResult>((resolve, reject) => {
-			const waiting: Waiting = { job, options, resolve, reject, affinity: options.affinity ?? job.game.slug };
-			this.queue.push(waiting);
-			options.signal?.addEventListener(
-				'abort',
-				() => {
-					const at = this.queue.indexOf(waiting);
-					if (at >= 0) {
-						this.queue.splice(at, 1);
-						reject(options.signal!.reason ?? new Error('aborted'));
-					}
-				},
-				{ once: true }
-			);
-			this.dispatch();
-		});
+	/** Resolves once every worker has loaded its fonts and wasm (each says so when it is warm). */
+	ready(): Promise<void> {
+		return this.warm;
 	}
 
-	/** Each worker's cache figures (for the benchmark and tests). */
-	async cacheStats(): Promise<CacheStats[]> {
-		return Promise.all(
-			this.slots.map((s) =>
-				this.call(s, 'stats').then((m) => {
-					if (m.kind !== 'stats') throw new Error('a print worker stopped before answering');
-					return m.stats;
-				})
-			)
-		);
+	async run(job: PrintJob, options: RunOptions = {}): Promise<PrintJobResult> {
+		if (options.signal?.aborted) throw options.signal.reason ?? new Error('aborted');
+		const channel = options.onProgress ? new MessageChannel() : undefined;
+		// The worker closes its end when the job is over, after its last progress message.
+		const progressDone = channel ? once(channel.port1, 'close') : undefined;
+		if (channel) {
+			channel.port1.on('message', (m: ProgressMessage) => options.onProgress!(m.done, m.total));
+			channel.port1.unref();
+		}
+		const task = {
+			kind: 'job' as const,
+			job,
+			progress: channel?.port2,
+			[Piscina.queueOptionsSymbol]: { affinity: options.affinity ?? job.game.slug } satisfies QueueOptions
+		};
+		this.inFlight++;
+		let out: PrintJobResult | WorkerFailure;
+		try {
+			out = (await this.piscina.run(task, {
+				transferList: channel ? [channel.port2] : [],
+				signal: options.signal ?? null
+			})) as PrintJobResult | WorkerFailure;
+		} catch (e) {
+			channel?.port1.close();
+			if ((e as Error).message === 'Task queue is at limit') throw new PrintBusyError('The print queue is full; try again in a minute');
+			throw e;
+		} finally {
+			this.inFlight--;
+		}
+		await progressDone;
+		if ('failed' in out) throw reviveError(out.failed);
+		return out;
 	}
 
-	/** Empty every worker's cache (a cold start without new threads). */
-	async clearCaches(): Promise<void> {
-		await Promise.all(this.slots.map((s) => this.call(s, 'clear')));
+	/** One worker's cache figures (for the benchmark and tests; with one worker, that worker's). */
+	async cacheStats(): Promise<CacheStats> {
+		return (await this.piscina.run({ kind: 'stats' })) as CacheStats;
 	}
 
 	async close(): Promise<void> {
-		this.closed = true;
-		for (const w of this.queue.splice(0)) w.reject(new Error('the print pool is closed'));
-		await Promise.all(this.slots.map((s) => s.worker.terminate()));
-		this.slots = [];
-	}
-
-	private call(slot: Slot, kind: 'stats' | 'clear'): Promise<FromWorker> {
-		const id = this.nextId++;
-		return new Promise((resolve) => {
-			slot.calls.set(id, resolve);
-			slot.worker.postMessage({ id, kind } satisfies ToWorker);
-		});
-	}
-
-	private spawn(): Slot {
-		const worker = startTsWorker(this.workerPath, { cacheBytes: this.cacheBytes });
-		const slot: Slot = { id: this.nextWorker++, worker, calls: new Map() };
-		worker.on('message', (m: FromWorker) => this.onMessage(slot, m));
-		worker.on('error', (e) => this.onCrash(slot, e));
-		worker.on('exit', (code) => {
-			if (this.slots.includes(slot)) this.onCrash(slot, new Error(`print worker stopped (exit code ${code})`));
-		});
-		this.slots.push(slot);
-		return slot;
-	}
-
-	private dispatch(): void {
-		while (this.queue.length) {
-			let free = this.slots.filter((s) => !s.busy);
-			if (!free.length && this.slots.length < this.size) free = [this.spawn()];
-			if (!free.length) return;
-			// The first waiting job whose game a free worker has cached, else the oldest.
-			let pick = 0;
-			let slot = free[0];
-			const match = this.queue.findIndex((w) => free.some((s) => s.lastAffinity === w.affinity));
-			if (match >= 0) {
-				pick = match;
-				slot = free.find((s) => s.lastAffinity === this.queue[match].affinity)!;
-			} else {
-				// Otherwise a worker that holds no other game's cache, if there is one.
-				slot = free.find((s) => !s.lastAffinity) ?? free[0];
-			}
-			const [waiting] = this.queue.splice(pick, 1);
-			const id = this.nextId++;
-			slot.busy = { id, waiting, started: performance.now() };
-			slot.lastAffinity = waiting.affinity;
-			slot.worker.ref();
-			slot.worker.postMessage({ id, kind: 'job', job: waiting.job } satisfies ToWorker);
-		}
-	}
-
-	private onMessage(slot: Slot, m: FromWorker): void {
-		const call = slot.calls.get(m.id);
-		if (call) {
-			slot.calls.delete(m.id);
-			call(m);
-			return;
-		}
-		const busy = slot.busy;
-		if (!busy || busy.id !== m.id) return;
-		if (m.kind === 'progress') {
-			busy.waiting.options.onProgress?.(m.done, m.total);
-			return;
-		}
-		slot.busy = undefined;
-		// An idle worker must not keep a script's process alive.
-		slot.worker.unref();
-		if (m.kind === 'done') busy.waiting.resolve({ ...m.result, workerId: slot.id });
-		else if (m.kind === 'error') busy.waiting.reject(reviveError(m.error));
-		this.dispatch();
-	}
-
-	private onCrash(slot: Slot, error: Error): void {
-		this.slots = this.slots.filter((s) => s !== slot);
-		slot.busy?.waiting.reject(error);
-		for (const call of slot.calls.values()) call({ id: 0, kind: 'error', error: { name: error.name, message: error.message } });
-		void slot.worker.terminate();
-		if (!this.closed) this.dispatch();
+		await this.piscina.close({ force: true });
 	}
 }
 
-function reviveError(e: { name: string; message: string; status?: number }): Error {
+function reviveError(e: WorkerFailure['failed']): Error {
 	if (e.name === 'PrintOptionsError') return new PrintOptionsError(e.message, e.status);
-	const err = new Error(e.message);
-	err.name = e.name;
-	return err;
+	return Object.assign(new Error(e.message), { name: e.name, status: e.status });
 }
 
-let shared: PrintPool | undefined;
+const shared = globalThis as typeof globalThis & { __paddockPrintPool?: PrintPool };
 
-/** The process's long-lived pool (created on first use), so workers and their caches persist between builds. */
+/** The process's long-lived pool (created on first use, or at server start), so workers and their caches persist between builds. */
 export function printPool(options?: PrintPoolOptions): PrintPool {
-	shared ??= new PrintPool(options);
-	return shared;
+	shared.__paddockPrintPool ??= new PrintPool(options);
+	return shared.__paddockPrintPool;
+}
+
+/** Closes the process's pool, if one was started (server shutdown). */
+export async function closePrintPool(): Promise<void> {
+	const pool = shared.__paddockPrintPool;
+	shared.__paddockPrintPool = undefined;
+	await pool?.close();
 }

@@ -1,31 +1,33 @@
 /**
- * One print worker thread (started by ./pool.ts): runs the jobs of ./job.ts one at a time and
- * keeps this thread's print cache between them. Progress is posted at most every 100 ms; the
- * output's bytes are transferred to the caller.
+ * One print worker thread (started by ./pool.ts through piscina): runs the jobs of ./job.ts one
+ * at a time and keeps this thread's print cache between them. It loads the fonts and the
+ * WebAssembly rasteriser as it starts, before its first job, and tells the pool when it is warm.
+ * Progress goes out on the job's own port at most every 100 ms; the output's bytes are
+ * transferred to the caller, not copied.
  */
-import { parentPort, workerData } from 'node:worker_threads';
-import { CACHE_AREAS, printCache, PrintCache } from './cache';
-import { buildCardPressPdf, buildCardsPngZip, buildGamePdf } from './job';
-import type { FromWorker, PrintJob, PrintJobResult, ToWorker, WorkerData } from './pool';
-
-const port = parentPort;
-if (!port) throw new Error('worker.ts runs as a worker thread (see ./pool.ts)');
+import { parentPort, threadId, type MessagePort } from 'node:worker_threads';
+import { Piscina, workerData } from 'piscina';
+import { CACHE_AREAS, printCache, PrintCache, type CacheStats } from './cache';
+import { loadFonts } from './fonts';
+import { buildCardPressPdf, buildCardsPngZip, buildGamePdf, renderPngPart } from './job';
+import { resvgReady } from './png';
+import type { PrintJob, PrintJobResult, ProgressMessage, WorkerData, WorkerFailure, WorkerTask } from './pool';
 
 const PROGRESS_EVERY_MS = 100;
 
 const budget = (workerData as WorkerData | undefined)?.cacheBytes;
 if (budget) printCache.resize(budget);
 
-function post(message: FromWorker, transfer: ArrayBuffer[] = []) {
-	port!.postMessage(message, transfer);
-}
+// Warm before the first job: fonts decompressed and parsed, resvg's wasm compiled.
+await Promise.all([loadFonts(), resvgReady()]);
+parentPort?.postMessage({ warm: true });
 
 /** Bytes that own their whole buffer, so the buffer can be handed over without taking anything else. */
 function own(bytes: Uint8Array): Uint8Array {
 	return bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength ? bytes : bytes.slice();
 }
 
-async function run(id: number, job: PrintJob): Promise<Omit<PrintJobResult, 'workerId'>> {
+async function run(job: PrintJob, progress?: MessagePort): Promise<Omit<PrintJobResult, 'workerId'>> {
 	const started = performance.now();
 	const before = printCache.stats();
 	let last = 0;
@@ -33,7 +35,7 @@ async function run(id: number, job: PrintJob): Promise<Omit<PrintJobResult, 'wor
 		const now = performance.now();
 		if (done < total && now - last < PROGRESS_EVERY_MS) return;
 		last = now;
-		post({ id, kind: 'progress', done, total });
+		progress?.postMessage({ done, total } satisfies ProgressMessage);
 	};
 	const finish = (r: Omit<PrintJobResult, 'workerId' | 'cache' | 'jobCache' | 'ms' | 'type'>) => {
 		const after = printCache.stats();
@@ -58,6 +60,11 @@ async function run(id: number, job: PrintJob): Promise<Omit<PrintJobResult, 'wor
 			const out = await buildCardsPngZip(job.game, job.art, { ...job.options, ...isolation, onProgress });
 			return finish({ bytes: out.zip, warnings: out.warnings, files: out.files });
 		}
+		case 'png-part': {
+			// The PNGs stay in this worker's cache: they are copied out, not transferred.
+			const part = await renderPngPart(job.game, job.art, { ...job.options, ...isolation, onProgress });
+			return finish({ bytes: new Uint8Array(0), warnings: part.warnings, files: part.total, part });
+		}
 		case 'press': {
 			const out = await buildCardPressPdf(job.game, job.art, job.cardId, { ...job.options, ...isolation });
 			return finish({ bytes: out.pdf, warnings: out.warnings });
@@ -65,17 +72,18 @@ async function run(id: number, job: PrintJob): Promise<Omit<PrintJobResult, 'wor
 	}
 }
 
-port.on('message', async (m: ToWorker) => {
-	if (m.kind === 'stats') return post({ id: m.id, kind: 'stats', stats: printCache.stats() });
-	if (m.kind === 'clear') {
-		printCache.clear();
-		return post({ id: m.id, kind: 'stats', stats: printCache.stats() });
-	}
+export default async function task(t: WorkerTask): Promise<unknown> {
+	if (t.kind === 'stats') return printCache.stats() satisfies CacheStats;
 	try {
-		const result = await run(m.id, m.job);
-		post({ id: m.id, kind: 'done', result }, [result.bytes.buffer as ArrayBuffer]);
+		const result: PrintJobResult = { ...(await run(t.job, t.progress)), workerId: threadId };
+		// Hand the output's buffer over instead of copying it.
+		const handover = { [Piscina.transferableSymbol]: [result.bytes.buffer], [Piscina.valueSymbol]: result };
+		return Piscina.move(handover as unknown as Parameters<typeof Piscina.move>[0]);
 	} catch (e) {
+		// A thrown error crosses threads without its name and status: send them as data.
 		const err = e as Error & { status?: number };
-		post({ id: m.id, kind: 'error', error: { name: err.name ?? 'Error', message: err.message ?? String(e), status: err.status } });
+		return { failed: { name: err.name ?? 'Error', message: err.message ?? String(e), status: err.status } } satisfies WorkerFailure;
+	} finally {
+		t.progress?.close();
 	}
-});
+}

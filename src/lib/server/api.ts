@@ -21,6 +21,9 @@ const CODES: Record<number, string> = {
 	503: 'unavailable'
 };
 
+/** Seconds a client should wait after a 503 (a full print queue, a file store out of reach). */
+export const RETRY_AFTER_S = 30;
+
 export class ApiError extends Error {
 	constructor(
 		readonly status: number,
@@ -35,8 +38,9 @@ export class ApiError extends Error {
 export function apiError(status: number, message: string, code?: string, details?: unknown) {
 	return json(
 		{ error: { code: code ?? CODES[status] ?? 'error', message, ...(details ? { details } : {}) } },
-		// A refused body may be left unread: close the connection rather than reuse it.
-		{ status, headers: status === 413 ? { connection: 'close' } : {} }
+		// A refused body may be left unread: close the connection rather than reuse it. A busy
+		// server says when to come back (RFC 9110 §10.2.3).
+		{ status, headers: status === 413 ? { connection: 'close' } : status === 503 ? { 'retry-after': String(RETRY_AFTER_S) } : {} }
 	);
 }
 

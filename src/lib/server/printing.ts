@@ -151,6 +151,8 @@ function sweep() {
 /** Starts a sheet build for the print page and returns at once; progress is read with `jobState`. */
 export function startSheetJob(source: PrintSource, art: Map<string, Uint8Array>, options: GamePdfOptions): Job {
 	sweep();
+	// A full queue refuses now (503 with Retry-After) rather than as a failed job later.
+	if (printPool().full) throw new ApiError(503, 'The print queue is full; try again in a minute', 'busy');
 	const { onProgress: _ignored, ...plain } = options;
 	const job: Job = {
 		id: randomUUID(),

@@ -1,5 +1,5 @@
 /**
- * The app's long-lived parts: the database, the mail path and the demo seed. Started once per
+ * The app's long-lived parts: the database, the mail path, the demo seed and the print workers. Started once per
  * process (kept on globalThis so dev reloads reuse them) and closed on shutdown.
  */
 import { openConfiguredDatabase, type Database, type Db } from './db';
@@ -7,12 +7,17 @@ import { caughtMail } from './db/schema';
 import { startCatcher } from './mail/catcher';
 import { configureMail } from './mail';
 import { config } from './config';
+import { printPool, closePrintPool } from '$lib/print/pool';
+import { watchVitals } from './vitals';
 
 interface Runtime {
 	database: Database;
 	stopCatcher?: () => Promise<void>;
 	catching: boolean;
 }
+
+/** Each print worker's cache: enough for a large game's faces and art, small enough that the server stays lean. */
+const WORKER_CACHE_BYTES = 64 * 1024 * 1024;
 
 const slot = globalThis as typeof globalThis & { __paddock?: Promise<Runtime> };
 
@@ -45,8 +50,15 @@ async function start(): Promise<Runtime> {
 		const { seedDemo } = await import('./demo');
 		await database.exclusive(() => seedDemo(database.db));
 	}
+	// Print workers start now and load fonts and wasm, so the first build is not the slow one.
+	let printWarm = false;
+	void printPool({ cacheBytes: WORKER_CACHE_BYTES })
+		.ready()
+		.then(() => (printWarm = true));
+	watchVitals(() => ({ printWorkersWarm: printWarm }));
 	const runtime: Runtime = { database, stopCatcher: mail.stop, catching: mail.catching };
 	const stop = async () => {
+		await closePrintPool();
 		await runtime.stopCatcher?.();
 		await database.close();
 	};

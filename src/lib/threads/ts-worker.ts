@@ -51,7 +51,7 @@ const { workerData } = require('node:worker_threads');
 }
 
 /** tsx's ESM register API as a file URL (its `import` export; the CommonJS build cannot be imported). */
-function tsxEsmApi(): string {
+export function tsxEsmApi(): string {
 	const require = createRequire(import.meta.url);
 	const manifest = require.resolve('tsx/package.json');
 	const pkg = JSON.parse(readFileSync(manifest, 'utf8')) as { exports: Record<string, { import: { default: string } }> };

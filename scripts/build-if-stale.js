@@ -1,0 +1,34 @@
+// Builds the app (`npm run build`) when build/ is missing or older than its sources.
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { buildPrint } from './build-print.js';
+
+const root = new URL('..', import.meta.url).pathname;
+
+/** The newest modification time under a path (files and folders). */
+export function newest(path) {
+	const s = statSync(path);
+	if (!s.isDirectory()) return s.mtimeMs;
+	let max = s.mtimeMs;
+	for (const name of readdirSync(path)) max = Math.max(max, newest(join(path, name)));
+	return max;
+}
+
+/** Whether `output` is missing or older than any of `sources` (paths from the project root). */
+export function isStale(output, sources) {
+	const out = join(root, output);
+	return !existsSync(out) || Math.max(...sources.map((s) => newest(join(root, s)))) > statSync(out).mtimeMs;
+}
+
+const APP_SOURCES = ['src', 'static', 'templates', 'package.json', 'svelte.config.js', 'vite.config.ts'];
+
+export async function buildAppIfStale({ log = console.log } = {}) {
+	if (!isStale('build/index.js', APP_SOURCES)) return false;
+	log('Building Paddock…');
+	const built = spawnSync('npx', ['vite', 'build', '--logLevel', 'error'], { cwd: root, stdio: 'inherit' });
+	if (built.status !== 0) throw new Error(`the build failed (exit ${built.status})`);
+	// The print worker and CLI as plain JavaScript (no TypeScript loader in the server's threads).
+	await buildPrint({ quiet: true });
+	return true;
+}

@@ -1,0 +1,29 @@
+/**
+ * The server's own vital signs for whoever runs it: memory and event-loop delay (how late timers
+ * fire, i.e. how long the main thread was kept busy). Sent as one line on standard output when
+ * the process gets SIGUSR2, then the delay histogram starts over: nothing is exposed over HTTP.
+ */
+import { monitorEventLoopDelay } from 'node:perf_hooks';
+import { faceCacheStats } from './face-cache';
+
+const NS_PER_MS = 1e6;
+
+/** `more` adds figures of the caller's (e.g. whether the print workers are warm). */
+export function watchVitals(more: () => Record<string, unknown> = () => ({})): void {
+	const loop = monitorEventLoopDelay({ resolution: 10 });
+	loop.enable();
+	process.on('SIGUSR2', () => {
+		const m = process.memoryUsage();
+		const ms = (ns: number) => Math.round((ns / NS_PER_MS) * 10) / 10;
+		const vitals = {
+			rssMb: Math.round(m.rss / 2 ** 20),
+			heapMb: Math.round(m.heapUsed / 2 ** 20),
+			externalMb: Math.round(m.external / 2 ** 20),
+			loopDelayMs: { p50: ms(loop.percentile(50)), p99: ms(loop.percentile(99)), max: ms(loop.max) },
+			faceCache: faceCacheStats(),
+			...more()
+		};
+		console.log(`paddock-vitals ${JSON.stringify(vitals)}`);
+		loop.reset();
+	});
+}

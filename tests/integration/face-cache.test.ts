@@ -1,0 +1,86 @@
+/**
+ * Card faces are kept by what they are drawn from and revalidated with ETags (RFC 9110 §8.8.3,
+ * §13.1.2: If-None-Match answers 304 Not Modified with no body); a proof's faces never change,
+ * so they are sent `immutable` (RFC 8246).
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { openWorld, fakeEvent, type World } from './harness';
+import { applyChanges, loadGame } from '$lib/server/game-store';
+import { cutProof } from '$lib/server/proofs';
+import * as cardFace from '../../src/routes/api/v1/games/[gameId=id]/cards/[cardId]/face.svg/+server';
+import * as proofFace from '../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/cards/[cardId]/face.svg/+server';
+
+let w: World;
+beforeAll(async () => {
+	w = await openWorld();
+});
+afterAll(async () => w?.close());
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+const ev = (call: Parameters<typeof fakeEvent>[1]) => fakeEvent(w.callers.designer, call) as any;
+
+describe('working faces', () => {
+	it('carry an ETag; the same ETag back gives 304; a change to what the face prints gives a new one', async () => {
+		const game = await loadGame(w.db, w.gameId);
+		const card = game.cards.find((c) => c.data.type === 'movement')!;
+		const other = game.cards.find((c) => c.data.type === 'movement' && c.id !== card.id && c.kindId === card.kindId)!;
+		const params = { gameId: w.gameId, cardId: card.id };
+		const first = await cardFace.GET(ev({ params }));
+		expect(first.status).toBe(200);
+		const etag = first.headers.get('etag')!;
+		expect(etag).toMatch(/^"[0-9a-f]{32}"$/);
+		expect(first.headers.get('cache-control')).toContain('no-cache');
+		const svg = await first.text();
+		expect(svg).toContain('<svg');
+
+		const again = await cardFace.GET(ev({ params, headers: { 'if-none-match': etag } }));
+		expect(again.status).toBe(304);
+		expect(await again.text()).toBe('');
+		// Without the ETag: the same bytes, from the cache.
+		const plain = await cardFace.GET(ev({ params }));
+		expect(await plain.text()).toBe(svg);
+		// Other guides are another drawing.
+		const guided = await cardFace.GET(ev({ params, path: '/?guides=all', headers: { 'if-none-match': etag } }));
+		expect(guided.status).toBe(200);
+
+		// Saving another card bumps the game's version but leaves this face as it was: still 304.
+		await applyChanges(w.db, w.gameId, [{ collection: 'card', id: other.id, baseVersion: other.version, object: { ...other, version: undefined, name: `${other.name} (renamed)` } }], {
+			userId: w.callers.designer!.id,
+			teamId: w.teamId,
+			action: 'test'
+		});
+		expect((await cardFace.GET(ev({ params, headers: { 'if-none-match': etag } }))).status).toBe(304);
+
+		// Renaming this card changes what it prints: a new ETag and a new face.
+		await applyChanges(w.db, w.gameId, [{ collection: 'card', id: card.id, baseVersion: card.version, object: { ...card, version: undefined, name: 'Renamed runner card' } }], {
+			userId: w.callers.designer!.id,
+			teamId: w.teamId,
+			action: 'test'
+		});
+		const changed = await cardFace.GET(ev({ params, headers: { 'if-none-match': etag } }));
+		expect(changed.status).toBe(200);
+		expect(changed.headers.get('etag')).not.toBe(etag);
+		expect(await changed.text()).toContain('Renamed runner card');
+	});
+
+	it('an outsider gets no face and no 304, even with the right ETag', async () => {
+		const game = await loadGame(w.db, w.gameId);
+		const params = { gameId: w.gameId, cardId: game.cards[0].id };
+		const etag = (await cardFace.GET(ev({ params }))).headers.get('etag')!;
+		const res = await cardFace.GET(fakeEvent(w.callers.outsider, { params, headers: { 'if-none-match': etag } }) as never);
+		expect(res.status).toBe(404);
+	});
+});
+
+describe('proof faces', () => {
+	it('are immutable and revalidate to 304', async () => {
+		const game = await loadGame(w.db, w.gameId);
+		const proof = await cutProof(w.db, { gameId: w.gameId, userId: w.callers.designer!.id, userName: 'Dara', description: 'cache test' });
+		const params = { gameId: w.gameId, proofId: proof.id, cardId: game.cards[0].id };
+		const first = await proofFace.GET(ev({ params }));
+		expect(first.status).toBe(200);
+		expect(first.headers.get('cache-control')).toMatch(/immutable/);
+		const again = await proofFace.GET(ev({ params, headers: { 'if-none-match': first.headers.get('etag')! } }));
+		expect(again.status).toBe(304);
+	});
+});
