@@ -76,9 +76,9 @@ const objectWhere = (gameId: string, collection: Collection, id: string) =>
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Conn = Db | Tx;
 
-/** The whole game as one document, each object carrying its row version. */
-export async function loadGame(db: Conn, gameId: string): Promise<Game> {
-	const [game] = await db.select().from(games).where(eq(games.id, gameId));
+/** The whole game as one document, each object carrying its row version (`row`: the game row, when read already). */
+export async function loadGame(db: Conn, gameId: string, row?: typeof games.$inferSelect): Promise<Game> {
+	const [game] = row ? [row] : await db.select().from(games).where(eq(games.id, gameId));
 	if (!game) throw new StoreError(404, 'No such game');
 	const [settings] = await db.select().from(gameSettings).where(eq(gameSettings.gameId, gameId));
 	const rows = await db

@@ -7,6 +7,8 @@ import { error } from '@sveltejs/kit';
 import { and, eq } from 'drizzle-orm';
 import type { Db } from './db';
 import { memberships, games, type Role } from './db/schema';
+import { loadGame } from './game-store';
+import type { Game } from '$lib/game/model';
 
 export const PERMISSIONS = {
 	/** See the team, its members and its game list. */
@@ -67,18 +69,78 @@ export async function requireRole(
 	return { user, role };
 }
 
-/** As requireRole, for a game: finds its team first. 404 for games of other teams. */
-export async function requireGameRole(
-	db: Db,
-	locals: App.Locals,
-	gameId: string,
-	permission: Permission
-) {
+type GameRow = typeof games.$inferSelect;
+
+export interface GameAccess {
+	user: SignedIn;
+	role: Role;
+	game: GameRow;
+}
+
+/**
+ * What one request knows about a game: the caller's role and the game row (one query), and the
+ * whole game document once a page asks for it. Kept per `locals` object, which SvelteKit shares
+ * between the layout and page loads (and the action) of one request.
+ */
+interface RequestGame {
+	access: Promise<{ role: Role | null; game: GameRow } | null>;
+	doc?: Promise<Game>;
+}
+const perRequest = new WeakMap<App.Locals, Map<string, RequestGame>>();
+
+function requestGame(db: Db, locals: App.Locals, user: SignedIn, gameId: string): RequestGame {
+	let games_ = perRequest.get(locals);
+	if (!games_) perRequest.set(locals, (games_ = new Map()));
+	let entry = games_.get(gameId);
+	if (!entry) {
+		entry = { access: readAccess(db, user.id, gameId) };
+		games_.set(gameId, entry);
+	}
+	return entry;
+}
+
+/** The game row and the caller's role in its team, in one query. */
+async function readAccess(db: Db, userId: string, gameId: string) {
+	const [row] = await db
+		.select({ game: games, role: memberships.role })
+		.from(games)
+		.leftJoin(memberships, and(eq(memberships.teamId, games.teamId), eq(memberships.userId, userId)))
+		.where(eq(games.id, gameId));
+	return row ? { game: row.game, role: row.role } : null;
+}
+
+/** Permissions that only read: a request holding one of these writes nothing to the game. */
+const READS: ReadonlySet<Permission> = new Set(['team.read', 'game.read', 'release.read']);
+
+/**
+ * The caller's role in a game's team, if it allows `permission`; 401, 403 or 404 otherwise (404
+ * for games of other teams). Read once per request: the layout and the page share it. A write
+ * permission means the caller is about to change the game, so later reads in the same request
+ * read it afresh (or take the game the write handed back, see `keepSavedGame`).
+ */
+export async function requireGameRole(db: Db, locals: App.Locals, gameId: string, permission: Permission): Promise<GameAccess> {
 	const user = requireUser(locals);
-	const [game] = await db.select().from(games).where(eq(games.id, gameId));
-	if (!game) error(404, 'No such game');
-	const role = await roleIn(db, user.id, game.teamId);
-	if (!role) error(404, 'No such game');
+	const entry = requestGame(db, locals, user, gameId);
+	const found = await entry.access;
+	if (!found?.role) error(404, 'No such game');
+	const role = found.role;
 	if (!may(role, permission)) error(403, `A ${role} may not do this`);
-	return { user, role, game };
+	if (!READS.has(permission)) perRequest.get(locals)?.delete(gameId);
+	return { user, role, game: found.game };
+}
+
+/** As requireGameRole, with the whole game document (read once per request). */
+export async function requireGame(db: Db, locals: App.Locals, gameId: string, permission: Permission): Promise<GameAccess & { doc: Game }> {
+	const access = await requireGameRole(db, locals, gameId, permission);
+	const entry = requestGame(db, locals, access.user, gameId);
+	entry.doc ??= loadGame(db, gameId, access.game);
+	return { ...access, doc: await entry.doc };
+}
+
+/** After a save: the game as written is what the rest of this request reads. */
+export function keepSavedGame(locals: App.Locals, access: GameAccess, saved: Game): void {
+	const game = { ...access.game, version: saved.version ?? access.game.version };
+	const games_ = perRequest.get(locals) ?? new Map<string, RequestGame>();
+	perRequest.set(locals, games_);
+	games_.set(game.id, { access: Promise.resolve({ role: access.role, game }), doc: Promise.resolve(saved) });
 }

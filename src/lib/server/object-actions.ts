@@ -6,7 +6,7 @@
 import { fail, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGameRole } from './guard';
+import { keepSavedGame, requireGameRole } from './guard';
 import { applyChanges, loadGame, OBJECT_SCHEMAS, StoreError } from './game-store';
 import { editPermission } from './game-access';
 import type { Collection } from './db/schema';
@@ -26,7 +26,8 @@ export function savedNote(gameId: string, warnings: ReadinessItem[], what = 'Sav
 
 export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, collection: Collection) {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, event.locals, event.params.gameId, editPermission(collection));
+	const access = await requireGameRole(d, event.locals, event.params.gameId, editPermission(collection));
+	const { user, game } = access;
 	const form = await superValidate(event.request, zod4(OBJECT_SCHEMAS[collection]));
 	if (!form.valid) return fail(400, { form });
 	const { version, ...object } = form.data as { id: string; version?: number };
@@ -38,6 +39,8 @@ export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, 
 			[{ collection, id: object.id, baseVersion: version ?? null, object }],
 			{ userId: user.id, teamId: game.teamId, action: `${collection}.saved` }
 		);
+		const { saveWarnings: _warnings, ...savedGame } = saved;
+		keepSavedGame(event.locals, access, savedGame);
 	} catch (e) {
 		if (e instanceof StoreError) return message(form, { text: e.message, tone: 'error' } satisfies FormNote, { status: e.status });
 		throw e;

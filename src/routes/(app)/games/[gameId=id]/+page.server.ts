@@ -1,6 +1,4 @@
-import { error } from '@sveltejs/kit';
-import { requireGameRole } from '$lib/server/guard';
-import { loadGame } from '$lib/server/game-store';
+import { requireGame, requireGameRole } from '$lib/server/guard';
 import { checkDeck } from '$lib/game/deck-check';
 import { readiness } from '$lib/game/readiness';
 import { db } from '$lib/server/runtime';
@@ -10,8 +8,7 @@ export const load = async ({ locals, params }) => {
 	const d = await db();
 	const { role } = await requireGameRole(d, locals, params.gameId, 'release.read');
 	if (role === 'printer') return { printerOnly: true as const };
-	const game = await loadGame(d, params.gameId);
-	if (!game) error(404, 'No such game');
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const deck = checkDeck(game);
 	return {
 		printerOnly: false as const,

@@ -1,7 +1,6 @@
 import { and, desc, eq, lt } from 'drizzle-orm';
-import { requireGameRole } from '$lib/server/guard';
+import { requireGame } from '$lib/server/guard';
 import { activity, users } from '$lib/server/db/schema';
-import { loadGame } from '$lib/server/game-store';
 import { db } from '$lib/server/runtime';
 
 /** Lines per page; older ones follow with ?before=. */
@@ -10,7 +9,7 @@ const PAGE = 200;
 /** The game's activity log, newest first: who did what, and when. */
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
-	await requireGameRole(d, locals, params.gameId, 'game.read');
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const before = url.searchParams.get('before');
 	const beforeDate = before && !Number.isNaN(Date.parse(before)) ? new Date(before) : null;
 	const rows = await d
@@ -21,7 +20,7 @@ export const load = async ({ locals, params, url }) => {
 		.orderBy(desc(activity.createdAt), desc(activity.id))
 		.limit(PAGE + 1);
 	// Cards by the names they have now, for lines that name a card.
-	const cardNames = Object.fromEntries((await loadGame(d, params.gameId)).cards.map((c) => [c.id, c.name]));
+	const cardNames = Object.fromEntries(game.cards.map((c) => [c.id, c.name]));
 	return {
 		cardNames,
 		entries: rows.slice(0, PAGE),

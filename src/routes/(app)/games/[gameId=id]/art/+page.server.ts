@@ -1,7 +1,6 @@
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGameRole } from '$lib/server/guard';
-import { loadGame } from '$lib/server/game-store';
+import { requireGame } from '$lib/server/guard';
 import {
 	ArtPlacementSchema,
 	ReplaceFormSchema,
@@ -21,8 +20,7 @@ import { db } from '$lib/server/runtime';
 /** The game's art, where each piece prints and how sharp, its files over time, and the forms. */
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
-	await requireGameRole(d, locals, params.gameId, 'game.read');
-	const game = await loadGame(d, params.gameId);
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const gameId = params.gameId;
 	const checks = artPrintChecks(game, await loadFonts());
 	const versions = await artVersionsByArt(d, gameId);

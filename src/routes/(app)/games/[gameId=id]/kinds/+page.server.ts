@@ -1,8 +1,8 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGameRole } from '$lib/server/guard';
-import { applyChanges, loadGame, StoreError } from '$lib/server/game-store';
+import { requireGame, requireGameRole } from '$lib/server/guard';
+import { applyChanges, StoreError } from '$lib/server/game-store';
 import { db } from '$lib/server/runtime';
 import { cardCount } from '$lib/game/deck-check';
 import { bleedMm, newId } from '$lib/game/model';
@@ -12,8 +12,7 @@ import { NewKindSchema, type NewKind } from '$lib/schemas/kinds';
 /** The game's card kinds with their sizes and card counts, and the new-kind form. */
 export const load = async ({ locals, params }) => {
 	const d = await db();
-	await requireGameRole(d, locals, params.gameId, 'game.read');
-	const game = await loadGame(d, params.gameId);
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const kinds = game.kinds.map((k) => {
 		const cards = game.cards.filter((c) => c.kindId === k.id);
 		return {

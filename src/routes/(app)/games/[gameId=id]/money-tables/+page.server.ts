@@ -1,15 +1,13 @@
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGameRole } from '$lib/server/guard';
-import { loadGame } from '$lib/server/game-store';
+import { requireGame } from '$lib/server/guard';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/object-actions';
 import { db } from '$lib/server/runtime';
 import { MoneyTableSchema, newId, type MoneyTable } from '$lib/game/model';
 
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
-	await requireGameRole(d, locals, params.gameId, 'game.read');
-	const game = await loadGame(d, params.gameId);
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const chosen = game.moneyTables.find((t) => t.id === url.searchParams.get('table'));
 	const blank: MoneyTable = { id: newId(), name: '', rows: [{ place: 1, coins: 5 }], otherCoins: -1 };
 	const editing = chosen ?? (url.searchParams.has('new') || game.moneyTables.length === 0 ? blank : game.moneyTables[0]);

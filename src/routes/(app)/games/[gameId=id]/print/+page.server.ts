@@ -1,5 +1,4 @@
-import { requireGameRole, may } from '$lib/server/guard';
-import { loadGame } from '$lib/server/game-store';
+import { requireGame, requireGameRole, may } from '$lib/server/guard';
 import { profilesOf } from '$lib/server/printer-profiles';
 import { proofsOf, isReleased } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
@@ -16,7 +15,7 @@ export const load = async ({ locals, params }) => {
 		released: isReleased(p)
 	}));
 	const kinds = readsWorking
-		? (await loadGame(d, game.id)).kinds.map((k) => ({ id: k.id, name: k.name, widthMm: k.size.widthMm, heightMm: k.size.heightMm }))
+		? (await requireGame(d, locals, params.gameId, 'game.read')).doc.kinds.map((k) => ({ id: k.id, name: k.name, widthMm: k.size.widthMm, heightMm: k.size.heightMm }))
 		: [];
 	return {
 		readsWorking,

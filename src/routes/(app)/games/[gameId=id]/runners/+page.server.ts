@@ -1,8 +1,8 @@
 import { fail } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGameRole } from '$lib/server/guard';
-import { loadGame, saveSettings, StoreError } from '$lib/server/game-store';
+import { requireGame, requireGameRole } from '$lib/server/guard';
+import { saveSettings, StoreError } from '$lib/server/game-store';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/object-actions';
 import { db } from '$lib/server/runtime';
 import { RunnerSchema, RogueRunnerSchema, newId, type Runner, type RogueRunner } from '$lib/game/model';
@@ -12,8 +12,7 @@ import { pressCmykOf, PRESS_COLOUR_NOTE } from '$lib/server/press-colour';
 
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
-	await requireGameRole(d, locals, params.gameId, 'game.read');
-	const game = await loadGame(d, params.gameId);
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const chosen = game.runners.find((r) => r.id === url.searchParams.get('runner'));
 	const fresh = newRunnerDefaults(game);
 	const blank: Runner = { id: newId(), name: '', ...fresh, cmyk: await pressCmykOf(fresh.colourHex) };

@@ -1,7 +1,7 @@
 import { error, fail, redirect, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGameRole } from '$lib/server/guard';
+import { requireGame, requireGameRole } from '$lib/server/guard';
 import { applyChanges, loadGame, StoreError, type Change } from '$lib/server/game-store';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/object-actions';
 import { db } from '$lib/server/runtime';
@@ -28,8 +28,7 @@ function kindOf(game: Game, kindId: string) {
 /** The kind, its cards, the editors' forms and what the forms pick from (runners, tables, art). */
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
-	await requireGameRole(d, locals, params.gameId, 'game.read');
-	const game = await loadGame(d, params.gameId);
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const kind = kindOf(game, params.kindId);
 	const cards = game.cards.filter((c) => c.kindId === kind.id);
 	const asked = url.searchParams.get('view');

@@ -1,6 +1,6 @@
 import { error, fail, type RequestEvent } from '@sveltejs/kit';
 import { createHash } from 'node:crypto';
-import { requireGameRole } from '$lib/server/guard';
+import { requireGame, requireGameRole } from '$lib/server/guard';
 import { applyChanges, loadGame, StoreError, type Change } from '$lib/server/game-store';
 import { db } from '$lib/server/runtime';
 import { csvColumns } from '$lib/game/csv';
@@ -21,8 +21,7 @@ const basisHash = (game: Game, kindId: string) =>
 
 export const load = async ({ locals, params }) => {
 	const d = await db();
-	await requireGameRole(d, locals, params.gameId, 'game.read');
-	const game = await loadGame(d, params.gameId);
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const kind = kindOf(game, params.kindId);
 	const cards = game.cards.filter((c) => c.kindId === kind.id);
 	return {

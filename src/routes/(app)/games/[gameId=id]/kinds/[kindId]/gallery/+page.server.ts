@@ -1,13 +1,11 @@
 import { error } from '@sveltejs/kit';
-import { requireGameRole } from '$lib/server/guard';
-import { loadGame } from '$lib/server/game-store';
+import { requireGame } from '$lib/server/guard';
 import { db } from '$lib/server/runtime';
 
 /** Every face of the kind: the cards' fronts, and their backs (one shared back, or one per card). */
 export const load = async ({ locals, params }) => {
 	const d = await db();
-	await requireGameRole(d, locals, params.gameId, 'game.read');
-	const game = await loadGame(d, params.gameId);
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const kind = game.kinds.find((k) => k.id === params.kindId);
 	if (!kind) error(404, 'No such card kind');
 	const cards = game.cards.filter((c) => c.kindId === kind.id);

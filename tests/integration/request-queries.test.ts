@@ -1,0 +1,75 @@
+/**
+ * How many database queries one request makes: a game tab (the signed-in layout, the game's
+ * layout and the page, sharing one request as SvelteKit runs them) and a form save. The game's
+ * access (caller, role, game row) is read once per request, and a save hands back the game it
+ * wrote. Counted at the database client, so every query counts, transactions included.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { fakeEvent, openWorld, superformJson, type World } from './harness';
+import { loadGame } from '$lib/server/game-store';
+import * as appLayout from '../../src/routes/(app)/+layout.server';
+import * as gameLayout from '../../src/routes/(app)/games/[gameId=id]/+layout.server';
+import * as tablesPage from '../../src/routes/(app)/games/[gameId=id]/money-tables/+page.server';
+import * as runnersPage from '../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
+
+type Client = { query: (...a: unknown[]) => Promise<unknown>; transaction: (fn: (tx: unknown) => Promise<unknown>) => Promise<unknown> };
+
+let world: World;
+let queries = 0;
+beforeAll(async () => {
+	world = await openWorld();
+	const client = (world.db as unknown as { $client: Client }).$client;
+	const query = client.query.bind(client);
+	client.query = (...a) => (queries++, query(...a));
+	const transaction = client.transaction.bind(client);
+	client.transaction = (fn) =>
+		transaction((tx) => {
+			const t = tx as { query: Client['query'] };
+			const inner = t.query.bind(t);
+			t.query = (...a) => (queries++, inner(...a));
+			return fn(t);
+		});
+});
+afterAll(async () => world?.close());
+
+async function counted(run: () => Promise<unknown>): Promise<number> {
+	const before = queries;
+	await run();
+	return queries - before;
+}
+
+/** One request's event: every load of the request gets the same `locals`. */
+function request(path: string, extra: Parameters<typeof fakeEvent>[1] = {}) {
+	// eslint-disable-next-line @typescript-eslint/no-explicit-any
+	return fakeEvent(world.callers.designer, { path, params: { gameId: world.gameId }, ...extra }) as any;
+}
+
+describe('queries per request', () => {
+	it('a game tab load reads the game once', async () => {
+		const event = request(`/games/${world.gameId}/money-tables`);
+		const n = await counted(() => Promise.all([appLayout.load(event), gameLayout.load(event), tablesPage.load(event)]));
+		// The caller's teams; the game row with the caller's role; the game's settings and objects.
+		expect(n).toBeLessThanOrEqual(4);
+	});
+
+	it('a form save writes and reads back in one pass', async () => {
+		const runner = (await loadGame(world.db, world.gameId)).runners[1];
+		const event = request(`/games/${world.gameId}/runners?/save`, { form: superformJson({ ...runner, name: 'Renamed' }) });
+		const n = await counted(() => runnersPage.actions.save(event));
+		// Access; in the transaction: the row, its update, the game read back whole, its version, the log line.
+		expect(n).toBeLessThanOrEqual(8);
+	});
+
+	it('a save followed by the page in the same request reads nothing again', async () => {
+		const runner = (await loadGame(world.db, world.gameId)).runners[2];
+		const event = request(`/games/${world.gameId}/runners?/save`, { form: superformJson({ ...runner, name: 'Renamed again' }) });
+		await runnersPage.actions.save(event);
+		let page: Awaited<ReturnType<typeof runnersPage.load>> | undefined;
+		const n = await counted(async () => {
+			[, page] = await Promise.all([gameLayout.load(event), runnersPage.load(event)]);
+		});
+		expect(n).toBe(0);
+		expect(page!.runners.find((r) => r.id === runner.id)).toMatchObject({ name: 'Renamed again', version: runner.version! + 1 });
+		expect((await gameLayout.load(event)).game.version).toBe((await loadGame(world.db, world.gameId)).version);
+	});
+});
