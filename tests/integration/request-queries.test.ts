@@ -12,23 +12,49 @@ import * as gameLayout from '../../src/routes/(app)/games/[gameId=id]/+layout.se
 import * as tablesPage from '../../src/routes/(app)/games/[gameId=id]/money-tables/+page.server';
 import * as runnersPage from '../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
 
-type Client = { query: (...a: unknown[]) => Promise<unknown>; transaction: (fn: (tx: unknown) => Promise<unknown>) => Promise<unknown> };
+type Query = (...args: unknown[]) => Promise<unknown>;
+/** Transaction brackets are the driver's, not the request's: PGlite sends none through `query`. */
+const BRACKET = /^\s*(begin|commit|rollback|savepoint|release)\b/i;
+
+/** Counts every statement the database client sends: embedded PGlite or a PostgreSQL pool. */
+function countQueries(db: unknown) {
+	const wrap = (target: { query: Query }) => {
+		const query = target.query.bind(target);
+		target.query = (...a: unknown[]) => {
+			const text = typeof a[0] === 'string' ? a[0] : (a[0] as { text?: string })?.text ?? '';
+			if (!BRACKET.test(text)) queries++;
+			return query(...a);
+		};
+	};
+	const client = (db as { $client: { query: Query; transaction?: Query; connect?: (...a: unknown[]) => Promise<{ query: Query }> } }).$client;
+	wrap(client);
+	const wrapped = new WeakSet<object>();
+	if (client.transaction) {
+		const transaction = client.transaction.bind(client);
+		client.transaction = (fn) =>
+			transaction((tx: { query: Query }) => {
+				if (!wrapped.has(tx)) (wrapped.add(tx), wrap(tx));
+				return (fn as (tx: unknown) => Promise<unknown>)(tx);
+			});
+	}
+	if (client.connect) {
+		const connect = client.connect.bind(client);
+		// The pool's own `query` checks a connection out with a callback: that one is counted already.
+		client.connect = (...a: unknown[]) => {
+			if (a.length) return connect(...a);
+			return connect().then((conn) => {
+				if (!wrapped.has(conn)) (wrapped.add(conn), wrap(conn));
+				return conn;
+			});
+		};
+	}
+}
 
 let world: World;
 let queries = 0;
 beforeAll(async () => {
 	world = await openWorld();
-	const client = (world.db as unknown as { $client: Client }).$client;
-	const query = client.query.bind(client);
-	client.query = (...a) => (queries++, query(...a));
-	const transaction = client.transaction.bind(client);
-	client.transaction = (fn) =>
-		transaction((tx) => {
-			const t = tx as { query: Client['query'] };
-			const inner = t.query.bind(t);
-			t.query = (...a) => (queries++, inner(...a));
-			return fn(t);
-		});
+	countQueries(world.db);
 });
 afterAll(async () => world?.close());
 
