@@ -4,11 +4,19 @@ declare global {
 			user: { id: string; email: string; name: string } | null;
 			/** How the caller proved who they are. */
 			via?: 'cookie' | 'token';
+			/** The browser session the cookie names (cookie callers only). */
+			sessionId?: string;
 		}
 		interface Error {
 			message: string;
 			code?: string;
 		}
+	}
+}
+
+declare module '@auth/core/types' {
+	interface Session {
+		sessionId?: string;
 	}
 }
 

@@ -1,6 +1,7 @@
 import type { Handle, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { authHandle } from '$lib/server/auth/authjs';
+import { knowClient, cookiePolicy, signInLimitAnswer } from '$lib/server/auth/request-hooks';
 import { startRuntime, db, StartupError } from '$lib/server/runtime';
 import { findUser } from '$lib/server/users';
 import { userForToken } from '$lib/server/api-tokens';
@@ -44,6 +45,7 @@ const identify: Handle = async ({ event, resolve }) => {
 		if (user) {
 			event.locals.user = { id: user.id, email: user.email, name: user.name };
 			event.locals.via = 'cookie';
+			event.locals.sessionId = session?.sessionId;
 		}
 		if (isApi && WRITES.has(event.request.method) && event.locals.via === 'cookie') {
 			const origin = event.request.headers.get('origin');
@@ -55,4 +57,7 @@ const identify: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
-export const handle = sequence(authHandle, identify);
+/** In order; exported so integration tests can run the same chain without the server. */
+export const handlers: Handle[] = [knowClient, cookiePolicy, signInLimitAnswer, authHandle, identify];
+
+export const handle = sequence(...handlers);

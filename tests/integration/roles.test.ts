@@ -14,6 +14,7 @@ import * as proofPages from './role-rows/proof-pages';
 import * as printRows from './role-rows/printing';
 import * as artRows from './role-rows/art';
 import * as kindRows from './role-rows/kinds';
+import * as securityRows from './role-rows/security';
 import * as dailyRows from './role-rows/daily';
 import * as publicRows from './role-rows/public-pages';
 import * as coverageRows from './role-rows/coverage';

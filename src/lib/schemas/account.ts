@@ -33,6 +33,11 @@ export const signUpSchema = z
 
 export const forgotSchema = z.object({ email });
 
+export const passwordChangeSchema = z.object({
+	current: z.string().min(1, 'Enter your current password').max(200),
+	password: newPassword
+});
+
 export const resetSchema = z.object({ token: z.string().min(10), password: newPassword });
 
 export const teamSchema = z.object({ name: z.string().trim().min(1, 'Name the team').max(80) });

@@ -14,8 +14,16 @@ export const config = {
 	smtpUrl: process.env.SMTP_URL || null,
 	mailFrom: process.env.MAIL_FROM ?? 'Paddock <no-reply@paddock.test>',
 	/** The address people reach the app at, for links in e-mail. */
-	origin: process.env.ORIGIN ?? `http://localhost:${process.env.PORT ?? 3000}`
+	origin: process.env.ORIGIN ?? `http://localhost:${process.env.PORT ?? 3000}`,
+	/**
+	 * The request header a reverse proxy puts the client's address in (for example
+	 * `X-Forwarded-For`); without it the address is the connection's own.
+	 */
+	clientIpHeader: process.env.PADDOCK_CLIENT_IP_HEADER?.trim().toLowerCase() || null
 };
+
+/** Cookies are marked Secure exactly when people reach the app over https. */
+export const secureCookies = () => config.origin.startsWith('https:');
 
 /**
  * The secret that signs session cookies. Taken from AUTH_SECRET, or made once and kept in the

@@ -21,6 +21,19 @@ export async function mailInvitation(input: {
 	});
 }
 
+/**
+ * Sends after the answer has gone: the caller does not wait for the mail server, so an answer
+ * takes as long whether or not a message was due (and a slow mail server slows no one).
+ */
+export function sendLater(sending: Promise<unknown>) {
+	sending.catch((e) => console.error('Paddock could not send an e-mail:', e));
+}
+
+/** To the holder of an address someone tried to sign up with again. */
+export async function mailAccountExists(input: { to: string; name: string }) {
+	await sendMail(input.to, 'account-exists', { name: input.name, signin: link('/signin'), forgot: link('/forgot') });
+}
+
 export async function mailPasswordReset(input: { to: string; name: string; token: string }) {
 	await sendMail(input.to, 'password-reset', {
 		name: input.name,

@@ -2,8 +2,9 @@
 import { eq, sql, and, isNull, gt } from 'drizzle-orm';
 import type { Db } from './db';
 import { users, passwordResets } from './db/schema';
-import { hashPassword } from './auth/passwords';
+import { hashPassword, verifyPassword } from './auth/passwords';
 import { newToken, sha256 } from './auth/secrets';
+import { endSessions } from './auth/sessions';
 
 export type User = typeof users.$inferSelect;
 
@@ -21,8 +22,8 @@ export async function findUser(db: Db, id: string): Promise<User | undefined> {
 }
 
 export class EmailTakenError extends Error {
-	constructor() {
-		super('An account with this e-mail address exists already');
+	constructor(readonly holder: User) {
+		super('We could not make an account with this address. If it is yours, sign in or reset your password.');
 	}
 }
 
@@ -30,14 +31,13 @@ export async function createUser(
 	db: Db,
 	input: { email: string; name: string; password: string }
 ): Promise<User> {
-	if (await findUserByEmail(db, input.email)) throw new EmailTakenError();
+	// Hashed first, so a taken address answers no faster than a free one.
+	const passwordHash = await hashPassword(input.password);
+	const existing = await findUserByEmail(db, input.email);
+	if (existing) throw new EmailTakenError(existing);
 	const [user] = await db
 		.insert(users)
-		.values({
-			email: input.email.trim().toLowerCase(),
-			name: input.name.trim(),
-			passwordHash: await hashPassword(input.password)
-		})
+		.values({ email: input.email.trim().toLowerCase(), name: input.name.trim(), passwordHash })
 		.returning();
 	return user;
 }
@@ -74,6 +74,23 @@ export async function finishPasswordReset(db: Db, token: string, password: strin
 			.returning();
 		if (!reset) return false;
 		await tx.update(users).set({ passwordHash }).where(eq(users.id, reset.userId));
+		// Whoever knew the old password may be signed in somewhere: every session ends.
+		await endSessions(tx, reset.userId);
 		return true;
 	});
+}
+
+/**
+ * Changes the password of a signed-in person who knows the current one, and ends their other
+ * sessions. False when the current password is wrong.
+ */
+export async function changePassword(
+	db: Db,
+	input: { userId: string; current: string; password: string; keepSession?: string }
+): Promise<boolean> {
+	const user = await findUser(db, input.userId);
+	if (!user || !(await verifyPassword(user.passwordHash, input.current))) return false;
+	await db.update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, user.id));
+	await endSessions(db, user.id, input.keepSession);
+	return true;
 }

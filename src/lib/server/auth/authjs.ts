@@ -1,21 +1,35 @@
 /**
- * Sign-in with Auth.js: e-mail and password (Credentials), sessions as signed JWT cookies.
+ * Sign-in with Auth.js: e-mail and password (Credentials), sessions as signed JWT cookies that
+ * name a row in the sessions table, so they can be ended. The sign-in limit and the password
+ * check live together in `authorize`: the sign-in form and a direct post to Auth.js's
+ * credentials callback both pass through it.
  */
 import { SvelteKitAuth, CredentialsSignin } from '@auth/sveltekit';
 import type { RequestEvent } from '@sveltejs/kit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import { z } from 'zod';
-import { authSecret } from '../config';
+import { authSecret, secureCookies } from '../config';
 import { db } from '../runtime';
 import { findUserByEmail } from '../users';
-import { verifyPassword } from './passwords';
+import { checkPassword } from './passwords';
+import { signInRefused, recordFailure, WINDOW_MS } from './throttle';
+import { currentClient } from './client-address';
+import { SESSION_MAX_AGE_S, endSession, sessionIsOpen, startSession } from './sessions';
 
-const credentials = z.object({ email: z.string().trim().email(), password: z.string().min(1) });
+const credentials = z.object({ email: z.string().trim().email(), password: z.string().min(1).max(200) });
+
+/** Too many failed sign-ins lately, for this account or from this address. */
+export class SignInLimited extends CredentialsSignin {
+	code = 'rate_limited';
+}
+
+export const SIGN_IN_LIMITED_MESSAGE = `Too many failed sign-ins. Wait ${WINDOW_MS / 60_000} minutes and try again, or reset your password.`;
 
 export const { handle: authHandle, signIn, signOut } = SvelteKitAuth(async () => ({
 	secret: authSecret(),
 	trustHost: true,
-	session: { strategy: 'jwt', maxAge: 30 * 24 * 60 * 60 },
+	useSecureCookies: secureCookies(),
+	session: { strategy: 'jwt', maxAge: SESSION_MAX_AGE_S },
 	pages: { signIn: '/signin' },
 	providers: [
 		Credentials({
@@ -23,23 +37,48 @@ export const { handle: authHandle, signIn, signOut } = SvelteKitAuth(async () =>
 			async authorize(raw) {
 				const parsed = credentials.safeParse(raw);
 				if (!parsed.success) return null;
-				const user = await findUserByEmail(await db(), parsed.data.email);
-				if (!user || !(await verifyPassword(user.passwordHash, parsed.data.password))) return null;
+				const d = await db();
+				const { email, password } = parsed.data;
+				const { address } = currentClient();
+				if (await signInRefused(d, email, address)) throw new SignInLimited();
+				const user = await findUserByEmail(d, email);
+				if (!(await checkPassword(user?.passwordHash, password)) || !user) {
+					await recordFailure(d, email, address);
+					return null;
+				}
 				return { id: user.id, email: user.email, name: user.name };
 			}
 		})
 	],
 	callbacks: {
+		async jwt({ token, user }) {
+			const d = await db();
+			if (user?.id) {
+				token.sid = await startSession(d, user.id, currentClient());
+				return token;
+			}
+			// Every later read: the session must still be open (null ends the cookie).
+			if (typeof token.sid !== 'string' || !token.sub || !(await sessionIsOpen(d, token.sid, token.sub))) return null;
+			return token;
+		},
 		session({ session, token }) {
 			if (token.sub) session.user.id = token.sub;
+			if (typeof token.sid === 'string') session.sessionId = token.sid;
 			return session;
+		}
+	},
+	events: {
+		async signOut(message) {
+			const token = 'token' in message ? message.token : null;
+			if (token?.sub && typeof token.sid === 'string') await endSession(await db(), token.sub, token.sid);
 		}
 	}
 }));
 
 /**
  * Signs in from our own form action (whose body superforms has read already): hands Auth.js a
- * fresh form request. Redirects on success; throws CredentialsSignin on a wrong password.
+ * fresh form request. Redirects on success; throws CredentialsSignin on a wrong password and
+ * SignInLimited past the limit.
  */
 export async function signInWithPassword(
 	event: RequestEvent,

@@ -10,3 +10,16 @@ export async function verifyPassword(passwordHash: string, password: string): Pr
 		return false;
 	}
 }
+
+let dummy: Promise<string> | undefined;
+
+/**
+ * Checks a password against an account's hash, or against a throw-away hash when there is no
+ * such account, so an answer takes as long for an unknown address as for a known one.
+ */
+export async function checkPassword(passwordHash: string | undefined, password: string): Promise<boolean> {
+	if (passwordHash) return verifyPassword(passwordHash, password);
+	dummy ??= hash('no account has this password');
+	await verifyPassword(await dummy, password);
+	return false;
+}

@@ -28,6 +28,17 @@ export async function signInRefused(db: Db, email: string, ip: string): Promise<
 	return a >= MAX_PER_ACCOUNT || b >= MAX_PER_ADDRESS;
 }
 
+const signUpKey = (ip: string) => `signup-ip:${ip}`;
+
+/** Sign-ups that hit an existing address, per client address: slows a sweep for who has an account. */
+export async function signUpRefused(db: Db, ip: string): Promise<boolean> {
+	return (await failures(db, signUpKey(ip))) >= MAX_PER_ADDRESS;
+}
+
+export async function recordSignUpClash(db: Db, ip: string): Promise<void> {
+	await db.insert(signInFailures).values({ key: signUpKey(ip) });
+}
+
 export async function recordFailure(db: Db, email: string, ip: string): Promise<void> {
 	await db.insert(signInFailures).values([{ key: accountKey(email) }, { key: addressKey(ip) }]);
 	// Old rows serve no purpose; drop them as we go.

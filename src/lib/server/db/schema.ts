@@ -102,6 +102,26 @@ export const signInFailures = pgTable(
 	(t) => [index('sign_in_failures_key').on(t.key, t.createdAt)]
 );
 
+/**
+ * Signed-in browser sessions. The session cookie names its row; a row that is ended (sign-out,
+ * "end this session", a password reset or change) makes the cookie worthless at once.
+ */
+export const sessions = pgTable(
+	'sessions',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		userId: uuid('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		userAgent: text('user_agent').notNull().default(''),
+		address: text('address').notNull().default(''),
+		createdAt: createdAt(),
+		lastSeenAt: timestamp('last_seen_at', { withTimezone: true }).notNull().defaultNow(),
+		endedAt: timestamp('ended_at', { withTimezone: true })
+	},
+	(t) => [index('sessions_user').on(t.userId)]
+);
+
 export const apiTokens = pgTable(
 	'api_tokens',
 	{

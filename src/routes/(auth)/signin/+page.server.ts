@@ -2,9 +2,7 @@ import { fail, redirect } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { signInSchema } from '$lib/schemas/account';
-import { CredentialsSignin, safeNext, signInWithPassword } from '$lib/server/auth/authjs';
-import { signInRefused, recordFailure } from '$lib/server/auth/throttle';
-import { db } from '$lib/server/runtime';
+import { CredentialsSignin, SignInLimited, SIGN_IN_LIMITED_MESSAGE, safeNext, signInWithPassword } from '$lib/server/auth/authjs';
 import { config } from '$lib/server/config';
 
 export const load = async ({ locals, url }) => {
@@ -12,7 +10,9 @@ export const load = async ({ locals, url }) => {
 	return {
 		form: await superValidate(zod4(signInSchema)),
 		demo: config.demo,
-		reset: url.searchParams.has('reset')
+		reset: url.searchParams.has('reset'),
+		// Auth.js sends a refused sign-in back here with its code.
+		limited: url.searchParams.get('code') === 'rate_limited' ? SIGN_IN_LIMITED_MESSAGE : null
 	};
 };
 
@@ -20,15 +20,7 @@ export const actions = {
 	default: async (event) => {
 		const form = await superValidate(event.request, zod4(signInSchema));
 		if (!form.valid) return fail(400, { form });
-		const d = await db();
-		const ip = event.getClientAddress();
-		if (await signInRefused(d, form.data.email, ip)) {
-			return message(
-				form,
-				'Too many failed sign-ins. Wait 15 minutes and try again, or reset your password.',
-				{ status: 429 }
-			);
-		}
+		// The limit is counted and enforced where the password is checked (Auth.js's authorize).
 		try {
 			await signInWithPassword(event, {
 				...form.data,
@@ -36,8 +28,9 @@ export const actions = {
 			});
 		} catch (e) {
 			if (!(e instanceof CredentialsSignin)) throw e;
+			form.data.password = '';
+			if (e instanceof SignInLimited) return message(form, SIGN_IN_LIMITED_MESSAGE, { status: 429 });
 		}
-		await recordFailure(d, form.data.email, ip);
 		form.data.password = '';
 		return message(form, 'That e-mail address and password do not match an account.', {
 			status: 400

@@ -1,0 +1,43 @@
+/**
+ * Request hooks around Auth.js: who the client is, the cookie policy, and a plain 429 when a
+ * direct post to the credentials callback is over the sign-in limit.
+ */
+import type { Handle } from '@sveltejs/kit';
+import { config, secureCookies } from '../config';
+import { addressFrom, withClient } from './client-address';
+import { SIGN_IN_LIMITED_MESSAGE } from './authjs';
+import { WINDOW_MS } from './throttle';
+
+export const knowClient: Handle = ({ event, resolve }) =>
+	withClient(
+		{
+			address: addressFrom(event.request.headers, config.clientIpHeader, () => event.getClientAddress()),
+			userAgent: event.request.headers.get('user-agent') ?? ''
+		},
+		() => resolve(event)
+	);
+
+/**
+ * Every cookie: HttpOnly, SameSite=Lax, and Secure exactly when the origin is https. Auth.js
+ * refreshes its session cookie through `cookies.set` without a `secure` option, which the
+ * framework would otherwise turn on for any host but localhost, losing the session on plain http.
+ */
+export const cookiePolicy: Handle = ({ event, resolve }) => {
+	const set = event.cookies.set.bind(event.cookies);
+	event.cookies.set = (name, value, options) =>
+		set(name, value, { ...options, secure: secureCookies(), httpOnly: true, sameSite: 'lax' });
+	return resolve(event);
+};
+
+export const CREDENTIALS_CALLBACK = '/auth/callback/credentials';
+
+export const signInLimitAnswer: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	if (event.url.pathname !== CREDENTIALS_CALLBACK) return response;
+	const location = response.headers.get('location');
+	if (!location || new URL(location, event.url).searchParams.get('code') !== 'rate_limited') return response;
+	return new Response(JSON.stringify({ error: { code: 'rate_limited', message: SIGN_IN_LIMITED_MESSAGE } }), {
+		status: 429,
+		headers: { 'content-type': 'application/json', 'retry-after': String(WINDOW_MS / 1000) }
+	});
+};
