@@ -17,6 +17,9 @@ import { DEFAULT_SEED, OddsRequestSchema, runStage, stageReport, type StageRepor
 import { raceSetupFromGame, RaceSetupError, setupPlayerCounts, simulateRaces, type RaceOdds } from '$lib/odds/race';
 import { MAX_SAMPLES, ScenarioSchema, describeIssues, type Scenario } from '$lib/odds/scenario';
 import { placeOdds, priceWagers, type WagerPrice } from '$lib/odds/wagers';
+import type { JobView, OddsAnswer, RaceAnswer, StageAnswer, WagerLine } from '$lib/odds/answer';
+
+export type { JobView, OddsAnswer };
 
 /** Who asks: the guard has already checked they may read the game. */
 export interface OddsActor {
@@ -43,40 +46,6 @@ export const RaceRequestSchema = z.object({
 	seed: z.int().min(0).max(0xffffffff).optional(),
 	target: TargetSchema
 });
-
-export interface WagerLine {
-	cardId: string;
-	expectedCoins: number;
-	cardName: string;
-	betType: string;
-	runnerId: string;
-	tier: number;
-	moneyTableId: string;
-	moneyTableName: string;
-	generous: boolean;
-	topRowPlace?: number;
-	topRowSuggestion?: number;
-}
-
-export type StageAnswer = StageReport & { kind: 'stage'; target: number; wagers: WagerLine[] };
-export interface RaceAnswer {
-	kind: 'race';
-	method: 'monte-carlo';
-	samples: number;
-	seed: number;
-	players: number;
-	/** Place odds at the end of a stage (over all stages played) and at race end. */
-	stage: Record<string, number[]>;
-	race: Record<string, number[]>;
-	raceStandardErrors: Record<string, number[]>;
-	stages: { stages: number; probability: number }[];
-	meanStages: number;
-	unfinished: number;
-	target: number;
-	wagers: WagerLine[];
-	ms?: number;
-}
-export type OddsAnswer = StageAnswer | RaceAnswer;
 
 const wagerLines = (prices: WagerPrice[]): WagerLine[] => prices.map((p) => ({ ...p }));
 
@@ -171,15 +140,6 @@ export async function runOdds(db: Db, actor: OddsActor, body: unknown): Promise<
 export const playerCounts = (game: Game) => setupPlayerCounts(game);
 
 /* ------------------------------------------------------------------- jobs */
-
-export interface JobView {
-	id: string;
-	state: 'queued' | 'running' | 'done' | 'failed' | 'cancelled';
-	done: number;
-	total: number;
-	error?: string;
-	result?: OddsAnswer;
-}
 
 /**
  * Where odds jobs run and wait. This in-process queue answers from the process's worker pool;
