@@ -1,7 +1,8 @@
 /** Rows of the role × route table: the odds lab's API (runs, saved scenarios, jobs) and the Odds tab. */
 import type { Row } from '../role-table';
-import { as, g, readers, signedIn } from '../role-table';
+import { as, g, readers, signedIn, editors } from '../role-table';
 import { statusOf, type World } from '../harness';
+import * as oddsPage from '../../../src/routes/(app)/games/[gameId=id]/odds/+page.server';
 import { runOdds } from '$lib/server/odds';
 import * as oddsApi from '../../../src/routes/api/v1/games/[gameId=id]/odds/+server';
 import * as scenariosApi from '../../../src/routes/api/v1/games/[gameId=id]/odds/scenarios/+server';
@@ -38,6 +39,20 @@ async function designersJob(w: World) {
 const jobOwner = { default: 404, designer: 200, ...signedIn };
 
 export const rows: Row[] = [
+	{
+		route: 'load /games/{gameId}/odds',
+		run: (w, who) => statusOf(() => oddsPage.load(as(w, who, { params: g(w) }))),
+		expect: { ...readers, default: 200 }
+	},
+	{
+		route: 'action /games/{gameId}/odds?/rules',
+		run: (w, who) =>
+			statusOf(() =>
+				oddsPage.actions.rules(as(w, who, { params: g(w), form: { rogueCarryBonus: '1', modifiersOneUse: 'on', backUnder: 'on' } }))
+			),
+		// A saved form answers 200 with its message (superforms), not a redirect.
+		expect: { ...editors, owner: 200, designer: 200, default: 403 }
+	},
 	{
 		route: 'POST /api/v1/games/{gameId}/odds (exact)',
 		run: (w, who) => statusOf(() => oddsApi.POST(as(w, who, { params: g(w), json: { ...demoStage, exact: true } }))),
