@@ -16,6 +16,8 @@ import { artFiles, artVersions, gameObjects, games } from '$lib/server/db/schema
 import { loadGame } from '$lib/server/game-store';
 import * as uploadApi from '../../src/routes/api/v1/games/[gameId=id]/art/upload/+server';
 import * as artFileApi from '../../src/routes/api/v1/games/[gameId=id]/art-files/[sha256]/+server';
+import * as readyz from '../../src/routes/readyz/+server';
+import * as healthz from '../../src/routes/healthz/+server';
 import * as artPage from '../../src/routes/(app)/games/[gameId=id]/art/+page.server';
 
 let w: World;
@@ -333,6 +335,23 @@ describe('valid uploads', () => {
 describe('the file store out of reach', () => {
 	// A bucket address where nothing listens: every request to it fails to connect.
 	const unreachable = storageFor('s3://key:secret@paddock?endpoint=http%3A%2F%2F127.0.0.1%3A1&region=us-east-1', '');
+
+	it('/readyz answers 503 naming the store; /healthz still 200', async () => {
+		const ready = (await readyz.GET(as(w, 'anonymous'))) as Response;
+		expect(ready.status).toBe(200);
+		useStorage(unreachable);
+		try {
+			const res = (await readyz.GET(as(w, 'anonymous'))) as Response;
+			expect(res.status).toBe(503);
+			const body = await res.json();
+			expect(body).toMatchObject({ ready: false, database: 'ok' });
+			expect(body.storage).toMatch(/Cannot reach the bucket paddock at 127\.0\.0\.1:1/);
+			expect(JSON.stringify(body)).not.toContain('secret');
+			expect(((await healthz.GET(as(w, 'anonymous'))) as Response).status).toBe(200);
+		} finally {
+			useStorage(store);
+		}
+	});
 
 	it('uploads answer 503 and nothing is half-written: no row, no asset, no version', async () => {
 		const before = await snapshot();

@@ -7,6 +7,7 @@ import { isHttpError, isRedirect, isActionFailure } from '@sveltejs/kit';
 import { stringify } from 'devalue';
 import { openDatabase, connectDatabase, type Database, type Db } from '$lib/server/db';
 import { useRuntime, startMail } from '$lib/server/runtime';
+import { inProcessQueue, sharedQueue, useJobQueue, type JobQueue } from '$lib/server/job-queue';
 import { seedDemo, DEMO_ROLES, demoEmail } from '$lib/server/demo';
 import { findUserByEmail, createUser } from '$lib/server/users';
 import { createTeam } from '$lib/server/teams';
@@ -41,6 +42,9 @@ export async function openWorld(): Promise<World> {
 	const database = await openTestDatabase();
 	const mail = await startMail(database.db, null);
 	useRuntime(database, true);
+	// Jobs through pg-boss on the server (the second pass), in this process on PGlite.
+	const jobs: JobQueue = database.kind === 'server' && database.url ? await sharedQueue(database.url, { maintenanceSeconds: 2, expireSeconds: 30 }) : inProcessQueue();
+	useJobQueue(jobs);
 	await seedDemo(database.db);
 	const callers = { anonymous: null } as Record<Who, Caller | null>;
 	for (const role of DEMO_ROLES) {
@@ -62,6 +66,7 @@ export async function openWorld(): Promise<World> {
 		outsiderTeamId: outsiderTeam.id,
 		callers,
 		close: async () => {
+			await jobs.stop(20_000);
 			await mail.stop?.();
 			await database.close();
 		}

@@ -1,10 +1,9 @@
 /**
  * Print files for the app: what to print (the working game, or exactly a proof's snapshot), the
  * options (query parameters or a printer profile), and the builds, which run in the print
- * engine's worker pool so the app stays responsive. Jobs started from the print page report
- * their progress and keep their result for a while for download.
+ * engine's worker pool so the app stays responsive. Jobs started from the print page are in
+ * ./print-jobs.ts.
  */
-import { randomUUID } from 'node:crypto';
 import { requireGameRole, may } from './guard';
 import { ApiError } from './api';
 import { loadGame } from './game-store';
@@ -123,87 +122,6 @@ export function fileResponse(bytes: Uint8Array, type: string, name: string, warn
 
 export const fileStem = (source: PrintSource) =>
 	`${source.game.slug}${source.proofNumber ? `-proof-${source.proofNumber}` : ''}`;
-
-/* ---------------------------------------------------------------- jobs */
-
-interface Job {
-	id: string;
-	userId: string;
-	gameId: string;
-	state: 'queued' | 'running' | 'done' | 'failed';
-	done: number;
-	total: number;
-	result?: PrintJobResult;
-	fileName: string;
-	error?: { status: number; message: string };
-	finishedAt?: number;
-}
-
-const jobs = new Map<string, Job>();
-/** A finished job's file stays this long for download. */
-const KEEP_MS = 10 * 60 * 1000;
-
-function sweep() {
-	const now = Date.now();
-	for (const [id, j] of jobs) if (j.finishedAt && now - j.finishedAt > KEEP_MS) jobs.delete(id);
-}
-
-/** Starts a sheet build for the print page and returns at once; progress is read with `jobState`. */
-export function startSheetJob(source: PrintSource, art: Map<string, Uint8Array>, options: GamePdfOptions): Job {
-	sweep();
-	// A full queue refuses now (503 with Retry-After) rather than as a failed job later.
-	if (printPool().full) throw new ApiError(503, 'The print queue is full; try again in a minute', 'busy');
-	const { onProgress: _ignored, ...plain } = options;
-	const job: Job = {
-		id: randomUUID(),
-		userId: source.userId,
-		gameId: source.gameId,
-		state: 'queued',
-		done: 0,
-		total: 0,
-		fileName: `${fileStem(source)}-sheets.pdf`
-	};
-	jobs.set(job.id, job);
-	runPrint({ type: 'sheets', isolated: !!source.proofNumber, game: source.game, art, options: plain }, (done, total) => {
-		job.state = 'running';
-		job.done = done;
-		job.total = total;
-	})
-		.then((result) => {
-			job.state = 'done';
-			job.result = result;
-			job.done = job.total = Math.max(job.total, 1);
-		})
-		.catch((e) => {
-			job.state = 'failed';
-			job.error = e instanceof ApiError ? { status: e.status, message: e.message } : { status: 500, message: 'The build failed' };
-			if (!(e instanceof ApiError)) console.error(e);
-		})
-		.finally(() => {
-			job.finishedAt = Date.now();
-		});
-	return job;
-}
-
-export function jobFor(userId: string, id: string): Job {
-	const job = jobs.get(id);
-	if (!job || job.userId !== userId) throw new ApiError(404, 'No such print job (finished files are kept for ten minutes)');
-	return job;
-}
-
-export function jobState(job: Job) {
-	return {
-		id: job.id,
-		state: job.state,
-		done: job.done,
-		total: job.total,
-		error: job.error?.message,
-		sheets: job.result?.sheets,
-		pages: job.result?.pages,
-		bytes: job.result?.bytes.byteLength,
-		warnings: job.result?.warnings ?? []
-	};
-}
 
 /** The first sheet of a build as SVG, with the plan's figures, for the print page (art linked, not embedded). */
 export async function previewFirstSheet(source: PrintSource, options: GamePdfOptions, artUrl: (sha256: string) => string) {

@@ -9,6 +9,8 @@ import { configureMail } from './mail';
 import { config } from './config';
 import { printPool, closePrintPool } from '$lib/print/pool';
 import { watchVitals } from './vitals';
+import { defineJob, jobQueue, sharedQueue, useJobQueue } from './job-queue';
+import { buildQueuedJob, failJob } from './print-jobs';
 
 interface Runtime {
 	database: Database;
@@ -34,6 +36,11 @@ export async function startMail(db: Db, smtpUrl: string | null) {
 	return { catching: true, stop: catcher.stop };
 }
 
+/** The kinds of queued work, each reading its job's row from this database. */
+function defineJobs(db: Db) {
+	defineJob('print', { run: (id) => buildQueuedJob(db, id), giveUp: (id) => failJob(db, id) });
+}
+
 /** Refusal to start with a message for the operator (printed without a stack, exit 1). */
 export class StartupError extends Error {}
 
@@ -56,8 +63,12 @@ async function start(): Promise<Runtime> {
 		.ready()
 		.then(() => (printWarm = true));
 	watchVitals(() => ({ printWorkersWarm: printWarm }));
+	defineJobs(database.db);
+	if (config.databaseUrl) useJobQueue(await sharedQueue(config.databaseUrl));
 	const runtime: Runtime = { database, stopCatcher: mail.stop, catching: mail.catching };
 	const stop = async () => {
+		// Running builds finish (or, past the wait, are left for another process to retry).
+		await jobQueue().stop();
 		await closePrintPool();
 		await runtime.stopCatcher?.();
 		await database.close();
@@ -73,6 +84,7 @@ export function startRuntime(): Promise<Runtime> {
 
 /** Tests put their own (in-memory) database here. */
 export function useRuntime(database: Database, catching = true) {
+	defineJobs(database.db);
 	slot.__paddock = Promise.resolve({ database, catching });
 }
 

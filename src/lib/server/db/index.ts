@@ -22,6 +22,8 @@ export interface Database {
 	db: Db;
 	/** 'server' when behind DATABASE_URL: shared with other processes. */
 	kind: 'embedded' | 'server';
+	/** The server's address (with its password: never print it), when kind is 'server'. */
+	url?: string;
 	/** Throws when the database does not answer (readiness checks). */
 	ping: () => Promise<void>;
 	/** Runs `work` while no other process runs its own (start-up steps such as the demo seed). */
@@ -111,6 +113,7 @@ export async function connectDatabase(url: string, options: ServerOptions = {}):
 	return {
 		db: db as unknown as Db,
 		kind: 'server',
+		url,
 		ping: async () => void (await db.execute(sql`select 1`)),
 		exclusive: (work) => exclusive(() => work()),
 		migrate: (folder) => migrate(folder),

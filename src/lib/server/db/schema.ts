@@ -393,3 +393,39 @@ export const oddsScenarios = pgTable(
 	},
 	(t) => [uniqueIndex('odds_scenarios_game_name').on(t.gameId, t.name)]
 );
+
+/* ------------------------------------------------------------------ print jobs */
+
+export const PRINT_JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
+
+/**
+ * A sheet build started from the print page. Its state lives here, not in a process, so any app
+ * process answers its progress and serves its file; the file itself is in the file store under
+ * `fileKey`, written once (the first build to finish wins; a retry never makes a second file).
+ */
+export const printJobs = pgTable(
+	'print_jobs',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		userId: uuid('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		gameId: uuid('game_id')
+			.notNull()
+			.references(() => games.id, { onDelete: 'cascade' }),
+		state: text('state', { enum: PRINT_JOB_STATES }).notNull().default('queued'),
+		done: integer('done').notNull().default(0),
+		total: integer('total').notNull().default(0),
+		/** What to build, fixed when queued: the game as data and the options. */
+		request: jsonb('request').$type<Record<string, unknown>>().notNull(),
+		fileName: text('file_name').notNull(),
+		fileKey: text('file_key'),
+		/** Sheets, pages, bytes and warnings of the finished file. */
+		result: jsonb('result').$type<{ sheets?: number; pages?: number; bytes: number; warnings: string[] }>(),
+		error: jsonb('error').$type<{ status: number; message: string }>(),
+		attempts: integer('attempts').notNull().default(0),
+		createdAt: createdAt(),
+		finishedAt: timestamp('finished_at', { withTimezone: true })
+	},
+	(t) => [index('print_jobs_user').on(t.userId, t.createdAt)]
+);

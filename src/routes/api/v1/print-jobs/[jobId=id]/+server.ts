@@ -2,9 +2,10 @@ import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { api } from '$lib/server/api';
 import { requireUser } from '$lib/server/guard';
-import { jobFor, jobState } from '$lib/server/printing';
+import { jobFor, jobState } from '$lib/server/print-jobs';
+import { db } from '$lib/server/runtime';
 
 export const GET: RequestHandler = api(async ({ locals, params }) => {
 	const user = requireUser(locals);
-	return json(jobState(jobFor(user.id, params.jobId)));
+	return json(jobState(await jobFor(await db(), user.id, params.jobId)));
 });

@@ -2,7 +2,8 @@ import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { z } from 'zod';
 import { api, readJson } from '$lib/server/api';
-import { printSource, printOptions, artBytes, startSheetJob, jobState, logDownload } from '$lib/server/printing';
+import { printSource, printOptions, logDownload } from '$lib/server/printing';
+import { startSheetJob, jobState } from '$lib/server/print-jobs';
 import { db } from '$lib/server/runtime';
 
 const JobSchema = z.object({
@@ -18,7 +19,7 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const input = await readJson(request, JobSchema);
 	const source = await printSource(d, locals, params.gameId, input.proof);
 	const options = await printOptions(d, source, new URLSearchParams(input.query));
-	const job = startSheetJob(source, await artBytes(source.game), options);
+	const job = await startSheetJob(d, source, options);
 	await logDownload(d, source, 'sheets');
 	return json(jobState(job), { status: 202 });
 });

@@ -1,0 +1,162 @@
+/**
+ * Sheet builds started from the print page, as jobs any app process can follow. The job's state
+ * is a database row and its file is in the file store, so whichever process built it, every
+ * process answers its progress and serves its file. Where it runs is the job queue's business
+ * (./job-queue.ts): the process's own worker pool, or a PostgreSQL-backed queue shared by all.
+ *
+ * A job is built from what was fixed when it was queued (the game as data, the options, the
+ * date), in isolation from any worker cache, so a retry after a crash makes the same bytes; and
+ * only the first build to finish is recorded, so a job never ends with two different files.
+ */
+import { and, eq, lt, ne, sql } from 'drizzle-orm';
+import { createHash } from 'node:crypto';
+import type { Db } from './db';
+import { printJobs } from './db/schema';
+import { ApiError } from './api';
+import { artBytes, fileStem, runPrint, type PrintSource } from './printing';
+import { storage, streamBody, StorageUnavailableError } from './storage';
+import { jobQueue } from './job-queue';
+import { printPool } from '$lib/print/pool';
+import type { Game } from '$lib/game/model';
+import type { GamePdfOptions } from '$lib/print/job';
+
+export type PrintJobRow = typeof printJobs.$inferSelect;
+
+interface SheetRequest {
+	type: 'sheets';
+	/** A proof's files must come out the same every time. */
+	proof: boolean;
+	game: Game;
+	options: Omit<GamePdfOptions, 'onProgress'>;
+}
+
+/** A finished job's row and file stay this long for download. */
+const KEEP_MS = 10 * 60 * 1000;
+/** Progress is written at most this often. */
+const PROGRESS_MS = 400;
+
+/** Queues a sheet build and returns at once; progress is read with `jobFor` and `jobState`. */
+export async function startSheetJob(db: Db, source: PrintSource, options: GamePdfOptions): Promise<PrintJobRow> {
+	await db.delete(printJobs).where(lt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS)));
+	// A full local queue refuses now (503) rather than as a failed job later.
+	if (!jobQueue().shared && printPool().full) throw new ApiError(503, 'The print queue is full; try again in a minute', 'busy');
+	const { onProgress: _ignored, ...plain } = options;
+	const request: SheetRequest = { type: 'sheets', proof: !!source.proofNumber, game: source.game, options: plain };
+	const [row] = await db
+		.insert(printJobs)
+		.values({
+			userId: source.userId,
+			gameId: source.gameId,
+			request: request as unknown as Record<string, unknown>,
+			fileName: `${fileStem(source)}-sheets.pdf`
+		})
+		.returning();
+	await jobQueue().send('print', row.id);
+	return row;
+}
+
+export async function jobFor(db: Db, userId: string, id: string): Promise<PrintJobRow> {
+	const [job] = await db
+		.select()
+		.from(printJobs)
+		.where(and(eq(printJobs.id, id), eq(printJobs.userId, userId)));
+	if (!job) throw new ApiError(404, 'No such print job (finished files are kept for ten minutes)');
+	return job;
+}
+
+export function jobState(job: PrintJobRow) {
+	return {
+		id: job.id,
+		state: job.state,
+		done: job.done,
+		total: job.total,
+		error: job.error?.message,
+		sheets: job.result?.sheets,
+		pages: job.result?.pages,
+		bytes: job.result?.bytes,
+		warnings: job.result?.warnings ?? []
+	};
+}
+
+/** The finished file, streamed from the store. */
+export async function jobFile(job: PrintJobRow): Promise<Response> {
+	if (job.state === 'failed') throw new ApiError(job.error?.status ?? 500, job.error?.message ?? 'The build failed');
+	if (job.state !== 'done' || !job.fileKey) throw new ApiError(409, 'The file is not ready yet');
+	const file = await storage().open(job.fileKey);
+	return new Response(streamBody(file), {
+		headers: {
+			'content-type': 'application/pdf',
+			'content-length': String(file.bytes),
+			'content-disposition': `attachment; filename="${job.fileName}"`,
+			'x-paddock-warnings': String(job.result?.warnings.length ?? 0),
+			'cache-control': 'private, no-store'
+		}
+	});
+}
+
+/**
+ * Builds one queued job (called by the queue's worker, in whichever process took it). Returns
+ * normally when the job is finished, failed for good (bad options) or was finished by another
+ * build; throws when it should be tried again.
+ */
+export async function buildQueuedJob(db: Db, id: string): Promise<void> {
+	const [job] = await db
+		.update(printJobs)
+		.set({ state: 'running', attempts: sql`${printJobs.attempts} + 1` })
+		.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done'), ne(printJobs.state, 'failed')))
+		.returning();
+	if (!job) return;
+	const request = job.request as unknown as SheetRequest;
+	let last = 0;
+	let writing = Promise.resolve();
+	const progress = (done: number, total: number) => {
+		const now = Date.now();
+		if (now - last < PROGRESS_MS && done < total) return;
+		last = now;
+		writing = writing
+			.then(() => db.update(printJobs).set({ done, total }).where(and(eq(printJobs.id, id), eq(printJobs.state, 'running'))))
+			.then(() => undefined, () => undefined);
+	};
+	try {
+		const art = await artBytes(request.game);
+		// Isolated from the worker's cache when the bytes must not depend on what ran before: a
+		// proof, or a shared queue where a retry elsewhere must make the very same file.
+		const isolated = request.proof || jobQueue().shared;
+		const result = await runPrint({ type: 'sheets', isolated, game: request.game, art, options: request.options }, progress);
+		const sha256 = createHash('sha256').update(result.bytes).digest('hex');
+		const fileKey = `print/${sha256.slice(0, 2)}/${sha256}.pdf`;
+		await storage().putOnce(fileKey, result.bytes, 'application/pdf');
+		await writing;
+		// The first build to get here wins; any other keeps its hands off the row.
+		await db
+			.update(printJobs)
+			.set({
+				state: 'done',
+				fileKey,
+				done: Math.max(result.pages ?? 1, 1),
+				total: Math.max(result.pages ?? 1, 1),
+				result: { sheets: result.sheets, pages: result.pages, bytes: result.bytes.byteLength, warnings: result.warnings },
+				finishedAt: new Date()
+			})
+			.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
+	} catch (e) {
+		await writing;
+		if (e instanceof ApiError && e.status !== 503) {
+			await db
+				.update(printJobs)
+				.set({ state: 'failed', error: { status: e.status, message: e.message }, finishedAt: new Date() })
+				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
+			return;
+		}
+		if (!(e instanceof StorageUnavailableError)) console.error(e);
+		throw e;
+	}
+}
+
+/** Gives up on a job after its last attempt. */
+export async function failJob(db: Db, id: string, message = 'The build failed') {
+	await db
+		.update(printJobs)
+		.set({ state: 'failed', error: { status: 500, message }, finishedAt: new Date() })
+		.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
+}
