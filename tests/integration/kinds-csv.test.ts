@@ -103,7 +103,7 @@ describe('CSV import of a card kind', () => {
 			// eslint-disable-next-line @typescript-eslint/no-explicit-any
 			fakeEvent(w.callers.designer, { params: { gameId: w.gameId, kindId: 'kd-hazard' }, form }) as any;
 		const before = (await loadGame(w.db, w.gameId)).cards.filter((c) => c.kindId === 'kd-hazard');
-		const csv = ['name,copies,modifierName,effectText,steps', 'Clover Cushion,2,Clover Cushion,A snail that stops here slides one space on.,1', 'Moss Bed,1,Moss Bed,Soft going.,1'].join('\n');
+		const csv = ['name,copies,modifierName,effectText,steps', 'Dew Trail,3,Dew Trail,"The snails that stop here glide two spaces on, onto the top of any stack. Then lift the token.",2', 'Moss Bed,1,Moss Bed,Soft going.,1'].join('\n');
 		const preview = (await csvPage.actions.preview(hazard({ csv, removeMissing: 'on' }))) as unknown as { preview: { ok: boolean; missing: unknown[] }; basis: string };
 		expect(preview.preview.ok).toBe(true);
 		expect(preview.preview.missing).toHaveLength(3);

@@ -115,7 +115,7 @@ describe('places for art', () => {
 	});
 
 	it('round-trips its keys and refuses others', () => {
-		const a: ArtAssignment = { scope: 'card', targetId: 'kd-hazard.hz-ash', slot: 'icon' };
+		const a: ArtAssignment = { scope: 'card', targetId: 'kd-hazard.hz-bootprint', slot: 'icon' };
 		expect(parsePlaceKey(placeKey(a))).toEqual(a);
 		expect(parsePlaceKey('everything k-1 icon')).toBeNull();
 		expect(parsePlaceKey('kind k-1')).toBeNull();

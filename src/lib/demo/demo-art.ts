@@ -195,54 +195,71 @@ export function soilSvg(widthMm: number, heightMm: number, seed = 11): string {
 	return svg(widthMm, heightMm, body);
 }
 
-export function cloverIconSvg(): string {
-	return svg(
-		100,
-		100,
-		`<rect width="100" height="100" fill="#f2f6e6"/>` +
-			`<path d="M50 58 C52 72 58 82 66 90" fill="none" stroke="#3d7a37" stroke-width="4" stroke-linecap="round"/>` +
-			`<circle cx="36" cy="40" r="17" fill="#4f9a48"/><circle cx="64" cy="40" r="17" fill="#4f9a48"/>` +
-			`<circle cx="50" cy="63" r="17" fill="#5aa852"/>` +
-			`<path d="M50 50 L36 40 M50 50 L64 40 M50 50 L50 63" stroke="#e8f2d8" stroke-width="2" stroke-linecap="round"/>`
-	);
-}
-
-export function rainIconSvg(): string {
+/** Dew Trail: a shining slime trail with dew drops along it. */
+export function dewTrailIconSvg(): string {
 	const drop = (x: number, y: number, s: number) =>
-		`<path transform="translate(${x} ${y}) scale(${s})" d="M0 -10 C5 -3 7 1 7 4 C7 8.5 4 11 0 11 C-4 11 -7 8.5 -7 4 C-7 1 -5 -3 0 -10 Z" fill="#4d8fc0"/>`;
+		`<path transform="translate(${x} ${y}) scale(${s})" d="M0 -10 C5 -3 7 1 7 4 C7 8.5 4 11 0 11 C-4 11 -7 8.5 -7 4 C-7 1 -5 -3 0 -10 Z" fill="#5fa8d3"/>`;
 	return svg(
 		100,
 		100,
-		`<rect width="100" height="100" fill="#e6f0f4"/>` +
-			`<path d="M10 82 C30 70 70 70 90 82 C70 90 30 90 10 82 Z" fill="#6aa35a"/>` +
-			drop(32, 36, 2.2) +
-			drop(66, 30, 1.7) +
-			drop(58, 62, 1.3)
+		`<rect width="100" height="100" fill="#eef4ea"/>` +
+			`<path d="M8 78 C28 70 30 46 50 46 C70 46 72 26 92 20" fill="none" stroke="#c9d9e3" stroke-width="12" stroke-linecap="round"/>` +
+			`<path d="M8 78 C28 70 30 46 50 46 C70 46 72 26 92 20" fill="none" stroke="#ffffff" stroke-opacity="0.8" stroke-width="3" stroke-linecap="round"/>` +
+			`<path d="M70 80 L86 80 L86 72 L96 84 L86 96 L86 88 L70 88 Z" fill="#3f7f5a"/>` +
+			drop(30, 30, 1.3) +
+			drop(60, 66, 1.1) +
+			drop(80, 44, 0.9)
 	);
 }
 
-export function eggshellIconSvg(): string {
+/** Fallen Leaf: a broad leaf lying downhill, an arrow along its midrib. */
+export function fallenLeafIconSvg(): string {
 	return svg(
 		100,
 		100,
-		`<rect width="100" height="100" fill="#f4efe6"/>` +
-			`<path d="M18 70 L30 44 L40 58 L48 40 L56 66 Z" fill="#fbf7ee" stroke="#bfae8e" stroke-width="2" stroke-linejoin="round"/>` +
-			`<path d="M52 36 L74 24 L82 44 L70 40 L64 52 Z" fill="#fbf7ee" stroke="#bfae8e" stroke-width="2" stroke-linejoin="round"/>` +
-			`<path d="M58 80 L70 62 L86 74 L76 78 L72 88 Z" fill="#fbf7ee" stroke="#bfae8e" stroke-width="2" stroke-linejoin="round"/>`
+		`<rect width="100" height="100" fill="#f6f0e0"/>` +
+			`<g transform="rotate(-28 50 50)">` +
+			`<path d="M8 50 C26 22 70 20 92 50 C70 80 26 78 8 50 Z" fill="#d08a2e" stroke="#8f5a1c" stroke-width="2"/>` +
+			`<path d="M10 50 L90 50" stroke="#8f5a1c" stroke-width="2.2"/>` +
+			[30, 48, 66].map((x) => `<path d="M${x} 50 L${x + 12} 36 M${x} 50 L${x + 12} 64" stroke="#8f5a1c" stroke-width="1.4"/>`).join('') +
+			`<path d="M78 50 L68 43 L68 57 Z" fill="#5a3510"/>` +
+			`</g>`
 	);
 }
 
-export function ashIconSvg(seed = 3): string {
-	const rnd = random(seed);
-	let specks = '';
-	for (let i = 0; i < 40; i++)
-		specks += `<circle cx="${f(8 + rnd() * 84)}" cy="${f(36 + rnd() * 28)}" r="${f(0.8 + rnd() * 1.6)}" fill="${rnd() < 0.5 ? '#4a4a4a' : '#9a9a9a'}"/>`;
+/** Thistle Patch: a spiky purple head on a prickly stem, small enough for a wide icon box. */
+export function thistleIconSvg(): string {
+	const spikes = Array.from({ length: 9 }, (_, i) => {
+		const a = Math.PI * (1.1 + (0.8 * i) / 8);
+		return `<path d="M50 34 L${f(50 + 26 * Math.cos(a))} ${f(34 + 26 * Math.sin(a))}" stroke="#8a3f8f" stroke-width="3" stroke-linecap="round"/>`;
+	}).join('');
 	return svg(
 		100,
 		100,
-		`<rect width="100" height="100" fill="#efece7"/>` +
-			`<rect x="4" y="34" width="92" height="32" rx="6" fill="#6f6f6f"/>` +
-			specks
+		`<rect width="100" height="100" fill="#f3eef4"/>` +
+			`<g transform="translate(50 52) scale(0.52) translate(-50 -60)">` +
+			`<path d="M50 50 L50 94" stroke="#4f7a3a" stroke-width="4"/>` +
+			`<path d="M50 74 L30 62 L36 70 L22 70 L34 76 L26 84 L50 80 M50 66 L70 54 L64 62 L78 62 L66 68 L74 76 L50 72" fill="#5f8f46" stroke="#4f7a3a" stroke-width="1.5" stroke-linejoin="round"/>` +
+			spikes +
+			`<ellipse cx="50" cy="50" rx="13" ry="11" fill="#6f9a52" stroke="#4f7a3a" stroke-width="1.5"/>` +
+			`<path d="M40 46 L46 54 M46 44 L52 54 M52 44 L58 54 M58 46 L60 52" stroke="#4f7a3a" stroke-width="1.2"/>` +
+			`</g>`
+	);
+}
+
+/** Boot Print: a deep tread mark pressed into the soil, lying along the track. */
+export function bootPrintIconSvg(): string {
+	const treads = [24, 32, 40, 48, 56].map((y) => `<rect x="36" y="${y}" width="28" height="4" rx="2" fill="#4a3826"/>`).join('');
+	return svg(
+		100,
+		100,
+		`<rect width="100" height="100" fill="#efe6d6"/>` +
+			`<g transform="translate(50 50) rotate(90) scale(0.62) translate(-50 -50)">` +
+			`<path d="M50 12 C66 12 70 26 68 42 C66 56 64 62 62 66 L38 66 C36 62 34 56 32 42 C30 26 34 12 50 12 Z" fill="#7a5f44"/>` +
+			`<ellipse cx="50" cy="82" rx="13" ry="10" fill="#7a5f44"/>` +
+			treads +
+			[76, 84].map((y) => `<rect x="40" y="${y}" width="20" height="3.4" rx="1.7" fill="#4a3826"/>`).join('') +
+			`</g>`
 	);
 }
 
@@ -348,10 +365,10 @@ export function demoArtPieces(): DemoArtPiece[] {
 	});
 
 	const icons: [string, string, string][] = [
-		['hz-clover', 'icon-clover.png', cloverIconSvg()],
-		['hz-rain', 'icon-rain.png', rainIconSvg()],
-		['hz-eggshell', 'icon-eggshell.png', eggshellIconSvg()],
-		['hz-ash', 'icon-ash.png', ashIconSvg()]
+		['hz-dew', 'icon-dew-trail.png', dewTrailIconSvg()],
+		['hz-leaf', 'icon-fallen-leaf.png', fallenLeafIconSvg()],
+		['hz-thistle', 'icon-thistle.png', thistleIconSvg()],
+		['hz-bootprint', 'icon-boot-print.png', bootPrintIconSvg()]
 	];
 	for (const [id, fileName, art] of icons)
 		pieces.push({

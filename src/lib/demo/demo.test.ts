@@ -33,7 +33,7 @@ describe('demo game', () => {
 		expect(tile.back.mode).toBe('per-card');
 		expect(game.kinds.filter((k) => k.type !== 'tile').every((k) => k.back.mode === 'shared')).toBe(true);
 		const tiles = game.cards.filter((c) => c.data.type === 'tile');
-		expect(tiles.map((c) => (c.data.type === 'tile' ? c.data.role : ''))).toEqual(['start', ...Array(14).fill('normal'), 'finish']);
+		expect(tiles.map((c) => (c.data.type === 'tile' ? c.data.role : ''))).toEqual(['start', ...Array(6).fill('normal'), 'finish']);
 	});
 	it('returns fresh objects on every call', () => {
 		const a = demoGame();

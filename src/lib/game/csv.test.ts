@@ -14,7 +14,7 @@ describe('csv export', () => {
 		const csv = exportCardsCsv(kind('kd-movement'), game.cards, ctx);
 		const lines = csv.split('\r\n'); // RFC 4180 §2: CRLF between records
 		expect(lines[0]).toBe('name,copies,runner,steps');
-		expect(lines[1]).toBe('Rosehip 1,2,Rosehip,1');
+		expect(lines[1]).toBe('Rosehip 1,3,Rosehip,1');
 		expect(lines).toHaveLength(1 + 18);
 	});
 	it('writes wager cards with the money table by name', () => {
@@ -31,7 +31,7 @@ describe('csv export', () => {
 		const csv = exportCardsCsv(kind('kd-hazard'), game.cards, ctx);
 		const parsed = Papa.parse<Record<string, string>>(csv, { header: true });
 		expect(parsed.errors).toEqual([]);
-		expect(parsed.data[3]).toEqual({ name: 'Ash Strip', copies: '2', modifierName: 'Ash Strip', effectText: 'A snail that stops here shrinks back two spaces.', steps: '-2' });
+		expect(parsed.data[3]).toEqual({ name: 'Boot Print', copies: '1', modifierName: 'Boot Print', effectText: 'The snails that stop here slither three spaces back, under any stack there. Then lift the token.', steps: '-3' });
 	});
 });
 
@@ -113,6 +113,15 @@ describe('csv import errors', () => {
 		);
 		expect(setups.errors[0]).toMatchObject({ line: 2, column: 'players' });
 	});
+	it('reads setup files without the rogue-cards column, and an empty rogue-cards cell, as “not set”', () => {
+		const old = importCardsCsv('name,copies,players,handSize,discards,toSharedDeck,faceUp,extraFromDeck,trackLength\nS,1,4,4,6,8,2,1,6', kind('kd-setup'), ctx);
+		expect(old.errors).toEqual([]);
+		expect(old.rows[0].data).toEqual({ type: 'setup', players: 4, handSize: 4, discards: 6, toSharedDeck: 8, faceUp: 2, extraFromDeck: 1, trackLength: 6 });
+		const empty = importCardsCsv(`${csvColumns(kind('kd-setup')).join(',')}\nS,1,4,4,6,8,2,1,6,`, kind('kd-setup'), ctx);
+		expect(empty.rows[0].data).not.toHaveProperty('rogueToDeck');
+		const bad = importCardsCsv(`${csvColumns(kind('kd-setup')).join(',')}\nS,1,4,4,6,8,2,1,6,x`, kind('kd-setup'), ctx);
+		expect(bad.errors[0]).toMatchObject({ line: 2, column: 'rogueToDeck' });
+	});
 	it('accepts a byte order mark and headers in any case', () => {
 		const result = importCardsCsv('\uFEFFName,COPIES,Runner,Steps\nA,1,rosehip,1', k, ctx);
 		expect(result.ok).toBe(true);
@@ -125,20 +134,20 @@ describe('diffCards', () => {
 		const k = kind('kd-hazard');
 		const csv = [
 			'name,copies,modifierName,effectText,steps',
-			'Clover Cushion,2,Clover Cushion,A snail that stops here slides one space on.,1', // unchanged
-			'Rain Slick,3,Rain Slick,Wet leaves: a snail that stops here slides two spaces on.,2', // copies changed
-			'Eggshell Grit,2,Eggshell Grit,Sharp!,-1', // effect changed
+			'Dew Trail,3,Dew Trail,"The snails that stop here glide two spaces on, onto the top of any stack. Then lift the token.",2', // unchanged
+			'Fallen Leaf,2,Fallen Leaf,"A downhill ride: the snails that stop here slide three spaces on, onto the top. Then lift the token.",3', // copies changed
+			'Thistle Patch,3,Thistle Patch,Prickly!,-2', // effect changed
 			'Moss Bed,1,Moss Bed,Soft and slow.,0' // new
-		].join('\n'); // Ash Strip removed
+		].join('\n'); // Boot Print removed
 		const rows = importCardsCsv(csv, k, ctx).rows;
 		const diff = diffCards(game.cards, rows, k.id, () => 'new-id');
-		expect(diff.unchanged.map((c) => c.name)).toEqual(['Clover Cushion']);
+		expect(diff.unchanged.map((c) => c.name)).toEqual(['Dew Trail']);
 		expect(diff.changed.map((c) => [c.before.name, c.fields])).toEqual([
-			['Rain Slick', ['copies']],
-			['Eggshell Grit', ['effectText']]
+			['Fallen Leaf', ['copies']],
+			['Thistle Patch', ['effectText']]
 		]);
-		expect(diff.changed[0].after).toMatchObject({ id: 'kd-hazard.hz-rain', copies: 3 });
+		expect(diff.changed[0].after).toMatchObject({ id: 'kd-hazard.hz-leaf', copies: 2 });
 		expect(diff.added).toMatchObject([{ id: 'new-id', kindId: k.id, name: 'Moss Bed' }]);
-		expect(diff.removed.map((c) => c.name)).toEqual(['Ash Strip']);
+		expect(diff.removed.map((c) => c.name)).toEqual(['Boot Print']);
 	});
 });

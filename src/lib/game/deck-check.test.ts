@@ -65,30 +65,30 @@ describe('checkDeal (worked by hand)', () => {
 
 describe('checkDeck on the demo game', () => {
 	const game = demoGame();
-	it('counts 6 runners × 3 steps × 2 copies + 2 beetle steps × 2 copies = 40 cards to deal', () => {
-		expect(deckSupply(game)).toEqual({ movementCards: 36, rogueCards: 4, deckCards: 40, tiles: 16, startTiles: 1, finishTiles: 1 });
+	it('counts 6 runners × (3 + 3 + 1) copies = 42 snail cards and 2 + 1 beetle cards', () => {
+		expect(deckSupply(game)).toMatchObject({ movementCards: 42, rogueCards: 3, tiles: 8, startTiles: 1, finishTiles: 1 });
 	});
 	it('passes for every player count 2..8', () => {
 		const check = checkDeck(game);
 		expect(check.deals.map((d) => d.players)).toEqual([2, 3, 4, 5, 6, 7, 8]);
 		expect(check.issues.filter((i) => i.severity !== 'info')).toEqual([]);
 		expect(check.ok).toBe(true);
-		// 2 players: 2 × 7 + 4 + 10 + 2 + 2 = 32, remainder 8, shared deck 12.
-		expect(check.deals[0]).toMatchObject({ neededCards: 32, remainder: 8, sharedDeckCards: 12 });
+		// 2 players: 2 × 7 + 5 + 8 + 2 + 1 = 30 snail cards, shared deck 8 + 1.
+		expect(check.deals[0]).toMatchObject({ handCards: 14, neededCards: 30 });
 	});
 	it('totals per kind and for the game, with copies', () => {
 		const totals = Object.fromEntries(kindTotals(game).map((k) => [k.kindId, [k.designs, k.cards]]));
 		expect(totals).toEqual({
-			'kd-movement': [18, 36],
-			'kd-rogue': [2, 4],
-			'kd-wager': [54, 54], // 3 bet types × 6 runners × 3 tiers
+			'kd-movement': [18, 42],
+			'kd-rogue': [2, 3],
+			'kd-wager': [60, 60], // 6 runners × (2 stage + 4 winner + 4 last-place tiers)
 			'kd-setup': [7, 7],
 			'kd-hazard': [4, 8],
 			'kd-aid': [2, 16],
-			'kd-tile': [16, 16]
+			'kd-tile': [8, 8]
 		});
-		expect(checkDeck(game).totalCards).toBe(36 + 4 + 54 + 7 + 8 + 16 + 16);
-		expect(cardCount(game.cards)).toBe(141);
+		expect(checkDeck(game).totalCards).toBe(42 + 3 + 60 + 7 + 8 + 16 + 8);
+		expect(cardCount(game.cards)).toBe(144);
 	});
 	it('flags a second setup card for one player count, a gap, and lopsided runners', () => {
 		const g = demoGame();
@@ -96,11 +96,11 @@ describe('checkDeck on the demo game', () => {
 		const four = g.cards.find((c) => c.data.type === 'setup' && c.data.players === 4)!;
 		g.cards.push({ ...four, id: 'dup', name: 'Another 4' });
 		const firstMove = g.cards.find((c) => c.data.type === 'movement')!;
-		firstMove.copies = 5; // Rosehip 1: 5 + 2 + 2 = 9 cards
+		firstMove.copies = 5; // Rosehip 1: 5 + 3 + 1 = 9 cards
 		const messages = checkDeck(g).issues.map((i) => i.message);
 		expect(messages).toContain('4 players have 2 setup cards (Setup for 4 players, Another 4); keep one');
 		expect(messages).toContain('No setup card for 5 players');
-		expect(messages.some((m) => m.startsWith('Runners have different numbers of movement cards: Rosehip 9, Saffron 6'))).toBe(true);
+		expect(messages.some((m) => m.startsWith('Runners have different numbers of movement cards: Rosehip 9, Saffron 7'))).toBe(true);
 		expect(checkDeck(g).ok).toBe(false);
 	});
 	it('flags a track without start or finish tile', () => {

@@ -43,7 +43,7 @@ const byOrder = (runners: readonly Runner[]) =>
 export interface MovementMatrix {
 	kind: CardKind;
 	runners: readonly Runner[];
-	/** Step values, e.g. [1, 2, 3]. */
+	/** Step values, e.g. [1, 2, 4]. */
 	steps: readonly number[];
 	/** Copies of each runner × step card. */
 	copies: number;

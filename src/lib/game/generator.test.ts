@@ -7,9 +7,9 @@ const kind = (id: string) => game.kinds.find((k) => k.id === id)!;
 const ofKind = (id: string) => game.cards.filter((c) => c.kindId === id);
 
 describe('generator runs', () => {
-	it('reads the demo movement deck back as its matrix: 6 runners × steps 1–3 × 2 copies', () => {
+	it('reads the demo movement deck back as its matrix: 6 runners × steps 1, 2, 4, copies from the first card', () => {
 		const run = currentRun(kind('kd-movement'), game);
-		expect(run).toMatchObject({ type: 'movement', steps: [1, 2, 3], copies: 2 });
+		expect(run).toMatchObject({ type: 'movement', steps: [1, 2, 4], copies: 3 });
 		expect(run?.type === 'movement' && run.runnerIds).toHaveLength(6);
 		expect(MovementRunSchema.safeParse(run).success).toBe(true);
 	});
@@ -17,15 +17,16 @@ describe('generator runs', () => {
 	it('reads the wager tiers back per bet type, and remaking them changes nothing', () => {
 		const run = currentRun(kind('kd-wager'), game)!;
 		expect(WagerRunSchema.safeParse(run).success).toBe(true);
-		expect(run.type === 'wager' && run.tiers.stage).toEqual(['mt-stage-1', 'mt-stage-2', 'mt-stage-3']);
+		expect(run.type === 'wager' && run.tiers.stage).toEqual(['mt-stage-1', 'mt-stage-2']);
+		expect(run.type === 'wager' && run.tiers.winner).toEqual(['mt-winner-1', 'mt-winner-2', 'mt-winner-3', 'mt-winner-4']);
 		const plan = planRun(game.cards, 'kd-wager', runCards(kind('kd-wager'), game, run), true);
 		expect(plan).toMatchObject({ added: 0, updated: 0, removed: 0, unchanged: ofKind('kd-wager').length, writes: [] });
 	});
 
 	it('plans a smaller matrix as updates, additions and removals of the kind only', () => {
-		const run = { type: 'movement' as const, runnerIds: ['rn-rosehip'], steps: [1, 4], copies: 3, replace: true };
+		const run = { type: 'movement' as const, runnerIds: ['rn-rosehip'], steps: [1, 3], copies: 2, replace: true };
 		const plan = planRun(game.cards, 'kd-movement', runCards(kind('kd-movement'), game, run), true);
-		// Rosehip 1 changes copies, Rosehip 4 is new, the other 17 demo cards go.
+		// Rosehip 1 changes copies, Rosehip 3 is new, the other 17 demo cards go.
 		expect([plan.updated, plan.added, plan.removed]).toEqual([1, 1, 17]);
 		expect(plan.writes.every((w) => w.id.startsWith('kd-movement.'))).toBe(true);
 		const kept = planRun(game.cards, 'kd-movement', runCards(kind('kd-movement'), game, run), false);

@@ -77,14 +77,14 @@ export function currentRun(kind: CardKind, game: GameParts): Run | null {
 			return {
 				type: 'movement',
 				runnerIds: used.size ? ordered(game).filter((id) => used.has(id)) : ordered(game),
-				steps: data.length ? distinct(data.map((d) => d.steps)) : [1, 2, 3],
+				steps: data.length ? distinct(data.map((d) => d.steps)) : [1, 2, 4],
 				copies: firstCopies ?? 2,
 				replace: true
 			};
 		}
 		case 'rogue': {
 			const data = cards.flatMap((c) => (c.data.type === 'rogue' ? [c.data] : []));
-			return { type: 'rogue', steps: data.length ? distinct(data.map((d) => d.steps)) : [1, 2], copies: firstCopies ?? 2, replace: true };
+			return { type: 'rogue', steps: data.length ? distinct(data.map((d) => d.steps)) : [2, 3], copies: firstCopies ?? 1, replace: true };
 		}
 		case 'wager': {
 			const data = cards.flatMap((c) => (c.data.type === 'wager' ? [c.data] : []));
@@ -112,9 +112,9 @@ export function currentRun(kind: CardKind, game: GameParts): Run | null {
 			const finish = data.find((d) => d.role === 'finish');
 			return {
 				type: 'tile',
-				count: data.length >= 2 ? data.length : 12,
-				spacesFront: normal?.spacesFront ?? 3,
-				spacesBack: normal?.spacesBack ?? 2,
+				count: data.length >= 2 ? data.length : 8,
+				spacesFront: normal?.spacesFront ?? 4,
+				spacesBack: normal?.spacesBack ?? 3,
 				backLabel: normal?.backLabel ?? '',
 				endSpaces: start?.spacesFront ?? normal?.spacesFront ?? 3,
 				startLabel: start?.backLabel ?? '',

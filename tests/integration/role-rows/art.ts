@@ -53,7 +53,7 @@ export const rows: Row[] = [
 	{
 		route: 'action /games/{gameId}/art?/save (status, slot)',
 		run: async (w, who) => {
-			const art = (await game(w)).art.find((a) => a.id === 'art-icon-hz-ash')!;
+			const art = (await game(w)).art.find((a) => a.id === 'art-icon-hz-bootprint')!;
 			const data = { id: art.id, status: who === 'artist' ? 'sketch' : 'final', assignment: art.assignment, version: art.version };
 			return statusOf(() => artPage.actions.save(as(w, who, { params: g(w), form: { __superform_id: 'placement', ...superformJson(data) } })));
 		},

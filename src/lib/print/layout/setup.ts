@@ -1,6 +1,7 @@
 /**
  * Setup card front: one card per player count, printing its deal table (hand size, cards put
- * aside, cards to the shared deck, cards face up, extra cards from the deck) and the track length.
+ * aside, cards to the shared deck, cards face up, extra cards from the deck, rogue cards added to
+ * the shared deck) and the track length. A row whose field the card leaves out is not printed.
  */
 import type { SetupData } from '../../game/model';
 import { MM_PER_PT } from '../text';
@@ -23,7 +24,7 @@ export interface SetupParams extends FrontParams {
 }
 
 /** The deal-table fields a setup card can print, in the data's own names. */
-export const SETUP_FIELDS = ['handSize', 'discards', 'toSharedDeck', 'faceUp', 'extraFromDeck', 'trackLength'] as const;
+export const SETUP_FIELDS = ['handSize', 'discards', 'toSharedDeck', 'faceUp', 'extraFromDeck', 'rogueToDeck', 'trackLength'] as const;
 type SetupField = (typeof SETUP_FIELDS)[number];
 const isSetupField = (f: string): f is SetupField => (SETUP_FIELDS as readonly string[]).includes(f);
 
@@ -57,7 +58,7 @@ export function drawSetup(ctx: FaceContext<SetupParams>, data: SetupData) {
 			b.warn(`setup layout row “${r.field}” is not a setup field`);
 			return false;
 		}
-		return p.show[r.field] !== false;
+		return p.show[r.field] !== false && data[r.field] !== undefined;
 	});
 	if (rows.length === 0) return;
 	const rowMm = Math.min(12, box.hMm / rows.length);
