@@ -290,13 +290,13 @@ const kind = (id: string) => DEMO_KINDS.find((k) => k.id === id)!;
  * 7–8 players, 7 tiles (26 spaces): 5.63 stages, 7.2 and 7.0 turns.
  */
 const DEALS: Omit<SetupData, 'type'>[] = [
-	{ players: 2, handSize: 7, discards: 5, toSharedDeck: 8, faceUp: 2, extraFromDeck: 1, rogueToDeck: 1, trackLength: 5 },
-	{ players: 3, handSize: 5, discards: 6, toSharedDeck: 8, faceUp: 2, extraFromDeck: 1, rogueToDeck: 1, trackLength: 6 },
-	{ players: 4, handSize: 4, discards: 6, toSharedDeck: 8, faceUp: 2, extraFromDeck: 1, rogueToDeck: 1, trackLength: 6 },
-	{ players: 5, handSize: 4, discards: 2, toSharedDeck: 7, faceUp: 2, extraFromDeck: 1, rogueToDeck: 2, trackLength: 6 },
-	{ players: 6, handSize: 3, discards: 4, toSharedDeck: 7, faceUp: 2, extraFromDeck: 1, rogueToDeck: 2, trackLength: 6 },
-	{ players: 7, handSize: 3, discards: 2, toSharedDeck: 6, faceUp: 3, extraFromDeck: 1, rogueToDeck: 2, trackLength: 7 },
-	{ players: 8, handSize: 3, discards: 1, toSharedDeck: 6, faceUp: 2, extraFromDeck: 2, rogueToDeck: 2, trackLength: 7 }
+	{ players: 2, handSize: 7, discards: 5, toSharedDeck: 8, faceUp: 2, extraFromDeck: 1, trackLength: 5, rogueToDeck: 1 },
+	{ players: 3, handSize: 5, discards: 6, toSharedDeck: 8, faceUp: 2, extraFromDeck: 1, trackLength: 6, rogueToDeck: 1 },
+	{ players: 4, handSize: 4, discards: 6, toSharedDeck: 8, faceUp: 2, extraFromDeck: 1, trackLength: 6, rogueToDeck: 1 },
+	{ players: 5, handSize: 4, discards: 2, toSharedDeck: 7, faceUp: 2, extraFromDeck: 1, trackLength: 6, rogueToDeck: 2 },
+	{ players: 6, handSize: 3, discards: 4, toSharedDeck: 7, faceUp: 2, extraFromDeck: 1, trackLength: 6, rogueToDeck: 2 },
+	{ players: 7, handSize: 3, discards: 2, toSharedDeck: 6, faceUp: 3, extraFromDeck: 1, trackLength: 7, rogueToDeck: 2 },
+	{ players: 8, handSize: 3, discards: 1, toSharedDeck: 6, faceUp: 2, extraFromDeck: 2, trackLength: 7, rogueToDeck: 2 }
 ];
 
 /**

@@ -19,7 +19,7 @@ describe('new card kinds', () => {
 		const tiles = newKind({ name: 'More tiles', type: 'tile', size: cardSize('tarot', true), bleed: 'metric', template: 'tile-front' }, 'kd-tile');
 		expect(tiles.back.mode).toBe('per-card');
 		const card = blankCard(tiles, game, 'kd-tile.new');
-		expect(card.data).toMatchObject({ type: 'tile', number: 17 });
+		expect(card.data).toMatchObject({ type: 'tile', number: 9 });
 		// A blank card of a demo kind only lacks its name.
 		const move = blankCard(game.kinds[0], game, 'kd-movement.new');
 		expect(findReferenceProblems({ ...game, cards: [...game.cards, { ...move, name: 'New' }] })).toEqual([]);

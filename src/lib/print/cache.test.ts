@@ -48,8 +48,8 @@ describe('rebuilds re-render only what changed', () => {
 		const game = structuredClone(demo.game);
 		const first = await buildGamePdf(game, demo.art, { ...OPTIONS, cache });
 		const cold = cache.stats();
-		// Every distinct face once: 103 fronts, one shared back for each of 6 kinds, 16 tile backs.
-		expect(cold.layout.misses).toBe(103 + 6 + 16);
+		// Every distinct face once: 101 fronts, one shared back for each of 6 kinds, 8 tile backs.
+		expect(cold.layout.misses).toBe(101 + 6 + 8);
 		expect(cold.pixels.misses).toBe(new Set(game.art.map((a) => a.sha256)).size);
 
 		cache.resetStats();

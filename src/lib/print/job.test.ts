@@ -51,12 +51,12 @@ describe('buildGamePdf on the demo game', () => {
 		 * Sheets by hand, A4 landscape (ISO 216: 297 × 210 mm), 5 mm margin, 3 mm bleed, 2 mm gutter:
 		 * printable 287 × 200 mm.
 		 * - poker 69.5 × 94.9 with bleed: 4 across (4·69.5 + 3·2 = 284), 2 down (2·94.9 + 2 = 191.8) = 8;
-		 *   36 snail + 4 beetle + 7 setup + 16 aid cards = 63 → 8 sheets.
-		 * - bridge 63.15 × 94.9: 4 × 2 = 8 (portrait gives only 3 × 2); 54 wager cards → 7 sheets.
+		 *   42 snail + 3 beetle + 7 setup + 16 aid cards = 68 → 9 sheets.
+		 * - bridge 63.15 × 94.9: 4 × 2 = 8 (portrait gives only 3 × 2); 60 wager cards → 8 sheets.
 		 * - mini 50 × 74: 5 × 2 = 10; 8 hazard cards → 1 sheet.
-		 * - tarot turned 126 × 76: 2 × 2 = 4; 16 tiles → 4 sheets.
+		 * - tarot turned 126 × 76: 2 × 2 = 4; 8 tiles → 2 sheets.
 		 */
-		expect(out.sheets).toBe(8 + 7 + 1 + 4);
+		expect(out.sheets).toBe(9 + 8 + 1 + 2);
 		expect(pageCount(out.pdf)).toBe(out.sheets * 2 + 1);
 		expect(out.pages).toBe(out.sheets * 2 + 1);
 		const text = pdftotext(out.pdf);

@@ -30,9 +30,9 @@ describe('PrintPool', () => {
 		const progress: [number, number][] = [];
 		const r = await pool.run({ type: 'sheets', game: demo.game, art: demo.art, options: OPTIONS }, { onProgress: (d, t) => progress.push([d, t]) });
 		qpdfCheck(r.bytes);
-		// 8 hazard cards on 1 sheet, 54 wager cards on 7 (see job.test.ts), duplex, plus the cutting guide.
-		expect(r.sheets).toBe(8);
-		expect(pdfinfoBoxes(r.bytes).pages).toBe(8 * 2 + 1);
+		// 8 hazard cards on 1 sheet, 60 wager cards on 8 (see job.test.ts), duplex, plus the cutting guide.
+		expect(r.sheets).toBe(9);
+		expect(pdfinfoBoxes(r.bytes).pages).toBe(9 * 2 + 1);
 		expect(progress.length).toBeGreaterThan(0);
 		const [done, total] = progress.at(-1)!;
 		expect(done).toBe(total);
