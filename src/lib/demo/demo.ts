@@ -107,7 +107,8 @@ export const DEMO_MONEY_TABLES: MoneyTable[] = [
 	// The first pick on the leader: 4 × 0.310 + 2 × 0.241 − 3 × 0.255 = +0.96 coins (a pick at random −0.50).
 	table('mt-stage-1', 'Stage, first pick', [[1, 4], [2, 2], [3, 0]], -3),
 	// The second pick on the leader: 3 × 0.310 + 1 × 0.241 − 3 × 0.255 = +0.41 coins (at random −0.83).
-	table('mt-stage-2', 'Stage, second pick', [[1, 3], [2, 1], [3, 0]], -3),
+	// Every place spelt out, no catch-all: the validator must see all six covered.
+	table('mt-stage-2', 'Stage, second pick', [[1, 3], [2, 1], [3, 0], [4, -3], [5, -3], [6, -3]]),
 	// Winner and runner-up pay, any other place costs 2; with every chance at 1/6 the four picks
 	// are worth (9 + 2 − 8) / 6 = +0.50, +0.17, −0.17 and −0.50 coins (the lab: within ±0.02 for every snail).
 	table('mt-winner-1', 'Race winner, first pick', [[1, 9], [2, 2]], -2),

@@ -3,14 +3,14 @@
  * the demo game. These accounts exist only in demo mode (PADDOCK_DEMO=0 turns it off).
  */
 import { count } from 'drizzle-orm';
-import { DEMO_SCENARIOS } from '$lib/demo/odds-scenarios';
-import { saveScenario } from './odds';
 import type { Db } from './db';
 import { users, memberships, type Role } from './db/schema';
 import { createUser } from './users';
 import { createTeam } from './teams';
 import { createGameFrom } from './game-io';
 import { demoGameWithArt } from '$lib/demo/demo-art';
+import { demoScenarios } from '$lib/demo/pricing';
+import { saveScenario } from './odds';
 import { saveProfile } from './printer-profiles';
 import { cutProof, releaseProof } from './proofs';
 import { DEFAULT_PROFILE } from '$lib/schemas/printing';
@@ -43,8 +43,9 @@ export async function seedDemo(db: Db): Promise<boolean> {
 	await saveProfile(db, team.id, { ...DEFAULT_PROFILE, name: 'Print shop, Letter, CMYK', paper: 'letter', layout: 'butted', marginMm: 6.35, colour: 'cmyk' }, accounts.get('printer')!);
 	const { game, art } = await demoGameWithArt();
 	const row = await createGameFrom(db, { teamId: team.id, userId: accounts.get('designer')!, game, art });
-	for (const { name, scenario } of DEMO_SCENARIOS)
-		await saveScenario(db, { userId: accounts.get('designer')!, teamId: team.id, gameId: row.id }, { name, scenario });
+	// The start-of-stage positions the money tables were priced on, saved so a visitor can re-run them.
+	const designerActor = { userId: accounts.get('designer')!, teamId: team.id, gameId: row.id };
+	for (const { name, scenario } of demoScenarios(game)) await saveScenario(db, designerActor, { name, scenario });
 	// A first proof, released, so a printer has something to print straight away.
 	const designer = { id: accounts.get('designer')!, name: NAMES.designer };
 	const proof = await cutProof(db, { gameId: row.id, userId: designer.id, userName: designer.name, description: 'First playtest print' });
