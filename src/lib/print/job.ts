@@ -29,6 +29,8 @@ import { mmToPx, svgToPng } from './png';
 import { buildPressPdf } from './press';
 import { planSheets, type SheetFace } from './sheet-plan';
 import { buildSheetPdf } from './sheets';
+import { PressImageError } from './pdf-image';
+import type { PdfxTarget } from './pdfx';
 import { renderSvg } from './svg';
 
 /** A sheet PDF request: what to print and how (./options.ts), and how this run reports. */
@@ -37,6 +39,8 @@ export interface GamePdfOptions extends PrintOptions {
 	versionLabel?: string;
 	/** As the sheet label should read it; today (UTC) when absent. */
 	date?: string;
+	/** PDF/X for a press profile (colour is then the profile's CMYK). */
+	pdfx?: PdfxTarget;
 	onProgress?: (done: number, total: number) => void;
 	cache?: PrintCache;
 }
@@ -329,24 +333,31 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 	const sheetOptions = toSheetOptions(options);
 	const plan = planSheets({ faces: faces.cards, options: sheetOptions });
 	pageTotal = plan.groups.reduce((n, g) => n + g.pages.length, 0) + (sheetOptions.cuttingGuide ? 1 : 0);
-	const pdf = await buildSheetPdf({
-		title: options.title ?? game.name,
-		versionLabel: options.versionLabel ?? 'draft',
-		date: options.date ?? new Date().toISOString().slice(0, 10),
-		faces: faces.cards,
-		images: faces.images,
-		options: sheetOptions,
-		fonts: await loadFonts(),
-		imageStore: cache,
-		onPage: (d) => report(d)
-	});
-	return { pdf, sheets: plan.sheetCount, pages: pageTotal, warnings: [...faces.warnings, ...plan.warnings] };
+	const ink: string[] = [];
+	const pdf = await pressBuild(async () =>
+		buildSheetPdf({
+			title: options.title ?? game.name,
+			versionLabel: options.versionLabel ?? 'draft',
+			date: options.date ?? new Date().toISOString().slice(0, 10),
+			faces: faces.cards,
+			images: faces.images,
+			options: sheetOptions,
+			fonts: await loadFonts(),
+			imageStore: cache,
+			onPage: (d) => report(d),
+			pdfx: options.pdfx,
+			onInkOver: (what, pct) => ink.push(inkWarning(what, pct, options.pdfx!))
+		})
+	);
+	return { pdf, sheets: plan.sheetCount, pages: pageTotal, warnings: [...faces.warnings, ...plan.warnings, ...ink] };
 }
 
 /* ------------------------------------------------------------ press PDF */
 
 export interface CardPressOptions {
 	colour?: ColourMode;
+	/** PDF/X for a press profile (colour is then the profile's CMYK). */
+	pdfx?: PdfxTarget;
 	cropMarks?: boolean;
 	/** YYYY-MM-DD, the document's date (a proof's date keeps its press files the same bytes). */
 	date?: string;
@@ -375,18 +386,42 @@ export async function buildCardPressPdf(
 		cache.getOrMake('layout', faceKey(game, kind, card, side, images), () => layoutFace({ game, kind, card, side, images, fonts }), faceBytes);
 	const front = await layout('front');
 	const back = await layout('back');
-	const pdf = await buildPressPdf({
-		title: `${game.name} — ${card.name}`,
-		front,
-		back,
-		images,
-		colour: options.colour ?? 'cmyk',
-		cropMarks: options.cropMarks ?? false,
-		fonts,
-		imageStore: cache,
-		date: options.date
-	});
-	return { pdf, warnings: [...warnings, ...front.warnings, ...back.warnings] };
+	const ink: string[] = [];
+	const pdf = await pressBuild(() =>
+		buildPressPdf({
+			title: `${game.name} — ${card.name}`,
+			front,
+			back,
+			images,
+			colour: options.colour ?? 'cmyk',
+			cropMarks: options.cropMarks ?? false,
+			fonts,
+			imageStore: cache,
+			date: options.date,
+			pdfx: options.pdfx,
+			onInkOver: (what, pct) => ink.push(inkWarning(what, pct, options.pdfx!))
+		})
+	);
+	return { pdf, warnings: [...warnings, ...front.warnings, ...back.warnings, ...ink] };
+}
+
+/** A press standard's refusal (transparency in PDF/X-1a) is a refusal of the request, not a failure. */
+async function pressBuild<T>(build: () => Promise<T>): Promise<T> {
+	try {
+		return await build();
+	} catch (e) {
+		if (e instanceof PressImageError) throw new PrintOptionsError(`This game cannot be PDF/X-1a: ${e.message}`);
+		throw e;
+	}
+}
+
+/** The total-ink warning: what, how much, the limit and where the limit comes from. */
+function inkWarning(what: string, pct: number, pdfx: PdfxTarget): string {
+	const p = pdfx.profile;
+	return (
+		`${what} prints with ${Math.round(pct)} % total ink, over the ${p.totalInkLimitPct} % limit of ${p.conditionIdentifier}; ` +
+		`the press may smear or set off there (lighten the rich black or the colour)`
+	);
 }
 
 /* -------------------------------------------------------------- PNG zip */

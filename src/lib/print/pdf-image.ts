@@ -9,6 +9,7 @@
 import { deflateSync, inflateSync } from 'node:zlib';
 import { PDFDocument, PDFName, PDFRef } from 'pdf-lib';
 import type { ImageAsset } from './display-list';
+import type { PressColour } from './colour/cmm';
 
 export interface DecodedPng {
 	widthPx: number;
@@ -252,7 +253,10 @@ async function decodePngSlowly(bytes: Uint8Array): Promise<DecodedPng> {
 export interface EncodedPixels {
 	widthPx: number;
 	heightPx: number;
-	channels: 1 | 3;
+	/** 1 grey, 3 RGB, 4 CMYK (converted for a press profile). */
+	channels: 1 | 3 | 4;
+	/** CMYK only: the highest total ink of any pixel, in % (C + M + Y + K). */
+	maxInkPct?: number;
 	/** zlib streams (ISO 32000-1 §7.4.4 FlateDecode) of the colour samples and of the alpha, if any. */
 	colour: Uint8Array;
 	alpha: Uint8Array | null;
@@ -291,7 +295,7 @@ export function writeEncodedImage(doc: PDFDocument, pixels: EncodedPixels): PDFR
 	return context.register(
 		context.stream(pixels.colour, {
 			...common,
-			ColorSpace: pixels.channels === 1 ? 'DeviceGray' : 'DeviceRGB',
+			ColorSpace: pixels.channels === 1 ? 'DeviceGray' : pixels.channels === 4 ? 'DeviceCMYK' : 'DeviceRGB',
 			Filter: 'FlateDecode',
 			...(smask ? { SMask: smask } : {})
 		})
@@ -301,6 +305,52 @@ export function writeEncodedImage(doc: PDFDocument, pixels: EncodedPixels): PDFR
 /** Writes decoded pixels as a FlateDecode image XObject (plus soft mask) and returns its ref. */
 export function writePixelImage(doc: PDFDocument, png: DecodedPng): PDFRef {
 	return writeEncodedImage(doc, encodePixels(png));
+}
+
+/** What a press document asks of its images: CMYK through the profile, and the limits of its standard. */
+export interface PressImages {
+	colour: PressColour;
+	/** PDF/X-1a carries no transparency (ISO 15930-4): a picture with an alpha channel is refused. */
+	allowTransparency: boolean;
+	/** Told of each image's highest total ink, in %. */
+	onInk?: (imageId: string, maxInkPct: number) => void;
+}
+
+/** A picture that a press standard cannot carry as it is; the message says what to do. */
+export class PressImageError extends Error {
+	constructor(message: string) {
+		super(message);
+		this.name = 'PressImageError';
+	}
+}
+
+/** Decoded pixels of any accepted asset: PNG by our decoder, JPEG (and interlaced PNG) through jimp. */
+async function decodeAsset(asset: ImageAsset): Promise<DecodedPng> {
+	if (asset.mime === 'image/png') return decodePng(asset.bytes) ?? (await decodePngSlowly(asset.bytes));
+	return decodePngSlowly(asset.bytes);
+}
+
+/**
+ * Pixels converted to the press profile's CMYK (grey stays grey: it prints on the black plate),
+ * kept in the store under the art's hash, the profile and the intent.
+ */
+export async function pressPixels(asset: ImageAsset, press: PressColour, store?: EncodedImageStore): Promise<EncodedPixels> {
+	const key = `${pixelKey(asset)}|press:${press.profileKey}:${press.intent}`;
+	const kept = store?.get(key);
+	if (kept) return kept;
+	const png = await decodeAsset(asset);
+	let encoded: EncodedPixels;
+	if (png.channels === 3) {
+		const cmyk = press.pixelsToCmyk(png.colour);
+		let max = 0;
+		for (let i = 0; i < cmyk.length; i += 4) {
+			const sum = cmyk[i] + cmyk[i + 1] + cmyk[i + 2] + cmyk[i + 3];
+			if (sum > max) max = sum;
+		}
+		encoded = { ...encodePixels({ ...png, colour: cmyk, channels: 3 }), channels: 4, maxInkPct: Math.round((max / 255) * 1000) / 10 };
+	} else encoded = encodePixels(png);
+	store?.set(key, encoded);
+	return encoded;
 }
 
 /**
@@ -317,7 +367,9 @@ export class PdfImageCache {
 		private doc: PDFDocument,
 		private assets: ReadonlyMap<string, ImageAsset>,
 		/** Encoded pixels shared with other documents (optional). */
-		private store?: EncodedImageStore
+		private store?: EncodedImageStore,
+		/** Press output: every picture converted to the profile's CMYK. */
+		private press?: PressImages
 	) {}
 
 	ref(imageId: string): Promise<PDFRef> {
@@ -344,6 +396,13 @@ export class PdfImageCache {
 		const asset = this.assets.get(imageId);
 		if (!asset) throw new Error(`image ${imageId} is not in the image table`);
 		this.embedded++;
+		if (this.press) {
+			const pixels = await pressPixels(asset, this.press.colour, this.store);
+			if (pixels.alpha && !this.press.allowTransparency)
+				throw new PressImageError(`a picture (${asset.id.slice(0, 12)}) has transparent pixels, which PDF/X-1a cannot carry: choose PDF/X-4`);
+			if (pixels.maxInkPct !== undefined) this.press.onInk?.(imageId, pixels.maxInkPct);
+			return writeEncodedImage(this.doc, pixels);
+		}
 		if (asset.mime === 'image/jpeg') return (await this.doc.embedJpg(asset.bytes)).ref;
 		const key = pixelKey(asset);
 		let pixels = this.store?.get(key);

@@ -41,6 +41,7 @@ import type { FontSet } from './fonts';
 import { PT_PER_MM } from './paper';
 import { sharedFontkit } from './pdf-fontkit';
 import { PdfImageCache, type EncodedImageStore } from './pdf-image';
+import type { PressColour } from './colour/cmm';
 
 export type ColourMode = 'rgb' | 'cmyk';
 
@@ -111,6 +112,22 @@ export function roundedRectPath(x: number, y: number, w: number, h: number, radi
 	].join(' ');
 }
 
+/**
+ * Press output (PDF/X): colours and pictures through the press profile, fonts subset and named
+ * with a subset tag, the standard's limits on transparency.
+ */
+export interface PressOutput {
+	colour: PressColour;
+	/** False for PDF/X-1a (ISO 15930-4 forbids transparency). */
+	allowTransparency: boolean;
+	/** Six capital letters for the subset fonts' names (ISO 32000-1 §9.6.4), e.g. from a hash of the document. */
+	subsetTag: string;
+	/** Highest total ink the condition allows, in %. */
+	totalInkLimitPct: number;
+	/** Told of every colour or picture whose total ink is over the limit (each once). */
+	onInkOver?: (what: string, pct: number) => void;
+}
+
 export interface PdfFaceWriterOptions {
 	fonts: FontSet;
 	/** Image table shared by all faces of the document, keyed by image id. */
@@ -124,6 +141,8 @@ export interface PdfFaceWriterOptions {
 	 * drawing, and the file grows with distinct faces, not with copies.
 	 */
 	faceForms?: boolean;
+	/** Press output through a profile (implies CMYK). */
+	press?: PressOutput;
 }
 
 /**
@@ -157,6 +176,8 @@ export class PdfFaceWriter {
 	private forms = new WeakMap<FaceLayout, Promise<PDFRef>>();
 	private fontSet: FontSet;
 	private formNames = new WeakMap<PDFPage, Map<PDFRef, PDFName>>();
+	private press?: PressOutput;
+	private inkReported = new Set<string>();
 
 	private constructor(
 		readonly doc: PDFDocument,
@@ -164,10 +185,27 @@ export class PdfFaceWriter {
 		images: ReadonlyMap<string, ImageAsset>,
 		options: PdfFaceWriterOptions
 	) {
-		this.colour = options.colour ?? 'rgb';
+		this.press = options.press;
+		this.colour = options.press ? 'cmyk' : (options.colour ?? 'rgb');
 		this.faceForms = !!options.faceForms;
 		this.fontSet = options.fonts;
-		this.images = new PdfImageCache(doc, images, options.imageStore);
+		const press = options.press;
+		this.images = new PdfImageCache(
+			doc,
+			images,
+			options.imageStore,
+			press && {
+				colour: press.colour,
+				allowTransparency: press.allowTransparency,
+				onInk: (id, pct) => this.checkInk(`a picture (${id.slice(0, 12)})`, pct)
+			}
+		);
+	}
+
+	private checkInk(what: string, pct: number): void {
+		if (!this.press || pct <= this.press.totalInkLimitPct + 0.5 || this.inkReported.has(what)) return;
+		this.inkReported.add(what);
+		this.press.onInkOver?.(what, pct);
 	}
 
 	static async create(doc: PDFDocument, options: PdfFaceWriterOptions): Promise<PdfFaceWriter> {
@@ -175,11 +213,15 @@ export class PdfFaceWriter {
 		doc.registerFontkit(sharedFontkit);
 		// TrueType bytes, never woff2 (pdf-lib would write invisible glyphs). Subset to the glyphs
 		// used, except with face forms: forms kept between documents use the font's own glyph ids,
-		// so the whole font goes in (the shipped Latin set is 28 KB a weight).
-		const subset = !options.faceForms;
+		// so the whole font goes in (the shipped Latin set is 28 KB a weight). Press files always
+		// subset (PDF/X preflight expects it) and draw their forms afresh.
+		const subset = !!options.press || !options.faceForms;
+		// A subset font's name is its PostScript name behind a tag of six capitals (ISO 32000-1 §9.6.4).
+		const name = (f: FontSet['regular'], n: number) =>
+			options.press ? { customName: `${subsetTag(options.press.subsetTag, n)}+${f.metrics.postscriptName ?? `RobotoSlab-${f.weight}`}` } : {};
 		const [regular, bold] = await Promise.all([
-			doc.embedFont(new Uint8Array(options.fonts.regular.ttf), { subset }),
-			doc.embedFont(new Uint8Array(options.fonts.bold.ttf), { subset })
+			doc.embedFont(new Uint8Array(options.fonts.regular.ttf), { subset, ...name(options.fonts.regular, 0) }),
+			doc.embedFont(new Uint8Array(options.fonts.bold.ttf), { subset, ...name(options.fonts.bold, 1) })
 		]);
 		const table = new Map<string, ImageAsset>();
 		if (options.images instanceof Map) for (const [id, a] of options.images) table.set(id, a);
@@ -192,7 +234,11 @@ export class PdfFaceWriter {
 	}
 
 	paint(colour: Colour): Color {
-		return pdfColour(colour, this.colour);
+		if (!this.press) return pdfColour(colour, this.colour);
+		// A colour's own press value (a runner's CMYK) as given; anything else through the profile.
+		const [c, m, y, k] = colour.cmyk ?? this.press.colour.cmykOf(colour.hex);
+		this.checkInk(colour.cmyk ? `the colour C${pct(c)} M${pct(m)} Y${pct(y)} K${pct(k)}` : `the colour ${colour.hex}`, (c + m + y + k) * 100);
+		return cmyk(c, m, y, k);
 	}
 
 	/** Draws the whole face with its bottom-left bleed corner at the placement (pt). */
@@ -222,7 +268,8 @@ export class PdfFaceWriter {
 	}
 
 	private async writeForm(face: FaceLayout): Promise<PDFRef> {
-		const kept = keptForms.get(face);
+		// Press forms hold subset glyph ids and one profile's colours: never kept between documents.
+		const kept = this.press ? undefined : keptForms.get(face);
 		const form =
 			kept && kept.colour === this.colour && kept.fonts === this.fontSet ? this.replay(kept) : await this.drawForm(face);
 		this.formsWritten++;
@@ -279,7 +326,7 @@ export class PdfFaceWriter {
 			images,
 			texts: face.items.flatMap((i) => (i.type === 'text' && i.text ? [[i.weight, i.text] as [FontWeight, string]] : []))
 		};
-		keptForms.set(face, form);
+		if (!this.press) keptForms.set(face, form);
 		return form;
 	}
 
@@ -480,6 +527,15 @@ export async function drawIntoForm(
 			Filter: 'FlateDecode'
 		})
 	);
+}
+
+const pct = (v: number) => Math.round(v * 100);
+
+/** Six capitals from a document's tag and a font's number: subsets of one document never share a name. */
+export function subsetTag(tag: string, n: number): string {
+	const letters = tag.toUpperCase().replace(/[^A-Z]/g, '').padEnd(6, 'A').slice(0, 6);
+	const last = String.fromCharCode(65 + ((letters.charCodeAt(5) - 65 + n) % 26));
+	return letters.slice(0, 5) + last;
 }
 
 /** Rounded rectangle path operators in pt (bottom-left x, y), for clipping. */

@@ -13,6 +13,8 @@ import { CROP_MARK, drawSheetMarks, type MarkLine } from './marks';
 import { PT_PER_MM } from './paper';
 import { PdfFaceWriter, type ColourMode } from './pdf';
 import type { EncodedImageStore } from './pdf-image';
+import { PressColour } from './colour/cmm';
+import { documentTag, finishPdfx, savePdfx, type PdfxTarget } from './pdfx';
 
 /** Mark length on a press file: shorter than on a sheet, since the page only has to carry them. */
 export const PRESS_MARK_LENGTH_MM = 5;
@@ -81,6 +83,10 @@ export interface PressPdfInput {
 	imageStore?: EncodedImageStore;
 	/** YYYY-MM-DD: the document's date, so the same input gives the same bytes (now when absent). */
 	date?: string;
+	/** A PDF/X file for a press profile instead of plain RGB or CMYK. */
+	pdfx?: PdfxTarget;
+	/** Told of colours and pictures over the profile's total ink limit (PDF/X only). */
+	onInkOver?: (what: string, pct: number) => void;
 }
 
 export async function buildPressPdf(input: PressPdfInput): Promise<Uint8Array> {
@@ -93,16 +99,29 @@ export async function buildPressPdf(input: PressPdfInput): Promise<Uint8Array> {
 		doc.setCreationDate(stamp);
 		doc.setModificationDate(stamp);
 	}
+	const pdfx = input.pdfx;
+	const seed = `${input.title ?? ''}|${input.date ?? ''}|${pdfx?.standard}|${pdfx?.intent}`;
 	const writer = await PdfFaceWriter.create(doc, {
 		fonts: input.fonts ?? (await loadFonts()),
 		images: input.images,
 		colour: input.colour ?? 'cmyk',
-		imageStore: input.imageStore
+		imageStore: input.imageStore,
+		...(pdfx && {
+			press: {
+				colour: await PressColour.open(pdfx.profile.icc, pdfx.intent),
+				allowTransparency: pdfx.standard === 'pdfx4',
+				subsetTag: documentTag(seed),
+				totalInkLimitPct: pdfx.profile.totalInkLimitPct,
+				onInkOver: input.onInkOver
+			}
+		})
 	});
 	for (const face of input.back ? [input.front, input.back] : [input.front]) {
 		await drawPressPage(doc.addPage(), writer, face, !!input.cropMarks);
 	}
-	return doc.save();
+	if (!pdfx) return doc.save();
+	finishPdfx(doc, pdfx, { title: input.title ?? 'Card', date: stamp && !Number.isNaN(stamp.getTime()) ? stamp : new Date(), seed });
+	return savePdfx(doc, pdfx.standard);
 }
 
 async function drawPressPage(page: PDFPage, writer: PdfFaceWriter, face: FaceLayout, cropMarks: boolean): Promise<void> {

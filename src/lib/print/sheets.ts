@@ -18,6 +18,8 @@ import { drawSheetMarks, sheetMarks } from './marks';
 import { mmToPt, PT_PER_MM } from './paper';
 import { drawIntoForm, packPageContent, PdfFaceWriter } from './pdf';
 import type { EncodedImageStore } from './pdf-image';
+import { PressColour } from './colour/cmm';
+import { documentTag, finishPdfx, savePdfx, type PdfxTarget } from './pdfx';
 
 export interface SheetPdfInput {
 	title: string;
@@ -32,6 +34,10 @@ export interface SheetPdfInput {
 	imageStore?: EncodedImageStore;
 	/** Called after each page is drawn, with the pages done and the document's page count. */
 	onPage?: (done: number, total: number) => void;
+	/** A PDF/X file for a press profile instead of plain RGB or CMYK. */
+	pdfx?: PdfxTarget;
+	/** Told of colours and pictures over the profile's total ink limit (PDF/X only). */
+	onInkOver?: (what: string, pct: number) => void;
 }
 
 export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
@@ -47,13 +53,25 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 		doc.setCreationDate(stamp);
 		doc.setModificationDate(stamp);
 	}
+	const pdfx = input.pdfx;
+	const title = `${input.title} — ${input.versionLabel} — sheets`;
+	const seed = `${title}|${input.date}|${pdfx?.standard}|${pdfx?.intent}`;
 	const writer = await PdfFaceWriter.create(doc, {
 		fonts: input.fonts ?? (await loadFonts()),
 		images: input.images,
 		colour: o.colour,
 		imageStore: input.imageStore,
 		// A card printed many times is drawn once and placed by reference.
-		faceForms: true
+		faceForms: true,
+		...(pdfx && {
+			press: {
+				colour: await PressColour.open(pdfx.profile.icc, pdfx.intent),
+				allowTransparency: pdfx.standard === 'pdfx4',
+				subsetTag: documentTag(seed),
+				totalInkLimitPct: pdfx.profile.totalInkLimitPct,
+				onInkOver: input.onInkOver
+			}
+		})
 	});
 	const labelFont = writer.font('regular');
 	const labelColour = writer.paint({ hex: '#000000', cmyk: [0, 0, 0, 1] });
@@ -119,6 +137,10 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 	if (o.cuttingGuide) {
 		drawCuttingGuide(doc, writer, { title: input.title, versionLabel: input.versionLabel, plan, options: o });
 		input.onPage?.(++pagesDone, totalPages);
+	}
+	if (pdfx) {
+		finishPdfx(doc, pdfx, { title, date: Number.isNaN(stamp.getTime()) ? new Date() : stamp, seed });
+		return savePdfx(doc, pdfx.standard);
 	}
 	// Written in one go: pdf-lib's default pause every 50 objects cost a third of the save, and
 	// large builds run in worker threads (./pool.ts), where nothing else waits for the event loop.
