@@ -11,7 +11,9 @@ const shop: PrintSettings = {
 	duplex: 'short',
 	backOffsetXMm: 0.8,
 	backOffsetYMm: -0.5,
-	colour: 'cmyk'
+	colour: 'cmyk',
+	output: 'pdfx4',
+	intent: 'perceptual'
 };
 
 describe('print settings', () => {
@@ -23,12 +25,21 @@ describe('print settings', () => {
 			marks: false,
 			duplex: 'short',
 			backOffsetMm: { x: 0.8, y: -0.5 },
-			colour: 'cmyk'
+			colour: 'cmyk',
+			output: 'pdfx4',
+			intent: 'perceptual'
 		});
 	});
 
+	it('take output=pdfx4 or pdfx1a and a rendering intent; plain and relative when absent', () => {
+		expect(parsePrintOptions({ output: 'pdfx1a' })).toMatchObject({ output: 'pdfx1a', intent: 'relative' });
+		expect(parsePrintOptions({})).toMatchObject({ output: 'plain', intent: 'relative' });
+		expect(() => parsePrintOptions({ output: 'pdfx3' })).toThrow(/output is plain, pdfx4 or pdfx1a/);
+		expect(() => parsePrintOptions({ intent: 'saturation' })).toThrow(/intent is relative or perceptual/);
+	});
+
 	it('hold the same limits typed as in the query', () => {
-		for (const bad of [{ marginMm: 51 }, { backOffsetXMm: 10.5 }, { customWidthMm: 40 }, { layout: 'tiled' }]) {
+		for (const bad of [{ marginMm: 51 }, { backOffsetXMm: 10.5 }, { customWidthMm: 40 }, { layout: 'tiled' }, { output: 'pdfx3' }]) {
 			const settings = { ...shop, ...bad } as PrintSettings;
 			expect(PrintSettingsSchema.safeParse(settings).success).toBe(false);
 			expect(() => parsePrintOptions(settingsQuery(settings))).toThrow();

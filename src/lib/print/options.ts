@@ -15,6 +15,7 @@ import type { ImposeLayout } from './impose';
 import { paperSize, type PaperName, type PaperSpec } from './paper';
 import type { ColourMode } from './pdf';
 import type { SheetOptions } from './sheet-plan';
+import { RENDERING_INTENTS, type RenderingIntent } from './colour/cmm';
 
 /* ---------------------------------------------------------------- errors */
 
@@ -48,6 +49,14 @@ export const PAPER_NAMES = ['a4', 'a3', 'letter', 'tabloid'] as const satisfies 
 export const LAYOUTS = ['spaced', 'butted', 'fold'] as const satisfies readonly ImposeLayout[];
 export const DUPLEX_MODES = ['none', 'long', 'short'] as const satisfies readonly DuplexMode[];
 export const COLOUR_MODES = ['rgb', 'cmyk'] as const satisfies readonly ColourMode[];
+/**
+ * What kind of file: `plain` is an ordinary PDF in `colour` (home and office printers take any
+ * PDF); `pdfx4` and `pdfx1a` are the exchange files a print shop asks for (ISO 15930, ./pdfx.ts),
+ * in the CMYK of a press profile.
+ */
+export const OUTPUTS = ['plain', 'pdfx4', 'pdfx1a'] as const;
+export type Output = (typeof OUTPUTS)[number];
+export { RENDERING_INTENTS };
 
 /** “a, b or c”, for messages. */
 const either = (values: readonly string[]) => `${values.slice(0, -1).join(', ')} or ${values.at(-1)}`;
@@ -78,7 +87,10 @@ export const PrintSettingsSchema = z.object({
 	/** Read off the calibration sheet: how far the back lands right (+x) and below (+y) of the front. */
 	backOffsetXMm: backOffsetMm,
 	backOffsetYMm: backOffsetMm,
-	colour: choice('colour', COLOUR_MODES)
+	colour: choice('colour', COLOUR_MODES),
+	output: choice('output', OUTPUTS).default('plain'),
+	/** How RGB art goes into the press profile's CMYK (PDF/X only): relative colorimetric with black-point compensation, or perceptual. */
+	intent: choice('intent', RENDERING_INTENTS).default('relative')
 });
 export type PrintSettings = z.infer<typeof PrintSettingsSchema>;
 
@@ -92,7 +104,9 @@ export function settingsQuery(s: PrintSettings): Record<string, string> {
 		duplex: s.duplex,
 		backX: String(s.backOffsetXMm),
 		backY: String(s.backOffsetYMm),
-		colour: s.colour
+		colour: s.colour,
+		output: s.output,
+		intent: s.intent
 	};
 }
 
@@ -155,6 +169,8 @@ export const PrintQuerySchema = z.object({
 		.max(MARGIN_MAX_MM, `margin is at most ${MARGIN_MAX_MM} mm`)
 		.default(DEFAULT_MARGIN_MM),
 	colour: PrintSettingsSchema.shape.colour.default('rgb'),
+	output: PrintSettingsSchema.shape.output,
+	intent: PrintSettingsSchema.shape.intent,
 	guide: Boolish.default(true),
 	/** Card kind ids, comma-separated; all kinds when absent. */
 	kinds: z
@@ -182,6 +198,9 @@ export interface PrintOptions {
 	/** The printer's back-side error read from the calibration sheet (see ./duplex.ts). */
 	backOffsetMm?: { x: number; y: number };
 	colour: ColourMode;
+	/** Plain PDF or PDF/X (the press profile comes with the request, see ./pdfx.ts). */
+	output?: Output;
+	intent?: RenderingIntent;
 	cuttingGuide?: boolean;
 	/** Card kind ids to print; all when absent. */
 	kinds?: string[];
@@ -197,6 +216,8 @@ export const PrintOptionsSchema = PrintQuerySchema.transform(
 		marks: q.marks,
 		sets: q.sets,
 		colour: q.colour,
+		output: q.output,
+		intent: q.intent,
 		cuttingGuide: q.guide,
 		kinds: q.kinds,
 		backOffsetMm: { x: q.backX, y: q.backY }
@@ -232,7 +253,9 @@ export function checkPrintOptions(o: PrintOptions): void {
 	for (const [name, value, values] of [
 		['layout', o.layout, LAYOUTS],
 		['duplex', o.duplex, DUPLEX_MODES],
-		['colour', o.colour, COLOUR_MODES]
+		['colour', o.colour, COLOUR_MODES],
+		['output', o.output ?? 'plain', OUTPUTS],
+		['intent', o.intent ?? 'relative', RENDERING_INTENTS]
 	] as const)
 		if (!(values as readonly string[]).includes(value)) throw new PrintOptionsError(`${name} is ${either(values)}`);
 	paperSize(o.paper);

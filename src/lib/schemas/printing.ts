@@ -26,5 +26,33 @@ export const DEFAULT_PROFILE: PrinterProfile = {
 	duplex: 'long',
 	backOffsetXMm: 0,
 	backOffsetYMm: 0,
-	colour: 'rgb'
+	colour: 'rgb',
+	output: 'plain',
+	intent: 'relative'
 };
+
+/** Ink limit assumed for an uploaded profile until the printer says: the low end of common practice for coated stock (300–330 %). */
+export const DEFAULT_INK_LIMIT_PCT = 300;
+
+/**
+ * The printing condition that goes with an uploaded ICC profile, as PDF/X names it: the
+ * identifier the print shop confirms (e.g. FOGRA51, GRACoL2013), words for people, where the
+ * identifier is registered, and the condition's total ink limit.
+ */
+export const PressConditionSchema = z.object({
+	conditionIdentifier: z
+		.string()
+		.trim()
+		.min(1, 'Name the printing condition (ask the print shop, e.g. FOGRA39)')
+		.max(60)
+		.regex(/^[\x20-\x7e]+$/, 'The condition identifier is plain ASCII letters, digits and signs'),
+	condition: z.string().trim().max(200).default(''),
+	registryName: z.string().trim().max(200).default(''),
+	totalInkLimitPct: z.coerce
+		.number({ error: 'The ink limit is a number of %' })
+		.int('The ink limit is a whole number of %')
+		.min(200, 'The ink limit is 200–400 %')
+		.max(400, 'The ink limit is 200–400 %')
+		.default(DEFAULT_INK_LIMIT_PCT)
+});
+export type PressCondition = z.infer<typeof PressConditionSchema>;

@@ -3,7 +3,12 @@
  * one card's press PDF and the PNG zip. A proof's files are built from its snapshot only.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, fileStem } from './printing';
+import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, fileStem, pdfxTarget } from './printing';
+import { PrintQuerySchema } from '$lib/print/options';
+import { isUuid } from '$lib/schemas/ids';
+
+/** A press file's own choices: plain or PDF/X, and the rendering intent. */
+const PressQuerySchema = PrintQuerySchema.pick({ output: true, intent: true });
 import { ApiError } from './api';
 import { db } from './runtime';
 
@@ -24,15 +29,21 @@ export async function pressPdf(event: Ev) {
 	const source = await printSource(d, event.locals, event.params.gameId, event.params.proofId);
 	const cardId = event.params.cardId!;
 	if (!source.game.cards.some((c) => c.id === cardId)) throw new ApiError(404, 'No such card');
-	const colour = event.url.searchParams.get('colour') === 'rgb' ? 'rgb' : 'cmyk';
-	const marks = event.url.searchParams.get('marks') === '1';
+	const query = event.url.searchParams;
+	const colour = query.get('colour') === 'rgb' ? 'rgb' : 'cmyk';
+	const marks = query.get('marks') === '1';
+	const press = PressQuerySchema.safeParse({ output: query.get('output') ?? undefined, intent: query.get('intent') ?? undefined });
+	if (!press.success) throw new ApiError(400, press.error.issues.map((i) => i.message).join('; '));
+	const profileId = query.get('profile') ?? undefined;
+	if (profileId !== undefined && !isUuid(profileId)) throw new ApiError(404, 'No such printer profile in this team');
+	const pdfx = await pdfxTarget(d, source, press.data, profileId);
 	const result = await runPrint({
 		type: 'press',
 		isolated: !!source.proofNumber,
 		game: source.game,
 		art: await artBytes(source.game),
 		cardId,
-		options: { colour, cropMarks: marks, date: source.date }
+		options: { colour, cropMarks: marks, date: source.date, ...(pdfx ? { pdfx } : {}) }
 	});
 	await logDownload(d, source, `press:${cardId}`);
 	return fileResponse(result.bytes, 'application/pdf', `${fileStem(source)}-${cardId}.pdf`, result.warnings);

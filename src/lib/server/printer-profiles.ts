@@ -1,13 +1,16 @@
 /** A team's printer profiles, kept by printers and designers, versioned against lost updates. */
-import { and, asc, eq } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
 import type { Db } from './db';
 import { printerProfiles } from './db/schema';
-import type { PrinterProfile } from '$lib/schemas/printing';
+import { DEFAULT_INK_LIMIT_PCT, type PressCondition, type PrinterProfile } from '$lib/schemas/printing';
+import { checkPressProfile } from '$lib/print/colour/icc';
+import { PressColour, type PressProfile } from '$lib/print/colour/cmm';
+import { BUILTIN_CONDITION, BUILTIN_PROFILE_NAME, builtinPressProfile } from '$lib/print/colour/press-profiles';
 import { logActivity } from './activity';
 
 export class ProfileError extends Error {
 	constructor(
-		readonly status: 404 | 409,
+		readonly status: 400 | 404 | 409,
 		message: string
 	) {
 		super(message);
@@ -25,11 +28,13 @@ const fields = (p: PrinterProfile) => ({
 	duplex: p.duplex,
 	backOffsetXMm: p.backOffsetXMm,
 	backOffsetYMm: p.backOffsetYMm,
-	colour: p.colour
+	colour: p.colour,
+	output: p.output,
+	intent: p.intent
 });
 
 type Row = typeof printerProfiles.$inferSelect;
-export const asProfile = (r: Row): PrinterProfile & { id: string; version: number } => ({
+export const asProfile = (r: Row): PrinterProfile & { id: string; version: number; press: PressSummary } => ({
 	id: r.id,
 	name: r.name,
 	paper: r.paper,
@@ -42,8 +47,101 @@ export const asProfile = (r: Row): PrinterProfile & { id: string; version: numbe
 	backOffsetXMm: r.backOffsetXMm,
 	backOffsetYMm: r.backOffsetYMm,
 	colour: r.colour,
+	output: r.output,
+	intent: r.intent,
+	press: pressSummary(r),
 	version: r.version
 });
+
+/** What the profile prints PDF/X for, in words (never the ICC bytes themselves). */
+export interface PressSummary {
+	/** True when the printer uploaded their own ICC profile. */
+	custom: boolean;
+	profileName: string;
+	conditionIdentifier: string;
+	condition: string;
+	totalInkLimitPct: number;
+	iccBytes?: number;
+}
+
+function pressSummary(r: Row): PressSummary {
+	if (!r.iccProfile)
+		return { custom: false, profileName: BUILTIN_PROFILE_NAME, ...BUILTIN_CONDITION };
+	return {
+		custom: true,
+		profileName: r.iccName ?? 'Uploaded profile',
+		conditionIdentifier: r.pressCondition ?? 'Custom',
+		condition: r.pressConditionInfo ?? '',
+		totalInkLimitPct: r.inkLimitPct ?? DEFAULT_INK_LIMIT_PCT,
+		iccBytes: r.iccProfile.length
+	};
+}
+
+/** The game's default press profile in words: a printer profile's, or the built-in one. */
+export async function gamePressSummary(db: Db, teamId: string, pressProfileId: string | null): Promise<PressSummary & { printerProfile?: string }> {
+	if (pressProfileId) {
+		const [row] = await db.select().from(printerProfiles).where(and(eq(printerProfiles.teamId, teamId), eq(printerProfiles.id, pressProfileId)));
+		if (row) return { ...pressSummary(row), printerProfile: row.name };
+	}
+	return { custom: false, profileName: BUILTIN_PROFILE_NAME, ...BUILTIN_CONDITION };
+}
+
+/** The press profile a PDF/X file of this printer profile embeds: its uploaded ICC and condition, or the built-in ones. */
+export async function pressProfileOf(db: Db, teamId: string, id: string): Promise<PressProfile> {
+	const [row] = await db.select().from(printerProfiles).where(and(eq(printerProfiles.teamId, teamId), eq(printerProfiles.id, id)));
+	if (!row) throw new ProfileError(404, 'No such printer profile in this team');
+	if (!row.iccProfile) return builtinPressProfile();
+	return {
+		conditionIdentifier: row.pressCondition ?? 'Custom',
+		condition: row.pressConditionInfo ?? '',
+		registryName: row.pressRegistry ?? '',
+		totalInkLimitPct: row.inkLimitPct ?? DEFAULT_INK_LIMIT_PCT,
+		icc: row.iccProfile
+	};
+}
+
+/**
+ * A printer's own ICC profile and printing condition for a profile: the header is checked
+ * (CMYK output profile, size cap) and LittleCMS must be able to build its transforms, so a
+ * profile that cannot convert is refused here rather than at print time.
+ */
+export async function setPressProfile(db: Db, teamId: string, id: string, icc: Uint8Array, condition: PressCondition, userId: string) {
+	await findProfile(db, teamId, id);
+	let description: string;
+	try {
+		checkPressProfile(icc);
+		description = (await PressColour.open(icc)).description;
+	} catch (e) {
+		throw new ProfileError(400, (e as Error).message);
+	}
+	const [row] = await db
+		.update(printerProfiles)
+		.set({
+			iccProfile: icc,
+			iccName: description.slice(0, 120) || 'Uploaded profile',
+			pressCondition: condition.conditionIdentifier,
+			pressConditionInfo: condition.condition,
+			pressRegistry: condition.registryName,
+			inkLimitPct: condition.totalInkLimitPct,
+			version: sql`${printerProfiles.version} + 1`
+		})
+		.where(and(eq(printerProfiles.teamId, teamId), eq(printerProfiles.id, id)))
+		.returning();
+	await logActivity(db, { teamId, userId, action: 'profile.press', detail: { name: row.name, condition: condition.conditionIdentifier } });
+	return asProfile(row);
+}
+
+/** Back to the built-in press profile. */
+export async function clearPressProfile(db: Db, teamId: string, id: string, userId: string) {
+	await findProfile(db, teamId, id);
+	const [row] = await db
+		.update(printerProfiles)
+		.set({ iccProfile: null, iccName: null, pressCondition: null, pressConditionInfo: null, pressRegistry: null, inkLimitPct: null, version: sql`${printerProfiles.version} + 1` })
+		.where(and(eq(printerProfiles.teamId, teamId), eq(printerProfiles.id, id)))
+		.returning();
+	await logActivity(db, { teamId, userId, action: 'profile.press', detail: { name: row.name, condition: BUILTIN_CONDITION.conditionIdentifier } });
+	return asProfile(row);
+}
 
 export async function profilesOf(db: Db, teamId: string) {
 	return (await db.select().from(printerProfiles).where(eq(printerProfiles.teamId, teamId)).orderBy(asc(printerProfiles.name))).map(asProfile);

@@ -10,13 +10,16 @@ import { loadGame } from './game-store';
 import { readArtFile } from './art-files';
 import { requireProof } from './proof-access';
 import { snapshotOf } from './proofs';
-import { findProfile } from './printer-profiles';
+import { findProfile, pressProfileOf, ProfileError } from './printer-profiles';
 import { logActivity } from './activity';
 import type { Db } from './db';
 import type { Game } from '$lib/game/model';
 import { printPool, PrintBusyError, type PrintJob, type PrintJobResult } from '$lib/print/pool';
 import { renderGameFaces, type GamePdfOptions } from '$lib/print/job';
-import { parsePrintOptions, PrintOptionsError, settingsQuery, toSheetOptions } from '$lib/print/options';
+import { parsePrintOptions, PrintOptionsError, settingsQuery, toSheetOptions, type PrintOptions } from '$lib/print/options';
+import type { PdfxTarget } from '$lib/print/pdfx';
+import type { PressProfile } from '$lib/print/colour/cmm';
+import { builtinPressProfile } from '$lib/print/colour/press-profiles';
 import { planSheets } from '$lib/print/sheet-plan';
 import { sheetPreviewSvg } from '$lib/print/preview';
 import { isUuid } from '$lib/schemas/ids';
@@ -31,6 +34,8 @@ export interface PrintSource {
 	proofNumber?: number;
 	/** Fixed for a proof, so its files come out the same every time. */
 	date: string;
+	/** The printer profile whose press profile the game's PDF/X files use by default (built-in when unset). */
+	pressProfileId?: string;
 }
 
 /** The working game (readers of the game) or a proof (printers: released proofs only). */
@@ -44,7 +49,8 @@ export async function printSource(db: Db, locals: App.Locals, gameId: string, pr
 			userId: user.id,
 			versionLabel: `proof ${proof.number}`,
 			proofNumber: proof.number,
-			date: proof.createdAt.toISOString().slice(0, 10)
+			date: proof.createdAt.toISOString().slice(0, 10),
+			pressProfileId: game.pressProfileId ?? undefined
 		};
 	}
 	const { user, game, role } = await requireGameRole(db, locals, gameId, 'release.read');
@@ -55,7 +61,8 @@ export async function printSource(db: Db, locals: App.Locals, gameId: string, pr
 		teamId: game.teamId,
 		userId: user.id,
 		versionLabel: `working copy v${game.version}`,
-		date: new Date().toISOString().slice(0, 10)
+		date: new Date().toISOString().slice(0, 10),
+		pressProfileId: game.pressProfileId ?? undefined
 	};
 }
 
@@ -74,15 +81,41 @@ export async function printOptions(db: Db, source: PrintSource, query: URLSearch
 	if (profileId) {
 		if (!isUuid(profileId)) throw new ApiError(404, 'No such printer profile in this team');
 		const profile = await findProfile(db, source.teamId, profileId);
-		// The profile's settings; a query may still choose sets and kinds.
-		values = { ...settingsQuery(profile), ...(raw.sets ? { sets: raw.sets } : {}), ...(raw.kinds ? { kinds: raw.kinds } : {}) };
+		// The profile's settings; a query may still choose sets, kinds and the kind of file.
+		const chosen = Object.fromEntries(['sets', 'kinds', 'output', 'intent'].flatMap((k) => (raw[k] ? [[k, raw[k]]] : [])));
+		values = { ...settingsQuery(profile), ...chosen };
 	}
+	let options;
 	try {
-		return { ...parsePrintOptions(values), title: source.game.name, versionLabel: source.versionLabel, date: source.date };
+		options = parsePrintOptions(values);
 	} catch (e) {
 		if (e instanceof PrintOptionsError) throw new ApiError(400, e.message);
 		throw e;
 	}
+	const pdfx = await pdfxTarget(db, source, options, profileId);
+	return { ...options, title: source.game.name, versionLabel: source.versionLabel, date: source.date, ...(pdfx ? { pdfx } : {}) };
+}
+
+/**
+ * The PDF/X target of a request asking for `output=pdfx4|pdfx1a`: the named printer profile's
+ * press profile, else the game's default, else the built-in one.
+ */
+export async function pdfxTarget(
+	db: Db,
+	source: PrintSource,
+	options: Pick<PrintOptions, 'output' | 'intent'>,
+	profileId?: string
+): Promise<PdfxTarget | undefined> {
+	if (!options.output || options.output === 'plain') return undefined;
+	const pressId = profileId ?? source.pressProfileId;
+	let profile: PressProfile;
+	try {
+		profile = pressId ? await pressProfileOf(db, source.teamId, pressId) : await builtinPressProfile();
+	} catch (e) {
+		if (e instanceof ProfileError) throw new ApiError(e.status, e.message);
+		throw e;
+	}
+	return { standard: options.output, profile, intent: options.intent ?? 'relative' };
 }
 
 /** Runs a job in the pool; engine refusals become 400 (or 404), a full queue 503. */

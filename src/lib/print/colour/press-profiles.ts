@@ -22,6 +22,9 @@ export const BUILTIN_CONDITION = {
 	totalInkLimitPct: 330
 } as const;
 
+/** The shipped profile's own description (its ICC `desc` tag). */
+export const BUILTIN_PROFILE_NAME = 'Paddock coated FOGRA39 (TAC 330%)';
+
 let builtin: Promise<PressProfile> | undefined;
 
 /** The shipped profile with its condition, read once per process. */

@@ -15,8 +15,15 @@ import {
 	index,
 	pgEnum,
 	doublePrecision,
-	boolean
+	boolean,
+	customType
 } from 'drizzle-orm/pg-core';
+
+/** Raw bytes (PostgreSQL bytea): small binary files that belong to a row, such as an ICC profile. */
+const bytea = customType<{ data: Uint8Array; driverData: Uint8Array }>({
+	dataType: () => 'bytea',
+	fromDriver: (v) => new Uint8Array(v)
+});
 
 export const ROLES = ['owner', 'designer', 'artist', 'printer', 'reviewer'] as const;
 export type Role = (typeof ROLES)[number];
@@ -154,6 +161,8 @@ export const games = pgTable(
 		slug: text('slug').notNull(),
 		bleedStandard: text('bleed_standard', { enum: BLEED_STANDARDS }).notNull().default('metric'),
 		defaultCardSize: text('default_card_size').notNull().default('poker'),
+		/** The printer profile whose press profile the game's PDF/X files use when none is named (built-in when unset). */
+		pressProfileId: uuid('press_profile_id').references(() => printerProfiles.id, { onDelete: 'set null' }),
 		version: integer('version').notNull().default(1),
 		createdAt: createdAt(),
 		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
@@ -368,6 +377,19 @@ export const printerProfiles = pgTable('printer_profiles', {
 	backOffsetXMm: doublePrecision('back_offset_x_mm').notNull().default(0),
 	backOffsetYMm: doublePrecision('back_offset_y_mm').notNull().default(0),
 	colour: text('colour', { enum: ['rgb', 'cmyk'] }).notNull().default('rgb'),
+	/** Plain PDF or PDF/X, and how art goes into the press profile's CMYK. */
+	output: text('output', { enum: ['plain', 'pdfx4', 'pdfx1a'] }).notNull().default('plain'),
+	intent: text('intent', { enum: ['relative', 'perceptual'] }).notNull().default('relative'),
+	/**
+	 * The press profile: the printer's own ICC profile (a CMYK output profile, checked on upload)
+	 * and its printing condition; with no profile uploaded, the built-in FOGRA39 one and its condition.
+	 */
+	iccProfile: bytea('icc_profile'),
+	iccName: text('icc_name'),
+	pressCondition: text('press_condition'),
+	pressConditionInfo: text('press_condition_info'),
+	pressRegistry: text('press_registry'),
+	inkLimitPct: integer('ink_limit_pct'),
 	version: integer('version').notNull().default(1),
 	createdAt: createdAt()
 });

@@ -1,5 +1,5 @@
 import { requireGame, requireGameRole, may } from '$lib/server/guard';
-import { profilesOf } from '$lib/server/printer-profiles';
+import { profilesOf, gamePressSummary } from '$lib/server/printer-profiles';
 import { proofsOf, isReleased } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
 
@@ -22,6 +22,7 @@ export const load = async ({ locals, params }) => {
 		proofs,
 		kinds,
 		profiles: await profilesOf(d, game.teamId),
+		press: await gamePressSummary(d, game.teamId, game.pressProfileId),
 		mayEditProfiles: may(role, 'profile.edit')
 	};
 };
