@@ -324,8 +324,8 @@ const AIDS: { id: string; title: string; body: string }[] = [
 		body:
 			'First turn the top card of the shared deck and move that snail with every snail riding on it; ' +
 			'the beetle crawls back, 2 further when it carries snails. Then do one thing: take the top wager ' +
-			'card of any snail, play a face-up card, or lay your hazard on an empty space. Your hand never moves: ' +
-			'those snails stay put this stage.'
+			'card of any snail, play a face-up card, or lay your hazard on an empty space. The cards in your hand ' +
+			'sit out this stage: they tell you what the shared deck does not hold.'
 	},
 	{
 		id: 'aid-scoring',
