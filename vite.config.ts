@@ -5,7 +5,7 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
 	plugins: [tailwindcss(), sveltekit()],
 	test: {
-		include: ['src/**/*.test.ts', 'tests/integration/**/*.test.ts'],
+		include: ['src/**/*.test.ts', 'tests/integration/**/*.test.ts', 'tests/cluster/**/*.test.ts'],
 		environment: 'node',
 		testTimeout: 60_000,
 		hookTimeout: 60_000,

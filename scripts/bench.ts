@@ -30,6 +30,7 @@ import { PrintPool } from '../src/lib/print/pool';
 import { planSheets, type SheetOptions } from '../src/lib/print/sheet-plan';
 import { CHROMIUM, CHROMIUM_ARGS } from '../tests/e2e/env';
 import { benchOdds } from './bench/odds';
+import { benchCluster } from './bench/cluster';
 
 const { values: flags } = parseArgs({
 	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
@@ -499,7 +500,8 @@ async function main() {
 				chromium: chrome,
 				chromiumOverPaddock: ratios,
 				targets,
-				odds: await benchOdds()
+				odds: await benchOdds(),
+				cluster: await benchCluster()
 			},
 			null,
 			'\t'

@@ -106,6 +106,8 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done'), ne(printJobs.state, 'failed')))
 		.returning();
 	if (!job) return;
+	// Which process builds what, for operators following a shared queue.
+	if (jobQueue().shared) console.log(`Building print job ${id} (attempt ${job.attempts}) in process ${process.pid}`);
 	const request = job.request as unknown as SheetRequest;
 	let last = 0;
 	let writing = Promise.resolve();
