@@ -5,7 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openWorld, fakeEvent, type World } from './harness';
 import { applyChanges, loadGame, StoreError } from '$lib/server/game-store';
-import { savedNote } from '$lib/server/object-actions';
+import { savedNote } from '$lib/server/http/object-actions';
 import * as runnersPage from '../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
 import * as pressColour from '../../src/routes/api/v1/press-colour/+server';
 import { cutProof, releaseProof } from '$lib/server/proofs';

@@ -8,3 +8,5 @@ export const COLLECTION_SEGMENTS = {
 } as const;
 
 export type CollectionSegment = keyof typeof COLLECTION_SEGMENTS;
+/** A collection as the database names it. */
+export type Collection = (typeof COLLECTION_SEGMENTS)[CollectionSegment];

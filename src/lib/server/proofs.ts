@@ -4,7 +4,7 @@
  * Everything is logged in the game's activity, and the people concerned are told by e-mail.
  */
 import { readiness } from '$lib/game/readiness';
-import { and, asc, desc, eq, isNull, max, or } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, isNull, max, or } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Db } from './db';
 import {
@@ -141,6 +141,18 @@ export async function findProof(db: Db, gameId: string, key: { id?: string; numb
 	return proof;
 }
 
+/** A release a printer was told about and that has since been withdrawn (by number), or null. */
+export async function withdrawnRelease(db: Db, gameId: string, key: string): Promise<Proof | null> {
+	if (!/^\d{1,6}$/.test(key)) return null;
+	try {
+		const proof = await findProof(db, gameId, { number: Number(key) }, false);
+		return proof.releasedAt && proof.withdrawnAt ? proof : null;
+	} catch (e) {
+		if (e instanceof ProofError) return null;
+		throw e;
+	}
+}
+
 export async function commentsOf(db: Db, proofId: string) {
 	return db
 		.select({
@@ -180,6 +192,56 @@ export async function verdictsOf(db: Db, proofId: string) {
 	const latest = new Map<string, (typeof rows)[number]>();
 	for (const r of rows) latest.set(r.reviewerId, r);
 	return { history: rows, current: [...latest.values()] };
+}
+
+/**
+ * The game's proofs for the proofs page, newest first: who cut and released each, and (with
+ * `review`) each proof's current verdicts and open threads. Four queries, however many proofs.
+ */
+export async function proofList(db: Db, gameId: string, { review, releasedOnly }: { review: boolean; releasedOnly: boolean }) {
+	const all = await proofsOf(db, gameId, false);
+	const list = releasedOnly ? all.filter((p) => p.releasedAt) : all;
+	const ids = list.map((p) => p.id);
+	const people = [...new Set(list.flatMap((p) => [p.createdBy, p.releasedBy]).filter((id): id is string => !!id))];
+	const [names, verdicts, open] = await Promise.all([
+		people.length ? db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, people)) : [],
+		review && ids.length
+			? db
+					.select({ proofId: proofVerdicts.proofId, reviewerId: proofVerdicts.reviewerId, name: users.name, verdict: proofVerdicts.verdict })
+					.from(proofVerdicts)
+					.innerJoin(users, eq(users.id, proofVerdicts.reviewerId))
+					.where(inArray(proofVerdicts.proofId, ids))
+					.orderBy(asc(proofVerdicts.createdAt))
+			: [],
+		review && ids.length
+			? db
+					.select({ proofId: proofComments.proofId, threads: count() })
+					.from(proofComments)
+					.where(and(inArray(proofComments.proofId, ids), isNull(proofComments.threadId), isNull(proofComments.resolvedAt)))
+					.groupBy(proofComments.proofId)
+			: []
+	]);
+	const nameOf = new Map(names.map((u) => [u.id, u.name]));
+	// Each reviewer's latest verdict counts (as in verdictsOf).
+	const current = new Map<string, Map<string, (typeof verdicts)[number]>>();
+	for (const v of verdicts) {
+		if (!current.has(v.proofId)) current.set(v.proofId, new Map());
+		current.get(v.proofId)!.set(v.reviewerId, v);
+	}
+	const openThreads = new Map(open.map((o) => [o.proofId, Number(o.threads)]));
+	return list.map((p) => ({
+		id: p.id,
+		number: p.number,
+		description: p.description,
+		createdAt: p.createdAt,
+		createdBy: p.createdBy ? (nameOf.get(p.createdBy) ?? null) : null,
+		releasedAt: p.releasedAt,
+		releasedBy: p.releasedBy ? (nameOf.get(p.releasedBy) ?? null) : null,
+		withdrawnAt: p.withdrawnAt,
+		withdrawNote: p.withdrawNote ?? '',
+		released: isReleased(p),
+		review: review ? { verdicts: [...(current.get(p.id)?.values() ?? [])].map((v) => ({ name: v.name, verdict: v.verdict })), openThreads: openThreads.get(p.id) ?? 0 } : null
+	}));
 }
 
 export async function addComment(

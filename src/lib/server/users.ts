@@ -27,6 +27,11 @@ export class EmailTakenError extends Error {
 	}
 }
 
+/** A person's name for headers and lists; null for nobody or a deleted account. */
+export async function userName(db: Db, id: string | null): Promise<string | null> {
+	return id ? ((await findUser(db, id))?.name ?? null) : null;
+}
+
 export async function createUser(
 	db: Db,
 	input: { email: string; name: string; password: string }

@@ -1,6 +1,5 @@
-import { and, desc, eq, lt } from 'drizzle-orm';
 import { requireGame } from '$lib/server/guard';
-import { activity, users } from '$lib/server/db/schema';
+import { activityOf } from '$lib/server/activity';
 import { db } from '$lib/server/runtime';
 
 /** Lines per page; older ones follow with ?before=. */
@@ -12,13 +11,7 @@ export const load = async ({ locals, params, url }) => {
 	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
 	const before = url.searchParams.get('before');
 	const beforeDate = before && !Number.isNaN(Date.parse(before)) ? new Date(before) : null;
-	const rows = await d
-		.select({ id: activity.id, action: activity.action, detail: activity.detail, createdAt: activity.createdAt, who: users.name })
-		.from(activity)
-		.leftJoin(users, eq(users.id, activity.userId))
-		.where(beforeDate ? and(eq(activity.gameId, params.gameId), lt(activity.createdAt, beforeDate)) : eq(activity.gameId, params.gameId))
-		.orderBy(desc(activity.createdAt), desc(activity.id))
-		.limit(PAGE + 1);
+	const rows = await activityOf(d, params.gameId, { before: beforeDate, limit: PAGE + 1 });
 	// Cards by the names they have now, for lines that name a card.
 	const cardNames = Object.fromEntries(game.cards.map((c) => [c.id, c.name]));
 	return {

@@ -1,7 +1,7 @@
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireGame } from '$lib/server/guard';
-import { saveObjectAction, deleteObjectAction } from '$lib/server/object-actions';
+import { saveObjectAction, deleteObjectAction } from '$lib/server/http/object-actions';
 import { db } from '$lib/server/runtime';
 import { MoneyTableSchema, newId, type MoneyTable } from '$lib/game/model';
 

@@ -3,7 +3,7 @@ import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireGame, requireGameRole } from '$lib/server/guard';
 import { saveSettings, StoreError } from '$lib/server/game-store';
-import { saveObjectAction, deleteObjectAction } from '$lib/server/object-actions';
+import { saveObjectAction, deleteObjectAction } from '$lib/server/http/object-actions';
 import { db } from '$lib/server/runtime';
 import { RunnerSchema, RogueRunnerSchema, newId, type Runner, type RogueRunner } from '$lib/game/model';
 import { newRunnerDefaults } from '$lib/game/runner-defaults';

@@ -3,7 +3,7 @@ import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireGame, requireGameRole } from '$lib/server/guard';
 import { applyChanges, loadGame, StoreError, type Change } from '$lib/server/game-store';
-import { saveObjectAction, deleteObjectAction } from '$lib/server/object-actions';
+import { saveObjectAction, deleteObjectAction } from '$lib/server/http/object-actions';
 import { db } from '$lib/server/runtime';
 import { cardCount } from '$lib/game/deck-check';
 import { CardKindSchema, CardSchema, type Card, type Game } from '$lib/game/model';

@@ -1,28 +1,8 @@
-import { eq } from 'drizzle-orm';
 import { requireGameRole, may } from '$lib/server/guard';
-import { findProof, isMuted, snapshotOf, isReleased, ProofError, type Proof } from '$lib/server/proofs';
-import { users } from '$lib/server/db/schema';
-import type { Db } from '$lib/server/db';
+import { isMuted, snapshotOf, isReleased, withdrawnRelease } from '$lib/server/proofs';
+import { userName } from '$lib/server/users';
 import { db } from '$lib/server/runtime';
-import { proofForPage, cardsOf, kindsOf } from '../proof-load.server';
-
-async function nameOf(d: Db, id: string | null) {
-	if (!id) return null;
-	const [u] = await d.select({ name: users.name }).from(users).where(eq(users.id, id));
-	return u?.name ?? null;
-}
-
-/** A release a printer was told about and that has since been withdrawn: they learn it is withdrawn, nothing more. */
-async function withdrawnRelease(d: Db, gameId: string, key: string): Promise<Proof | null> {
-	if (!/^\d{1,6}$/.test(key)) return null;
-	try {
-		const proof = await findProof(d, gameId, { number: Number(key) }, false);
-		return proof.releasedAt && proof.withdrawnAt ? proof : null;
-	} catch (e) {
-		if (e instanceof ProofError) return null;
-		throw e;
-	}
-}
+import { proofForPage, cardsOf, kindsOf } from '$lib/server/http/proof-pages';
 
 /**
  * The frame of a proof: its header and its cards with their face boxes. Comments and verdicts
@@ -47,9 +27,9 @@ export const load = async ({ locals, params }) => {
 		number: proof.number,
 		description: proof.description,
 		createdAt: proof.createdAt,
-		createdBy: await nameOf(d, proof.createdBy),
+		createdBy: await userName(d, proof.createdBy),
 		releasedAt: proof.releasedAt,
-		releasedBy: await nameOf(d, proof.releasedBy),
+		releasedBy: await userName(d, proof.releasedBy),
 		withdrawnAt: proof.withdrawnAt,
 		withdrawNote: proof.withdrawNote ?? '',
 		released: isReleased(proof)

@@ -3,7 +3,7 @@ import { requireGameRole } from '$lib/server/guard';
 import { proofsOf, snapshotOf } from '$lib/server/proofs';
 import { compareGames } from '$lib/game/compare';
 import { db } from '$lib/server/runtime';
-import { proofForPage, cardsOf } from '../proof-load.server';
+import { proofForPage, cardsOf } from '$lib/server/http/proof-pages';
 
 /** ?a=<proof>&b=<proof>: the cards added, removed and changed from a to b, with their face boxes. */
 export const load = async ({ locals, params, url }) => {

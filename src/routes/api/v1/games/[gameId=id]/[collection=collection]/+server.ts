@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { api, ApiError, readJson } from '$lib/server/api';
 import { requireGameRole } from '$lib/server/guard';
 import { applyChanges, loadGame, COLLECTION_FIELD } from '$lib/server/game-store';
-import type { Collection } from '$lib/server/db/schema';
+import type { Collection } from '$lib/schemas/collections';
 import { collectionOf, requireGameEdit } from '$lib/server/game-access';
 import { db } from '$lib/server/runtime';
 import { newId } from '$lib/game/model';

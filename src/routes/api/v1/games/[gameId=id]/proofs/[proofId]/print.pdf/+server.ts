@@ -1,5 +1,5 @@
 import type { RequestHandler } from './$types';
 import { api } from '$lib/server/api';
-import { sheetsPdf } from '$lib/server/print-routes';
+import { sheetsPdf } from '$lib/server/http/print-files';
 
 export const GET: RequestHandler = api(sheetsPdf);

@@ -6,11 +6,11 @@
 import { fail, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { keepSavedGame, requireGameRole } from './guard';
-import { applyChanges, loadGame, OBJECT_SCHEMAS, StoreError } from './game-store';
-import { editPermission } from './game-access';
-import type { Collection } from './db/schema';
-import { db } from './runtime';
+import { keepSavedGame, requireGameRole } from '../guard';
+import { applyChanges, loadGame, OBJECT_SCHEMAS, StoreError } from '../game-store';
+import { editPermission } from '../game-access';
+import type { Collection } from '$lib/schemas/collections';
+import { db } from '../runtime';
 import { objectPath, usersOf, type ReadinessItem } from '$lib/game/readiness';
 import type { FormNote } from '$lib/schemas/messages';
 

@@ -4,12 +4,12 @@
  * repeat request revalidates to 304, and an unchanged game is not even read again.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { ApiError } from './api';
-import { requireGameRole } from './guard';
-import { loadGame } from './game-store';
-import { renderFace, parseGuides } from './faces';
-import { db } from './runtime';
-import { etagOf, faceContentKey, keepFace, keptFace, knownKey, notModified, rememberKey, type KeptFace } from './face-cache';
+import { ApiError } from '../api';
+import { requireGameRole } from '../guard';
+import { loadGame } from '../game-store';
+import { renderFace, parseGuides } from '../faces';
+import { db } from '../runtime';
+import { etagOf, faceContentKey, keepFace, keptFace, knownKey, notModified, rememberKey, type KeptFace } from '../face-cache';
 import type { Side } from '$lib/print/layout';
 
 export async function cardFaceSvg(event: RequestEvent<{ gameId: string; cardId: string }>, side: Side) {

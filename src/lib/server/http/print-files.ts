@@ -3,14 +3,14 @@
  * one card's press PDF and the PNG zip. A proof's files are built from its snapshot only.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, fileStem, pdfxTarget } from './printing';
+import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, fileStem, pdfxTarget } from '../printing';
 import { PrintQuerySchema } from '$lib/print/options';
 import { isUuid } from '$lib/schemas/ids';
 
 /** A press file's own choices: plain or PDF/X, and the rendering intent. */
 const PressQuerySchema = PrintQuerySchema.pick({ output: true, intent: true });
-import { ApiError } from './api';
-import { db } from './runtime';
+import { ApiError } from '../api';
+import { db } from '../runtime';
 
 type Ev = RequestEvent<{ gameId: string; proofId?: string; cardId?: string }>;
 

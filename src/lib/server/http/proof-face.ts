@@ -4,12 +4,12 @@
  * (./face-cache.ts) by proof, card, side and guides.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { ApiError } from './api';
-import { requireProof } from './proof-access';
-import { snapshotOf } from './proofs';
-import { renderFace, parseGuides } from './faces';
-import { db } from './runtime';
-import { etagOf, keepFace, keptFace, notModified } from './face-cache';
+import { ApiError } from '../api';
+import { requireProof } from '../proof-access';
+import { snapshotOf } from '../proofs';
+import { renderFace, parseGuides } from '../faces';
+import { db } from '../runtime';
+import { etagOf, keepFace, keptFace, notModified } from '../face-cache';
 import { ENGINE_SALT, hashOf } from '$lib/print/cache';
 import type { Side } from '$lib/print/layout';
 

@@ -1,0 +1,114 @@
+/**
+ * What may import what (README, "How the code is organised"): routes never reach the database
+ * or the ORM, engine modules know nothing of the framework, the server or each other's callers,
+ * services leave HTTP to $lib/server/http, and no engine folder imports itself in a circle.
+ */
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { dirname, join, relative, resolve } from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+const ROOT = resolve(__dirname, '../..');
+const SRC = join(ROOT, 'src');
+
+function filesUnder(dir: string, keep = (f: string) => /\.(ts|svelte)$/.test(f)): string[] {
+	return readdirSync(dir).flatMap((name) => {
+		const path = join(dir, name);
+		return statSync(path).isDirectory() ? filesUnder(path, keep) : keep(path) ? [path] : [];
+	});
+}
+
+const IMPORT = /(?:^|\n)\s*(?:import|export)\b[^'"`;]*?from\s*['"]([^'"]+)['"]|import\(\s*['"]([^'"]+)['"]\s*\)|(?:^|\n)\s*import\s*['"]([^'"]+)['"]/g;
+function importsOf(file: string): string[] {
+	const text = readFileSync(file, 'utf8');
+	return [...text.matchAll(IMPORT)].map((m) => m[1] ?? m[2] ?? m[3]);
+}
+const isTest = (f: string) => /\.(test|spec)\.ts$/.test(f) || f.includes('/testing/');
+const rel = (f: string) => relative(ROOT, f);
+
+function offences(files: string[], forbidden: (spec: string, file: string) => boolean): string[] {
+	return files.flatMap((f) => importsOf(f).filter((s) => forbidden(s, f)).map((s) => `${rel(f)} → ${s}`));
+}
+
+/** `$lib/x` or a relative path, as a path under src/lib (or the specifier when a package). */
+function target(spec: string, file: string): string {
+	if (spec.startsWith('$lib/')) return join(SRC, 'lib', spec.slice(5));
+	if (spec.startsWith('.')) return resolve(dirname(file), spec);
+	return spec;
+}
+const under = (spec: string, file: string, folder: string) => {
+	const t = target(spec, file);
+	const dir = join(SRC, 'lib', folder);
+	return t === dir || t.startsWith(dir + '/');
+};
+
+const ENGINES = ['print', 'game', 'art', 'odds'];
+
+describe('layers', () => {
+	it('routes never import the database module, a driver or the ORM', () => {
+		const routes = filesUnder(join(SRC, 'routes'));
+		expect(routes.length).toBeGreaterThan(50);
+		const bad = offences(
+			routes,
+			(s, f) => /^(drizzle-orm|pg|@electric-sql\/pglite)(\/|$)/.test(s) || under(s, f, 'server/db')
+		);
+		expect(bad).toEqual([]);
+	});
+
+	it('engine modules import no framework, server, database or UI code', () => {
+		for (const engine of ENGINES) {
+			const files = filesUnder(join(SRC, 'lib', engine)).filter((f) => !isTest(f));
+			const bad = offences(
+				files,
+				(s, f) =>
+					/^(@sveltejs\/kit|\$app\/|drizzle-orm|pg$|svelte$)/.test(s) ||
+					['server', 'components', 'client', 'demo'].some((folder) => under(s, f, folder))
+			);
+			expect(bad, engine).toEqual([]);
+		}
+	});
+
+	it('the game model stands alone: it imports no other engine', () => {
+		const files = filesUnder(join(SRC, 'lib', 'game')).filter((f) => !isTest(f));
+		expect(offences(files, (s, f) => ['print', 'art', 'odds'].some((e) => under(s, f, e)))).toEqual([]);
+	});
+
+	it('services leave HTTP to $lib/server/http', () => {
+		// Still to move behind the adapters: the API wrapper and the guard (HTTP statuses), Auth.js's
+		// hooks, and the art uploads' form actions.
+		const WAITING = new Set(['api.ts', 'guard.ts', 'auth/authjs.ts', 'art-uploads.ts']);
+		const server = join(SRC, 'lib', 'server');
+		const services = filesUnder(server).filter((f) => !isTest(f) && !f.startsWith(join(server, 'http') + '/') && !WAITING.has(relative(server, f)));
+		expect(offences(services, (s) => /^(@sveltejs\/kit|\$app\/)/.test(s))).toEqual([]);
+	});
+
+	it('no engine folder imports itself in a circle', () => {
+		for (const engine of ENGINES) {
+			const files = filesUnder(join(SRC, 'lib', engine), (f) => f.endsWith('.ts') && !isTest(f));
+			const graph = new Map(
+				files.map((f) => [
+					f,
+					importsOf(f)
+						.filter((s) => s.startsWith('.'))
+						.map((s) => resolve(dirname(f), s).replace(/\.js$/, ''))
+						.map((t) => (t.endsWith('.ts') ? t : files.includes(t + '.ts') ? t + '.ts' : join(t, 'index.ts')))
+						.filter((t) => files.includes(t))
+				])
+			);
+			const cycles: string[] = [];
+			const state = new Map<string, 1 | 2>();
+			const stack: string[] = [];
+			const visit = (f: string) => {
+				state.set(f, 1);
+				stack.push(f);
+				for (const next of graph.get(f) ?? []) {
+					if (state.get(next) === 1) cycles.push([...stack.slice(stack.indexOf(next)), next].map(rel).join(' → '));
+					else if (!state.has(next)) visit(next);
+				}
+				stack.pop();
+				state.set(f, 2);
+			};
+			for (const f of files) if (!state.has(f)) visit(f);
+			expect(cycles, engine).toEqual([]);
+		}
+	});
+});
