@@ -19,6 +19,7 @@ import { jobQueue } from './job-queue';
 import { printPool } from '$lib/print/pool';
 import type { Game } from '$lib/game/model';
 import type { GamePdfOptions } from '$lib/print/job';
+import type { ApiAnswer, PrintJobSchema } from '$lib/schemas/api';
 
 export type PrintJobRow = typeof printJobs.$inferSelect;
 
@@ -64,7 +65,7 @@ export async function jobFor(db: Db, userId: string, id: string): Promise<PrintJ
 	return job;
 }
 
-export function jobState(job: PrintJobRow) {
+export function jobState(job: PrintJobRow): ApiAnswer<typeof PrintJobSchema> {
 	return {
 		id: job.id,
 		state: job.state,

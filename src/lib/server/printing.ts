@@ -23,6 +23,7 @@ import { builtinPressProfile } from '$lib/print/colour/press-profiles';
 import { planSheets } from '$lib/print/sheet-plan';
 import { sheetPreviewSvg } from '$lib/print/preview';
 import { isUuid } from '$lib/schemas/ids';
+import type { ApiAnswer, PrintPreviewSchema } from '$lib/schemas/api';
 
 export interface PrintSource {
 	game: Game;
@@ -157,7 +158,11 @@ export const fileStem = (source: PrintSource) =>
 	`${source.game.slug}${source.proofNumber ? `-proof-${source.proofNumber}` : ''}`;
 
 /** The first sheet of a build as SVG, with the plan's figures, for the print page (art linked, not embedded). */
-export async function previewFirstSheet(source: PrintSource, options: GamePdfOptions, artUrl: (sha256: string) => string) {
+export async function previewFirstSheet(
+	source: PrintSource,
+	options: GamePdfOptions,
+	artUrl: (sha256: string) => string
+): Promise<ApiAnswer<typeof PrintPreviewSchema>> {
 	const faces = await renderGameFaces(source.game, await artBytes(source.game), { kinds: options.kinds, sets: options.sets });
 	let plan;
 	try {

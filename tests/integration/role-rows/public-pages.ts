@@ -10,6 +10,7 @@ import * as signoutPage from '../../../src/routes/(auth)/signout/+page.server';
 import * as forgotPage from '../../../src/routes/(auth)/forgot/+page.server';
 import * as resetPage from '../../../src/routes/(auth)/reset/[token]/+page.server';
 import * as invitePage from '../../../src/routes/invite/[token]/+page.server';
+import * as openApi from '../../../src/routes/api/v1/openapi.json/+server';
 
 /** Pages for people who are not signed in: someone signed in is sent on (303). */
 const signedOut = { default: 303, anonymous: 200 };
@@ -18,6 +19,8 @@ const emptyForm = { default: 400 };
 const unknownToken = 'no-such-token-0000000000000000000000';
 
 export const rows: Row[] = [
+	// The API's description holds no data: anyone may read it.
+	{ route: 'GET /api/v1/openapi.json', run: (w, who) => statusOf(() => openApi.GET(as(w, who))), expect: { default: 200 } },
 	{ route: 'load / (layout of every signed-in page)', run: (w, who) => statusOf(() => appLayout.load(as(w, who))), expect: { default: 200, anonymous: 303 } },
 	{
 		route: 'load /teams/new (behind the signed-in layout)',

@@ -5,11 +5,12 @@ import { api, readJson } from '$lib/server/api';
 import { requireGameRole } from '$lib/server/guard';
 import { setMuted, isMuted } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
+import type { ApiAnswer, MuteSchema } from '$lib/schemas/api';
 
 export const GET: RequestHandler = api(async ({ locals, params }) => {
 	const d = await db();
 	const { user } = await requireGameRole(d, locals, params.gameId, 'release.read');
-	return json({ muted: await isMuted(d, user.id, params.gameId) });
+	return json({ muted: await isMuted(d, user.id, params.gameId) } satisfies ApiAnswer<typeof MuteSchema>);
 });
 
 /** `{ muted: true }` stops this game's e-mail to the caller; false starts it again. */
@@ -18,5 +19,5 @@ export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const { user } = await requireGameRole(d, locals, params.gameId, 'release.read');
 	const { muted } = await readJson(request, z.object({ muted: z.boolean() }));
 	await setMuted(d, user.id, params.gameId, muted);
-	return json({ muted });
+	return json({ muted } satisfies ApiAnswer<typeof MuteSchema>);
 });

@@ -7,6 +7,7 @@ import { loadGame } from '$lib/server/game-store';
 import { renderFace } from '$lib/server/faces';
 import { db } from '$lib/server/runtime';
 import { CardKindSchema, CardSchema } from '$lib/game/model';
+import type { ApiAnswer, CardPreviewSchema } from '$lib/schemas/api';
 
 const PreviewSchema = z.object({
 	/** The kind and card as they stand in the editor, saved or not. */
@@ -33,5 +34,5 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 		guides: input.guides ?? false,
 		artUrl: (sha) => `/api/v1/games/${params.gameId}/art-files/${sha}`
 	});
-	return json({ svg, warnings: layout.warnings });
+	return json({ svg, warnings: layout.warnings } satisfies ApiAnswer<typeof CardPreviewSchema>);
 });

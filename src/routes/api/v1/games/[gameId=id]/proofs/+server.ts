@@ -4,6 +4,7 @@ import { api, readJson } from '$lib/server/api';
 import { requireGameRole, may } from '$lib/server/guard';
 import { cutProof, proofsOf, CutSchema, isReleased } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
+import type { ApiAnswer, ProofCutSchema } from '$lib/schemas/api';
 
 export const GET: RequestHandler = api(async ({ locals, params }) => {
 	const d = await db();
@@ -27,5 +28,5 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const { user } = await requireGameRole(d, locals, params.gameId, 'proof.cut');
 	const { description } = await readJson(request, CutSchema);
 	const proof = await cutProof(d, { gameId: params.gameId, userId: user.id, userName: user.name, description });
-	return json({ id: proof.id, number: proof.number }, { status: 201 });
+	return json({ id: proof.id, number: proof.number } satisfies ApiAnswer<typeof ProofCutSchema>, { status: 201 });
 });

@@ -1,0 +1,6 @@
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { openApiDocument } from '$lib/server/openapi';
+
+/** The API's description; it holds no data, so anyone may read it. */
+export const GET: RequestHandler = () => json(openApiDocument());
