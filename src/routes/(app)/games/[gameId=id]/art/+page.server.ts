@@ -1,15 +1,9 @@
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireGame } from '$lib/server/guard';
-import {
-	ArtPlacementSchema,
-	ReplaceFormSchema,
-	UploadFormSchema,
-	artVersionsByArt,
-	placeAction,
-	replaceAction,
-	uploadAction
-} from '$lib/server/art-uploads';
+import { artVersionsByArt } from '$lib/server/art-uploads';
+import { placeAction, replaceAction, uploadAction } from '$lib/server/http/art-uploads';
+import { ArtPlacementSchema, ReplaceFormSchema, UploadFormSchema } from '$lib/schemas/art';
 import { artPlaces, artPrintChecks, describeAssignment, placeKey } from '$lib/art/placement';
 import { MAX_ART_BYTES } from '$lib/art/inspect';
 import { MIN_PRINT_DPI } from '$lib/game/art-check';
