@@ -10,11 +10,13 @@
 import { createHash } from 'node:crypto';
 import { imageSize } from 'image-size';
 import { Jimp } from 'jimp';
+import pLimit from 'p-limit';
 import { MM_PER_INCH, type ArtMime } from '../game/model';
 import { svgToPng } from '../print/png';
 import { jpegDeclaredDpi, pngDeclaredDpi, PNG_SIGNATURE, type DeclaredDpi } from './declared-dpi';
 import { ArtRejected } from './rejected';
 import { checkSvg } from './svg-safety';
+import { pngIsInterlaced, pngStripThumbnail, PngStripError } from './png-strips';
 
 export { ArtRejected, type ArtRejectionReason } from './rejected';
 
@@ -22,6 +24,20 @@ export { ArtRejected, type ArtRejectionReason } from './rejected';
 export const MAX_ART_BYTES = 25 * 1024 * 1024;
 /** 100 megapixels: our own cap; decoded RGBA that large is already 400 MB of memory. */
 export const MAX_ART_PIXELS = 100_000_000;
+/**
+ * 25 megapixels: the most a JPEG or an interlaced PNG may have, since those are decoded whole
+ * (about 100 MB of RGBA, several times that while decoding). Our own cap, above A3 at 300 dpi
+ * (3508 × 4961 px, ISO 216 sizes). Other PNGs are read in strips up to MAX_ART_PIXELS.
+ */
+export const MAX_WHOLE_DECODE_PIXELS = 25_000_000;
+
+/**
+ * How many pictures are decoded at once in this process: whole decodes one at a time, strip
+ * reads two (each holds a few rows). Others wait their turn rather than add to memory.
+ */
+const wholeDecodes = pLimit(1);
+const stripReads = pLimit(2);
+
 /** Thumbnails fit in a 320 × 320 px box (our own choice, enough for lists and slot pickers). */
 export const THUMBNAIL_MAX_PX = 320;
 
@@ -123,10 +139,55 @@ async function inspectRaster(
 	// Exif 2.32 Orientation 5–8 are a quarter turn (with or without a mirror): width and height swap.
 	const turned = orientation !== undefined && orientation >= 5 && orientation <= 8;
 
+	const thumbnail =
+		mime === 'image/png' && !pngIsInterlaced(bytes)
+			? await stripReads(() => pngThumbnail(bytes, width, height))
+			: await wholeDecodes(() => wholeThumbnail(bytes, mime, width, height, maxPixels));
+
+	return {
+		mime,
+		widthPx: turned ? height : width,
+		heightPx: turned ? width : height,
+		...(declared && (turned ? { dpiX: declared.dpiY, dpiY: declared.dpiX } : declared)),
+		...(orientation !== undefined && { exifOrientation: orientation }),
+		thumbnail
+	};
+}
+
+/** A PNG read in strips: decoded fully (every row checked) without holding the picture. */
+async function pngThumbnail(bytes: Uint8Array, width: number, height: number): Promise<ArtThumbnail> {
+	const box = fitBox(width, height);
+	let strips: Awaited<ReturnType<typeof pngStripThumbnail>>;
+	try {
+		strips = await pngStripThumbnail(bytes, box.widthPx, box.heightPx);
+	} catch (error) {
+		if (!(error instanceof PngStripError)) throw error;
+		throw new ArtRejected('unreadable', `This PNG could not be decoded (${error.message}); the file may be damaged.`);
+	}
+	const image = new Jimp({ data: Buffer.from(strips.rgba), width: box.widthPx, height: box.heightPx });
+	const png = await image.getBuffer('image/png');
+	return { mime: 'image/png', bytes: new Uint8Array(png), widthPx: box.widthPx, heightPx: box.heightPx };
+}
+
+/** JPEGs and interlaced PNGs: decoded whole, so under a lower pixel cap and one at a time. */
+async function wholeThumbnail(
+	bytes: Uint8Array,
+	mime: 'image/png' | 'image/jpeg',
+	width: number,
+	height: number,
+	maxPixels: number
+): Promise<ArtThumbnail> {
+	const cap = Math.min(maxPixels, MAX_WHOLE_DECODE_PIXELS);
+	if (width * height > cap)
+		throw new ArtRejected(
+			'too-many-pixels',
+			`This ${mime === 'image/png' ? 'interlaced PNG' : 'JPEG'} is ${width} × ${height} px (${megapixels(width * height)}); ` +
+				`Paddock accepts up to ${megapixels(cap)} for this kind of file. Scale it down, or save it as a non-interlaced PNG.`
+		);
 	let image: Awaited<ReturnType<typeof Jimp.read>>;
 	try {
 		image = await Jimp.read(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), {
-			'image/jpeg': { maxResolutionInMP: maxPixels / 1e6, maxMemoryUsageInMB: jpegMemoryMb(maxPixels) }
+			'image/jpeg': { maxResolutionInMP: cap / 1e6, maxMemoryUsageInMB: jpegMemoryMb(cap) }
 		});
 	} catch (error) {
 		throw new ArtRejected(
@@ -139,15 +200,7 @@ async function inspectRaster(
 	const box = fitBox(image.width, image.height);
 	if (box.widthPx !== image.width || box.heightPx !== image.height) image.resize({ w: box.widthPx, h: box.heightPx });
 	const png = await image.getBuffer('image/png');
-
-	return {
-		mime,
-		widthPx: turned ? height : width,
-		heightPx: turned ? width : height,
-		...(declared && (turned ? { dpiX: declared.dpiY, dpiY: declared.dpiX } : declared)),
-		...(orientation !== undefined && { exifOrientation: orientation }),
-		thumbnail: { mime: 'image/png', bytes: new Uint8Array(png), widthPx: image.width, heightPx: image.height }
-	};
+	return { mime: 'image/png', bytes: new Uint8Array(png), widthPx: image.width, heightPx: image.height };
 }
 
 async function inspectSvg(bytes: Uint8Array, maxPixels: number): Promise<Omit<InspectedArt, 'sha256' | 'bytes'>> {

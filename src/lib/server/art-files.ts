@@ -6,6 +6,7 @@ import { createHash } from 'node:crypto';
 import type { Db } from './db';
 import { artFiles } from './db/schema';
 import { storage, artKey, StorageMissingError, type StoredFile } from './storage';
+import type { InspectedArt } from '$lib/art/inspect';
 
 export const sha256Of = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
 
@@ -14,12 +15,13 @@ const checked = (sha256: string) => {
 	return sha256;
 };
 
-export async function storeArtFile(
-	db: Db,
-	bytes: Uint8Array,
-	meta: { mime: string; widthPx: number; heightPx: number; dpiX?: number; dpiY?: number },
-	thumbnail?: Uint8Array
-): Promise<string> {
+/**
+ * Stores art that `inspectArt` passed, with its thumbnail. It takes nothing else, so every path
+ * that stores a file (upload, replace, bundle import, the demo seed) has run the same inspection.
+ */
+export async function storeArtFile(db: Db, inspected: InspectedArt): Promise<string> {
+	const { bytes, thumbnail: thumb, ...meta } = inspected;
+	const thumbnail = thumb.bytes;
 	const sha256 = sha256Of(bytes);
 	// Files first, the row last: a row never points at a file that is not there.
 	await storage().putOnce(artKey(sha256), bytes, meta.mime);

@@ -90,7 +90,7 @@ export async function uploadArt(
 			.select({ last: max(artVersions.number) })
 			.from(artVersions)
 			.where(and(eq(artVersions.gameId, gameId), eq(artVersions.artId, object.id)));
-		await storeArtFile(t, inspected.bytes, inspected, inspected.thumbnail.bytes).catch((e) => {
+		await storeArtFile(t, inspected).catch((e) => {
 			// The transaction rolls back: no row points at a file the store does not have.
 			if (e instanceof StorageUnavailableError) throw new StoreError(503, 'The file store cannot be reached right now, so nothing was stored. Try again in a moment.');
 			throw e;

@@ -8,6 +8,7 @@ import { createGame, type Game as GameRow } from './games';
 import { loadGame, writeGameContent, gameProblems, StoreError } from './game-store';
 import { storeArtFile, readArtFile } from './art-files';
 import { logActivity } from './activity';
+import { inspectArt, ArtRejected, type InspectedArt } from '$lib/art/inspect';
 
 /** Creates a game in the team from a whole document and its art bytes (by SHA-256). */
 export async function createGameFrom(
@@ -19,10 +20,34 @@ export async function createGameFrom(
 	for (const asset of input.game.art) {
 		if (!input.art.has(asset.sha256)) throw new StoreError(400, `Art file ${asset.fileName} is missing`);
 	}
-	// Files first: they are content-addressed, so a failed import leaves nothing that points at them.
+	// The same inspection as an upload; the game keeps what the file is, not what the bundle says.
+	const inspected = new Map<string, InspectedArt>();
 	for (const asset of input.game.art) {
-		await storeArtFile(db, input.art.get(asset.sha256)!, asset);
+		if (inspected.has(asset.sha256)) continue;
+		try {
+			inspected.set(asset.sha256, await inspectArt(input.art.get(asset.sha256)!, asset.fileName));
+		} catch (e) {
+			if (e instanceof ArtRejected) throw new StoreError(400, `Art file ${asset.fileName} was refused: ${e.message}`);
+			throw e;
+		}
 	}
+	const game: Game = {
+		...input.game,
+		art: input.game.art.map((a) => {
+			const file = inspected.get(a.sha256)!;
+			const { dpiX: _x, dpiY: _y, ...rest } = a;
+			return {
+				...rest,
+				mime: file.mime,
+				widthPx: file.widthPx,
+				heightPx: file.heightPx,
+				...(file.dpiX !== undefined && { dpiX: file.dpiX }),
+				...(file.dpiY !== undefined && { dpiY: file.dpiY })
+			};
+		})
+	};
+	// Files first: they are content-addressed, so a failed import leaves nothing that points at them.
+	for (const file of inspected.values()) await storeArtFile(db, file);
 	return db.transaction(async (tx) => {
 		const t = tx as unknown as Db;
 		const row = await createGame(t, {
@@ -32,10 +57,10 @@ export async function createGameFrom(
 			bleedStandard: input.game.bleedStandard,
 			defaultCardSize: input.game.defaultSize.preset === 'custom' ? 'poker' : input.game.defaultSize.preset
 		});
-		await writeGameContent(t, row.id, input.game, input.userId);
-		if (input.game.art.length) {
+		await writeGameContent(t, row.id, game, input.userId);
+		if (game.art.length) {
 			await tx.insert(artVersions).values(
-				input.game.art.map((a) => ({
+				game.art.map((a) => ({
 					gameId: row.id,
 					artId: a.id,
 					number: 1,
