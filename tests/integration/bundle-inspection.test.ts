@@ -82,3 +82,25 @@ describe('bundle import inspects art', () => {
 		for (const a of game.art) expect((await openArtFile(a.sha256, true)).thumbnail, a.fileName).toBe(true);
 	});
 });
+
+describe('served art files', () => {
+	it('carry CSP default-src none and nosniff; an SVG downloads as an attachment, its thumbnail does not', async () => {
+		const { fakeEvent } = await import('./harness');
+		const artFileApi = await import('../../src/routes/api/v1/games/[gameId=id]/art-files/[sha256]/+server');
+		const { uploadArt } = await import('$lib/server/art-uploads');
+		const bytes = new TextEncoder().encode('<svg xmlns="http://www.w3.org/2000/svg" width="40" height="20"><rect width="40" height="20" fill="#3a6"/></svg>');
+		const { art: svg } = await uploadArt(w.db, w.gameId, { bytes, fileName: 'plain.svg' }, { userId: w.callers.designer!.id, teamId: w.teamId });
+		const get = async (sha256: string, thumb = false) =>
+			(await artFileApi.GET(
+				fakeEvent(w.callers.designer, { path: `/x${thumb ? '?thumb=1' : ''}`, params: { gameId: w.gameId, sha256 } }) as never
+			)) as Response;
+		const original = await get(svg.sha256);
+		expect(original.headers.get('content-security-policy')).toMatch(/^default-src 'none'/);
+		expect(original.headers.get('x-content-type-options')).toBe('nosniff');
+		expect(original.headers.get('content-disposition')).toMatch(/^attachment/);
+		const thumb = await get(svg.sha256, true);
+		expect(thumb.headers.get('content-type')).toBe('image/png');
+		expect(thumb.headers.get('content-security-policy')).toMatch(/^default-src 'none'/);
+		expect(thumb.headers.get('content-disposition')).toBeNull();
+	});
+});

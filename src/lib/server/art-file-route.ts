@@ -27,7 +27,11 @@ async function artFileResponse(d: Db, sha: string, thumb: boolean) {
 			// Content-addressed: the bytes behind this URL never change.
 			'cache-control': 'private, max-age=31536000, immutable',
 			'x-content-type-options': 'nosniff',
-			...(file.mime === 'image/svg+xml' ? { 'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'" } : {})
+			// Opened directly, a user's file runs nothing and loads nothing; an SVG downloads instead.
+			'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'",
+			...(file.mime === 'image/svg+xml' && !stored.thumbnail
+				? { 'content-disposition': `attachment; filename="${sha.slice(0, 12)}.svg"` }
+				: {})
 		}
 	});
 }
