@@ -31,6 +31,7 @@ import { planSheets, type SheetOptions } from '../src/lib/print/sheet-plan';
 import { CHROMIUM, CHROMIUM_ARGS } from '../tests/e2e/env';
 import { benchOdds } from './bench/odds';
 import { benchCluster } from './bench/cluster';
+import { benchArtMemory } from './bench/art-memory';
 
 const { values: flags } = parseArgs({
 	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
@@ -501,7 +502,8 @@ async function main() {
 				chromiumOverPaddock: ratios,
 				targets,
 				odds: await benchOdds(),
-				cluster: await benchCluster()
+				cluster: await benchCluster(),
+				artMemory: await benchArtMemory()
 			},
 			null,
 			'\t'
