@@ -2,9 +2,10 @@ import { fail } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireRole, may } from '$lib/server/guard';
-import { profilesOf, saveProfile, deleteProfile, ProfileError } from '$lib/server/printer-profiles';
+import { profilesOf, saveProfile, deleteProfile, ProfileError, setPressProfile, clearPressProfile } from '$lib/server/printer-profiles';
 import { findTeam } from '$lib/server/teams';
-import { PrinterProfileSchema, DEFAULT_PROFILE } from '$lib/schemas/printing';
+import { PrinterProfileSchema, DEFAULT_PROFILE, PressConditionSchema } from '$lib/schemas/printing';
+import { ICC_MAX_BYTES } from '$lib/print/colour/icc';
 import { db } from '$lib/server/runtime';
 import { isUuid } from '$lib/schemas/ids';
 
@@ -36,6 +37,43 @@ export const actions = {
 			throw e;
 		}
 		return message(form, 'Saved.');
+	},
+	/** A printer's own ICC profile and printing condition for one profile: checked before it is kept. */
+	icc: async ({ locals, params, request }) => {
+		const d = await db();
+		const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
+		const data = await request.formData();
+		const id = String(data.get('id') ?? '');
+		if (!isUuid(id)) return fail(404, { iccError: 'No such printer profile' });
+		const file = data.get('icc');
+		if (!(file instanceof File) || file.size === 0) return fail(400, { iccError: 'Choose the ICC profile file' });
+		if (file.size > ICC_MAX_BYTES) return fail(400, { iccError: `The file is ${(file.size / 1048576).toFixed(1)} MB; up to ${ICC_MAX_BYTES / 1048576} MB is accepted` });
+		const condition = PressConditionSchema.safeParse({
+			conditionIdentifier: data.get('conditionIdentifier') ?? '',
+			condition: data.get('condition') ?? '',
+			totalInkLimitPct: data.get('totalInkLimitPct') || undefined
+		});
+		if (!condition.success) return fail(400, { iccError: condition.error.issues.map((i) => i.message).join('; ') });
+		try {
+			await setPressProfile(d, params.teamId, id, new Uint8Array(await file.arrayBuffer()), condition.data, user.id);
+		} catch (e) {
+			if (e instanceof ProfileError) return fail(e.status, { iccError: e.message });
+			throw e;
+		}
+		return { iccSaved: id };
+	},
+	iccReset: async ({ locals, params, request }) => {
+		const d = await db();
+		const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
+		const id = String((await request.formData()).get('id') ?? '');
+		if (!isUuid(id)) return fail(404, { iccError: 'No such printer profile' });
+		try {
+			await clearPressProfile(d, params.teamId, id, user.id);
+		} catch (e) {
+			if (e instanceof ProfileError) return fail(e.status, { iccError: e.message });
+			throw e;
+		}
+		return { iccSaved: id };
 	},
 	delete: async ({ locals, params, request }) => {
 		const d = await db();
