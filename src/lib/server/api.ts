@@ -109,6 +109,8 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 	} catch {
 		throw new ApiError(400, 'The body is not valid JSON', 'malformed_json');
 	}
+	const control = controlCharacterIn(value);
+	if (control) throw new ApiError(400, `${control}: text may not contain control characters (tab and line breaks aside)`, 'invalid');
 	const parsed = schema.safeParse(value);
 	if (!parsed.success) {
 		const issues = parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
@@ -120,4 +122,27 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 		);
 	}
 	return parsed.data;
+}
+
+/** C0 controls and DEL, tab, line feed and carriage return aside: the database refuses NUL outright. */
+const CONTROL = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+
+/** The path of the first string (or key) in a JSON value holding a control character, if any. */
+function controlCharacterIn(value: unknown, path = 'body'): string | null {
+	if (typeof value === 'string') return CONTROL.test(value) ? path : null;
+	if (Array.isArray(value)) {
+		for (let i = 0; i < value.length; i++) {
+			const found = controlCharacterIn(value[i], `${path}.${i}`);
+			if (found) return found;
+		}
+		return null;
+	}
+	if (value && typeof value === 'object') {
+		for (const [k, v] of Object.entries(value)) {
+			if (CONTROL.test(k)) return `${path} (a key)`;
+			const found = controlCharacterIn(v, path === 'body' ? k : `${path}.${k}`);
+			if (found) return found;
+		}
+	}
+	return null;
 }
