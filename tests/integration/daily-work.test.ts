@@ -7,6 +7,9 @@ import { openWorld, fakeEvent, type World } from './harness';
 import { applyChanges, loadGame, StoreError } from '$lib/server/game-store';
 import { savedNote } from '$lib/server/http/object-actions';
 import * as runnersPage from '../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
+import * as artPage from '../../src/routes/(app)/games/[gameId=id]/art/+page.server';
+import { renderGameFaces } from '$lib/print/job';
+import { artBytes } from '$lib/server/printing';
 import * as pressColour from '../../src/routes/api/v1/press-colour/+server';
 import { cutProof, releaseProof } from '$lib/server/proofs';
 import * as printPreview from '../../src/routes/api/v1/games/[gameId=id]/print-preview/+server';
@@ -106,5 +109,23 @@ describe('the readiness list', () => {
 		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'with warnings' });
 		const codes = p.readiness.map((r) => r.code);
 		expect(codes).toEqual(expect.arrayContaining(['no-wager', 'table-gap']));
+	});
+});
+
+describe('one figure for one thing', () => {
+	it('the art page and the print build give the same dpi for each art piece', async () => {
+		const game = await loadGame(w.db, w.gameId);
+		const page = (await artPage.load(ev('artist', { params: { gameId: w.gameId }, path: '/' }))) as unknown as {
+			art: { fileName: string; print: { dpi: number | null; ok: boolean; faces: number } }[];
+		};
+		const faces = await renderGameFaces(game, await artBytes(game));
+		let compared = 0;
+		for (const a of page.art.filter((x) => !x.print.ok && x.print.faces > 0)) {
+			const said = faces.warnings.find((m) => m.includes(`“${a.fileName}” prints at`));
+			expect(said, a.fileName).toBeDefined();
+			expect(said).toContain(`prints at ${a.print.dpi} dpi`);
+			compared++;
+		}
+		expect(compared).toBeGreaterThan(0);
 	});
 });

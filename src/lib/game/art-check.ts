@@ -14,6 +14,9 @@ export interface SlotMm {
 	heightMm: number;
 }
 
+/** The resolution figure people see, on every page and in every file: whole dpi, rounded down (never claim more than there is). */
+export const shownDpi = (dpi: number) => Math.floor(dpi);
+
 /** Dots per inch when `px` pixels print across `mm` millimetres. */
 export function effectiveDpi(px: number, mm: number): number {
 	if (!(mm > 0)) throw new Error('A printed size must be more than 0 mm');
@@ -63,7 +66,7 @@ export function checkArtResolution(
 	const ok = vector || dpi >= minDpi - 1e-9;
 	if (!ok)
 		warnings.push(
-			`Prints at ${Math.floor(dpi)} dpi in a ${fmt(slot.widthMm)} × ${fmt(slot.heightMm)} mm slot; ` +
+			`Prints at ${shownDpi(dpi)} dpi in a ${fmt(slot.widthMm)} × ${fmt(slot.heightMm)} mm slot; ` +
 				`${minDpi} dpi needs ${pxForPrint(slot.widthMm, minDpi)} × ${pxForPrint(slot.heightMm, minDpi)} px`
 		);
 	if (Math.abs(aspectRatio - 1) > 0.02)

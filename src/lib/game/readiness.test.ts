@@ -48,8 +48,13 @@ describe('readiness list', () => {
 			fileName: 'small.png',
 			assignment: { scope: 'kind', targetId: kind.id, slot: kind.artSlots[0] ?? 'portrait' }
 		});
-		const mine = readiness(game).filter((i) => i.ref?.id === 'a-small').map((i) => i.code);
-		expect(mine.sort()).toEqual(['cropped-art', 'low-dpi', 'unfinished-art']);
+		// 300 × 100 px in a 40 × 40 mm slot: 63.5 dpi (25.4 mm an inch), aspect 3:1 so two thirds cropped.
+		const printed = new Map([['a-small', { dpi: 63.5, ok: false, aspectRatio: 3 }]]);
+		const mine = readiness(game, printed).filter((i) => i.ref?.id === 'a-small');
+		expect(mine.map((i) => i.code).sort()).toEqual(['cropped-art', 'low-dpi', 'unfinished-art']);
+		expect(mine.find((i) => i.code === 'low-dpi')?.message).toContain('63 dpi');
+		// Art that prints nowhere is not about to be printed.
+		expect(readiness(game).some((i) => i.ref?.id === 'a-small')).toBe(false);
 	});
 });
 

@@ -9,8 +9,8 @@
  * - art about to print: still a sketch or placeholder, under 300 dpi, or cropped by more than a third.
  */
 import { differenceCiede2000, filterDeficiencyDeuter, filterDeficiencyProt, filterDeficiencyTrit, parse, type Color } from 'culori';
-import { BET_TYPES, validateMoneyTable, type ArtAsset, type CardKind, type Game, type Id } from './model';
-import { checkArtResolution, faceWithBleedMm, MIN_PRINT_DPI } from './art-check';
+import { BET_TYPES, validateMoneyTable, type Game, type Id } from './model';
+import { MIN_PRINT_DPI, shownDpi } from './art-check';
 
 export type ObjectCollection = 'runner' | 'moneyTable' | 'kind' | 'card' | 'art' | 'rogue';
 
@@ -127,39 +127,25 @@ function tellApartChecks(game: Game): ReadinessItem[] {
 	return items;
 }
 
-/** The printed size of an art slot: the whole face with bleed (our layouts draw slots at most that big). */
-function slotSizeOf(game: Game, kind: CardKind | undefined) {
-	return faceWithBleedMm(kind?.size ?? game.defaultSize, game.bleedStandard);
+/** How an art piece prints where it prints softest (measured by laying out its faces; see $lib/art/placement). */
+export interface ArtSlotCheck {
+	dpi: number;
+	ok: boolean;
+	/** Image aspect ÷ slot aspect. */
+	aspectRatio: number;
 }
 
-/** The kinds an art piece prints on, through its assignment. */
-function kindsOf(game: Game, art: ArtAsset): CardKind[] {
-	const as = art.assignment;
-	if (!as) return [];
-	if (as.scope === 'kind') return game.kinds.filter((k) => k.id === as.targetId);
-	if (as.scope === 'card') {
-		const card = game.cards.find((c) => c.id === as.targetId);
-		return game.kinds.filter((k) => k.id === card?.kindId);
-	}
-	const kindIds = new Set(game.cards.filter((c) => 'runnerId' in c.data && c.data.runnerId === as.targetId).map((c) => c.kindId));
-	if (game.rogueRunner?.id === as.targetId) for (const c of game.cards) if (c.data.type === 'rogue') kindIds.add(c.kindId);
-	return game.kinds.filter((k) => kindIds.has(k.id));
-}
-
-function artChecks(game: Game): ReadinessItem[] {
+function artChecks(game: Game, printed: Map<Id, ArtSlotCheck | undefined>): ReadinessItem[] {
 	const items: ReadinessItem[] = [];
 	for (const art of game.art) {
-		const kinds = kindsOf(game, art);
-		if (!kinds.length) continue;
+		if (!art.assignment || !printed.has(art.id)) continue;
+		const check = printed.get(art.id);
 		const ref: ObjectRef = { collection: 'art', id: art.id };
 		if (art.status !== 'final')
 			items.push({ code: 'unfinished-art', message: `“${art.fileName}” is marked ${art.status} and is about to be printed`, ref });
-		if (art.mime === 'image/svg+xml') continue;
-		// The largest slot it fills decides: that is where it prints softest.
-		const slot = kinds.map((k) => slotSizeOf(game, k)).sort((a, b) => b.widthMm * b.heightMm - a.widthMm * a.heightMm)[0];
-		const check = checkArtResolution(art, slot);
+		if (art.mime === 'image/svg+xml' || !check) continue;
 		if (!check.ok)
-			items.push({ code: 'low-dpi', message: `“${art.fileName}” prints at ${Math.floor(check.dpi)} dpi, under ${MIN_PRINT_DPI}`, ref });
+			items.push({ code: 'low-dpi', message: `“${art.fileName}” prints at ${shownDpi(check.dpi)} dpi, under ${MIN_PRINT_DPI}`, ref });
 		const kept = Math.min(check.aspectRatio, 1 / check.aspectRatio);
 		if (1 - kept > MAX_CROP_FRACTION)
 			items.push({ code: 'cropped-art', message: `“${art.fileName}” loses ${Math.round((1 - kept) * 100)}% of the image to cropping`, ref });
@@ -167,10 +153,14 @@ function artChecks(game: Game): ReadinessItem[] {
 	return items;
 }
 
-/** Every readiness item of the game, runners first, then tables, telling runners apart, and art. */
-export function readiness(game: Game): ReadinessItem[] {
+/**
+ * Every readiness item of the game, runners first, then tables, telling runners apart, and art.
+ * `printed`: for each art piece that prints, its check where it prints softest (undefined when
+ * only its status matters); art missing from the map prints nowhere and is not listed.
+ */
+export function readiness(game: Game, printed: Map<Id, ArtSlotCheck | undefined> = new Map()): ReadinessItem[] {
 	const cardKind = new Map(game.cards.map((c) => [c.id, c.kindId]));
-	return [...runnerChecks(game), ...tableChecks(game), ...tellApartChecks(game), ...artChecks(game)].map((item) =>
+	return [...runnerChecks(game), ...tableChecks(game), ...tellApartChecks(game), ...artChecks(game, printed)].map((item) =>
 		item.ref?.collection === 'card' ? { ...item, ref: { ...item.ref, kindId: cardKind.get(item.ref.id) } } : item
 	);
 }

@@ -14,7 +14,7 @@
 import { strToU8, zipSync, type Zippable } from 'fflate';
 import { imageSize } from 'image-size';
 import Papa from 'papaparse';
-import { effectiveDpi, faceWithBleedMm, MIN_PRINT_DPI } from '../game/art-check';
+import { checkArtResolution, faceWithBleedMm, MIN_PRINT_DPI, shownDpi } from '../game/art-check';
 import type { ArtAsset, Card, CardKind, Game } from '../game/model';
 import { faceBytes, faceKey, printCache, type PrintCache } from './cache';
 import { PRINT_SHOP_NOTE } from './cutting-guide';
@@ -246,10 +246,12 @@ function artResolutionWarnings(game: Game, cards: RenderedCard[], images: Map<st
 				if (item.type !== 'image') continue;
 				const img = images.get(item.imageId);
 				if (!img) continue;
-				const dpi = Math.min(effectiveDpi(img.widthPx, item.wMm), effectiveDpi(img.heightPx, item.hMm));
-				if (dpi < MIN_PRINT_DPI)
+				// The clip box is the slot the art fills: the same measure as the art page's.
+				const box = item.clip ?? item;
+				const { dpi, ok } = checkArtResolution(img, { widthMm: box.wMm, heightMm: box.hMm });
+				if (!ok)
 					out.push(
-						`${c.kindKey}: art “${names.get(item.imageId) ?? item.imageId}” prints at ${Math.round(dpi)} dpi; ` +
+						`${c.kindKey}: art “${names.get(item.imageId) ?? item.imageId}” prints at ${shownDpi(dpi)} dpi; ` +
 							`${MIN_PRINT_DPI} dpi is common practice for print`
 					);
 			}

@@ -3,7 +3,7 @@
  * its cards, reply and resolve, give verdicts, release it to printers or withdraw the release.
  * Everything is logged in the game's activity, and the people concerned are told by e-mail.
  */
-import { readiness } from '$lib/game/readiness';
+import { gameReadiness } from './readiness';
 import { and, asc, count, desc, eq, inArray, isNull, max, or } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Db } from './db';
@@ -103,7 +103,7 @@ export async function cutProof(db: Db, input: { gameId: string; userId: string; 
 				number: (last ?? 0) + 1,
 				description: input.description,
 				snapshot: snapshot as unknown as Record<string, unknown>,
-				readiness: readiness(snapshot).map(({ code, message }) => ({ code, message })),
+				readiness: (await gameReadiness(snapshot)).map(({ code, message }) => ({ code, message })),
 				createdBy: input.userId
 			})
 			.returning();

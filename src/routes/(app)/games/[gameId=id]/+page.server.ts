@@ -1,6 +1,6 @@
 import { requireGame, requireGameRole } from '$lib/server/guard';
 import { checkDeck } from '$lib/game/deck-check';
-import { readiness } from '$lib/game/readiness';
+import { gameReadiness } from '$lib/server/readiness';
 import { db } from '$lib/server/runtime';
 
 /** The overview: what the game holds, the deck check per player count, export and import. */
@@ -19,7 +19,7 @@ export const load = async ({ locals, params }) => {
 			art: game.art.length
 		},
 		rogue: game.rogueRunner?.name ?? null,
-		readiness: readiness(game),
+		readiness: await gameReadiness(game),
 		deck
 	};
 };

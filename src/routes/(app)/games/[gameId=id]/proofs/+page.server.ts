@@ -1,7 +1,7 @@
 import { requireGame, requireGameRole, may } from '$lib/server/guard';
 import { proofList } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
-import { readiness } from '$lib/game/readiness';
+import { gameReadiness } from '$lib/server/readiness';
 
 /**
  * The game's proofs, newest first, with their state and a summary of the verdicts and open
@@ -16,7 +16,7 @@ export const load = async ({ locals, params }) => {
 	return {
 		proofs,
 		/** Shown before cutting: what the proof will record. */
-		readiness: may(role, 'proof.cut') ? readiness((await requireGame(d, locals, params.gameId, 'game.read')).doc) : [],
+		readiness: may(role, 'proof.cut') ? await gameReadiness((await requireGame(d, locals, params.gameId, 'game.read')).doc) : [],
 		printerView: !reader,
 		can: { cut: may(role, 'proof.cut'), compare: reader }
 	};
