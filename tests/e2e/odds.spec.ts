@@ -1,6 +1,6 @@
 import { test, expect } from '@playwright/test';
 import { mkdirSync } from 'node:fs';
-import { hydrated, signIn } from './helpers';
+import { demoGameId, hydrated, signIn } from './helpers';
 
 const SHOTS = process.env.E2E_SHOTS ?? 'test-results/odds';
 
@@ -43,9 +43,21 @@ test('a long run shows its progress and can be cancelled; a printer may not run 
 	await page.getByRole('button', { name: 'Cancel' }).click();
 	await expect(page.getByRole('status')).toHaveText('Cancelled.');
 
-	const gameId = page.url().split('/games/')[1].split('/')[0];
+	const gameId = await demoGameId(page);
 	await page.context().clearCookies();
 	await signIn(page, 'printer@paddock.test');
 	const res = await page.request.post(`/api/v1/games/${gameId}/odds`, { data: { finish: 5, stacks: [{ space: 1, bottomToTop: ['x'] }], deck: [], exact: true } });
 	expect(res.status()).toBe(403);
+});
+
+test('a reviewer sees each wager card’s expected coins at the time of the proof', async ({ page }) => {
+	await signIn(page, 'reviewer@paddock.test');
+	const gameId = await demoGameId(page);
+	await page.goto(`/games/${gameId}/proofs/1`);
+	await hydrated(page);
+	const panel = page.getByTestId('proof-wager-prices');
+	await panel.getByText('Wager cards at this proof: expected coins').click();
+	await expect(panel.getByText(/whole races of this proof's data/)).toBeVisible({ timeout: 60_000 });
+	expect(await panel.locator('tbody tr').count()).toBeGreaterThan(10);
+	await panel.screenshot({ path: `${SHOTS}/proof-prices.png` });
 });

@@ -10,7 +10,8 @@ import { as, g } from './role-table';
 import { demoStage } from './role-rows/odds';
 import { oddsScenarios } from '$lib/server/db/schema';
 import { loadGame, saveSettings } from '$lib/server/game-store';
-import { oddsJobs, type JobView } from '$lib/server/odds';
+import { oddsJobs, pricesAtProof, type JobView } from '$lib/server/odds';
+import { cutProof, snapshotOf } from '$lib/server/proofs';
 import { coinsForPlace } from '$lib/game/model';
 import * as oddsApi from '../../src/routes/api/v1/games/[gameId=id]/odds/+server';
 import * as scenariosApi from '../../src/routes/api/v1/games/[gameId=id]/odds/scenarios/+server';
@@ -113,6 +114,16 @@ describe('saved scenarios', () => {
 		expect(res.status).toBe(400);
 		expect(await stored()).toBe(before);
 	});
+});
+
+describe('prices at a proof', () => {
+	it('prices every wager card of the snapshot, the same each time', async () => {
+		const proof = await cutProof(w.db, { gameId: w.gameId, userId: w.callers.designer!.id, userName: 'Dara', description: 'priced' });
+		const snapshot = snapshotOf(proof);
+		const prices = await pricesAtProof(proof.id, snapshot);
+		expect(prices!.wagers).toHaveLength(snapshot.cards.filter((c) => c.data.type === 'wager').length);
+		expect(await pricesAtProof(proof.id, snapshot)).toEqual(prices);
+	}, 90_000);
 });
 
 describe('race rules in the settings', () => {

@@ -291,3 +291,64 @@ export async function saveScenario(db: Db, actor: OddsActor, input: unknown): Pr
 		return toSaved(row);
 	});
 }
+
+/* ------------------------------------------------------------ proof prices */
+
+/** Whole races a proof's wager prices come from, and their seed: fixed, so a proof's prices never change. */
+export const PROOF_RACES = 20_000;
+const PROOF_SEED = 1;
+
+export interface ProofPrices {
+	runners: { id: string; name: string; colourHex: string; symbol: Game['runners'][number]['symbol'] }[];
+	players: number;
+	races: number;
+	meanStages: number;
+	target: number;
+	wagers: WagerLine[];
+}
+
+const proofPrices = new Map<string, Promise<ProofPrices | null>>();
+const PROOF_PRICES_KEPT = 50;
+
+/** The player count a proof is priced at: four when the game has a setup for four, else the nearest. */
+function pricingPlayers(game: Game): number | undefined {
+	const usable = setupPlayerCounts(game).filter((p) => {
+		try {
+			raceSetupFromGame(game, p);
+			return true;
+		} catch {
+			return false;
+		}
+	});
+	return usable.sort((a, b) => Math.abs(a - 4) - Math.abs(b - 4) || a - b)[0];
+}
+
+/**
+ * Each wager card's expected coins as the proof's snapshot stood: whole races of the snapshot,
+ * seeded, on the worker pool. Kept per proof (a snapshot never changes); null when the snapshot
+ * has no usable setup card.
+ */
+export function pricesAtProof(proofId: string, snapshot: Game): Promise<ProofPrices | null> {
+	const known = proofPrices.get(proofId);
+	if (known) return known;
+	const players = pricingPlayers(snapshot);
+	const run: Promise<ProofPrices | null> =
+		players === undefined
+			? Promise.resolve(null)
+			: oddsPool()
+					.run({ kind: 'race', setup: raceSetupFromGame(snapshot, players), races: PROOF_RACES, seed: PROOF_SEED })
+					.then((r) => {
+						if (r.kind !== 'race') return null;
+						const answer = raceAnswer(snapshot, players, PROOF_RACES, PROOF_SEED, r.odds, 0);
+						const runners = snapshot.runners.map((x) => ({ id: x.id, name: x.name, colourHex: x.colourHex, symbol: x.symbol }));
+						return { runners, players, races: PROOF_RACES, meanStages: answer.meanStages, target: 0, wagers: answer.wagers };
+					});
+	const kept = run.catch((e) => {
+		proofPrices.delete(proofId);
+		console.error(e);
+		return null;
+	});
+	if (proofPrices.size >= PROOF_PRICES_KEPT) proofPrices.delete(proofPrices.keys().next().value!);
+	proofPrices.set(proofId, kept);
+	return kept;
+}

@@ -3,6 +3,7 @@ import { isMuted, snapshotOf, isReleased, withdrawnRelease } from '$lib/server/p
 import { userName } from '$lib/server/users';
 import { db } from '$lib/server/runtime';
 import { proofForPage, cardsOf, kindsOf } from '$lib/server/http/proof-pages';
+import { pricesAtProof } from '$lib/server/odds';
 
 /**
  * The frame of a proof: its header and its cards with their face boxes. Comments and verdicts
@@ -21,7 +22,8 @@ export const load = async ({ locals, params }) => {
 		}
 	}
 	const { proof } = await proofForPage(d, locals, params.gameId, params.number);
-	const cards = cardsOf(snapshotOf(proof));
+	const snapshot = snapshotOf(proof);
+	const cards = cardsOf(snapshot);
 	const header = {
 		id: proof.id,
 		number: proof.number,
@@ -42,6 +44,8 @@ export const load = async ({ locals, params }) => {
 		cards,
 		kinds: kindsOf(cards),
 		readiness: proof.readiness,
+		// Streamed: the page shows the proof at once and the prices when the races are done.
+		wagerPrices: pricesAtProof(proof.id, snapshot),
 		me: user.id,
 		muted,
 		can: {
