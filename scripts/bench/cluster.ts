@@ -64,8 +64,8 @@ export async function benchCluster(): Promise<ClusterBench> {
 	const load = loadavg()[0];
 	console.log(`\nAPI throughput over PostgreSQL, 1 and 2 app processes (load average ${load.toFixed(1)} on ${availableParallelism()} cores):`);
 	await buildAppIfStale({ log: () => {} });
-	const pg = await startPostgres({});
-	const bucket = await startBucket({});
+	const pg = await startPostgres({ port: Number(process.env.PADDOCK_PG_PORT) || undefined });
+	const bucket = await startBucket({ port: Number(process.env.PADDOCK_S3_PORT) || undefined });
 	const children: ChildProcess[] = [];
 	const env = {
 		PATH: process.env.PATH ?? '',
