@@ -84,3 +84,12 @@ describe('proof faces', () => {
 		expect(again.status).toBe(304);
 	});
 });
+
+describe('PNG zip jobs', () => {
+	it('refuse a resolution out of range before any work starts', async () => {
+		const printJobs = await import('../../src/routes/api/v1/games/[gameId=id]/print-jobs/+server');
+		const res = await printJobs.POST(ev({ method: 'POST', params: { gameId: w.gameId }, json: { kind: 'pngs', query: { dpi: '5000' } }, headers: { origin: 'http://localhost:3000' } }));
+		expect(res.status).toBe(400);
+		expect(((await res.json()) as { error: { message: string } }).error.message).toMatch(/dpi is a whole number from 72 to 600/);
+	});
+});

@@ -1,5 +1,5 @@
 /**
- * Sheet builds started from the print page, as jobs any app process can follow. The job's state
+ * Sheet builds and PNG zips started from the print page, as jobs any app process can follow. The job's state
  * is a database row and its file is in the file store, so whichever process built it, every
  * process answers its progress and serves its file. Where it runs is the job queue's business
  * (./job-queue.ts): the process's own worker pool, or a PostgreSQL-backed queue shared by all.
@@ -13,7 +13,7 @@ import { createHash } from 'node:crypto';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
 import { ApiError } from './api';
-import { artBytes, fileStem, runPrint, type PrintSource } from './printing';
+import { artBytes, buildPngZip, fileStem, pngZipName, runPrint, type PngJobOptions, type PrintSource } from './printing';
 import { storage, streamBody, StorageUnavailableError } from './storage';
 import { jobQueue } from './job-queue';
 import { printPool } from '$lib/print/pool';
@@ -31,6 +31,14 @@ interface SheetRequest {
 	options: Omit<GamePdfOptions, 'onProgress'>;
 }
 
+/** One PNG per face in a zip (./printing.ts `buildPngZip`). */
+interface PngRequest {
+	type: 'pngs';
+	proof: boolean;
+	game: Game;
+	options: PngJobOptions;
+}
+
 /** A finished job's row and file stay this long for download. */
 const KEEP_MS = 10 * 60 * 1000;
 /** Progress is written at most this often. */
@@ -38,19 +46,22 @@ const PROGRESS_MS = 400;
 
 /** Queues a sheet build and returns at once; progress is read with `jobFor` and `jobState`. */
 export async function startSheetJob(db: Db, source: PrintSource, options: GamePdfOptions): Promise<PrintJobRow> {
+	const { onProgress: _ignored, ...plain } = options;
+	return queueJob(db, source, { type: 'sheets', proof: !!source.proofNumber, game: source.game, options: plain }, `${fileStem(source)}-sheets.pdf`);
+}
+
+/** Queues a PNG zip, followed like a sheet build. */
+export async function startPngJob(db: Db, source: PrintSource, options: PngJobOptions): Promise<PrintJobRow> {
+	return queueJob(db, source, { type: 'pngs', proof: !!source.proofNumber, game: source.game, options }, pngZipName(source, options.dpi));
+}
+
+async function queueJob(db: Db, source: PrintSource, request: SheetRequest | PngRequest, fileName: string): Promise<PrintJobRow> {
 	await db.delete(printJobs).where(lt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS)));
 	// A full local queue refuses now (503) rather than as a failed job later.
 	if (!jobQueue().shared && printPool().full) throw new ApiError(503, 'The print queue is full; try again in a minute', 'busy');
-	const { onProgress: _ignored, ...plain } = options;
-	const request: SheetRequest = { type: 'sheets', proof: !!source.proofNumber, game: source.game, options: plain };
 	const [row] = await db
 		.insert(printJobs)
-		.values({
-			userId: source.userId,
-			gameId: source.gameId,
-			request: request as unknown as Record<string, unknown>,
-			fileName: `${fileStem(source)}-sheets.pdf`
-		})
+		.values({ userId: source.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, fileName })
 		.returning();
 	await jobQueue().send('print', row.id);
 	return row;
@@ -86,7 +97,7 @@ export async function jobFile(job: PrintJobRow): Promise<Response> {
 	const file = await storage().open(job.fileKey);
 	return new Response(streamBody(file), {
 		headers: {
-			'content-type': 'application/pdf',
+			'content-type': job.fileName.endsWith('.zip') ? 'application/zip' : 'application/pdf',
 			'content-length': String(file.bytes),
 			'content-disposition': `attachment; filename="${job.fileName}"`,
 			'x-paddock-warnings': String(job.result?.warnings.length ?? 0),
@@ -109,7 +120,7 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 	if (!job) return;
 	// Which process builds what, for operators following a shared queue.
 	if (jobQueue().shared) console.log(`Building print job ${id} (attempt ${job.attempts}) in process ${process.pid}`);
-	const request = job.request as unknown as SheetRequest;
+	const request = job.request as unknown as SheetRequest | PngRequest;
 	let last = 0;
 	let writing = Promise.resolve();
 	const progress = (done: number, total: number) => {
@@ -125,10 +136,14 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		// Isolated from the worker's cache when the bytes must not depend on what ran before: a
 		// proof, or a shared queue where a retry elsewhere must make the very same file.
 		const isolated = request.proof || jobQueue().shared;
-		const result = await runPrint({ type: 'sheets', isolated, game: request.game, art, options: request.options }, progress);
+		const result =
+			request.type === 'pngs'
+				? await buildPngZip(request.game, art, { ...request.options, isolated }, progress)
+				: await runPrint({ type: 'sheets', isolated, game: request.game, art, options: request.options }, progress);
 		const sha256 = createHash('sha256').update(result.bytes).digest('hex');
-		const fileKey = `print/${sha256.slice(0, 2)}/${sha256}.pdf`;
-		await storage().putOnce(fileKey, result.bytes, 'application/pdf');
+		const [extension, type] = request.type === 'pngs' ? ['zip', 'application/zip'] : ['pdf', 'application/pdf'];
+		const fileKey = `print/${sha256.slice(0, 2)}/${sha256}.${extension}`;
+		await storage().putOnce(fileKey, result.bytes, type);
 		await writing;
 		// The first build to get here wins; any other keeps its hands off the row.
 		await db
@@ -136,8 +151,8 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 			.set({
 				state: 'done',
 				fileKey,
-				done: Math.max(result.pages ?? 1, 1),
-				total: Math.max(result.pages ?? 1, 1),
+				done: Math.max(result.pages ?? result.files ?? 1, 1),
+				total: Math.max(result.pages ?? result.files ?? 1, 1),
 				result: { sheets: result.sheets, pages: result.pages, bytes: result.bytes.byteLength, warnings: result.warnings },
 				finishedAt: new Date()
 			})

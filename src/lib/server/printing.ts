@@ -15,7 +15,7 @@ import { logActivity } from './activity';
 import type { Db } from './db';
 import type { Game } from '$lib/game/model';
 import { printPool, PrintBusyError, type PrintJob, type PrintJobResult } from '$lib/print/pool';
-import { renderGameFaces, type GamePdfOptions } from '$lib/print/job';
+import { PNG_DPI_DEFAULT, PNG_DPI_MAX, PNG_DPI_MIN, renderGameFaces, zipPngParts, type GamePdfOptions } from '$lib/print/job';
 import { parsePrintOptions, PrintOptionsError, settingsQuery, toSheetOptions, type PrintOptions } from '$lib/print/options';
 import type { PdfxTarget } from '$lib/print/pdfx';
 import type { PressProfile } from '$lib/print/colour/cmm';
@@ -120,9 +120,9 @@ export async function pdfxTarget(
 }
 
 /** Runs a job in the pool; engine refusals become 400 (or 404), a full queue 503. */
-export async function runPrint(job: PrintJob, onProgress?: (done: number, total: number) => void): Promise<PrintJobResult> {
+export async function runPrint(job: PrintJob, onProgress?: (done: number, total: number) => void, affinity = job.game.slug): Promise<PrintJobResult> {
 	try {
-		return await printPool().run(job, { onProgress, affinity: job.game.slug });
+		return await printPool().run(job, { onProgress, affinity });
 	} catch (e) {
 		if (e instanceof PrintBusyError) throw new ApiError(503, e.message, 'busy');
 		const status = (e as { status?: number }).status;
@@ -185,4 +185,53 @@ export async function previewFirstSheet(
 		orientation: group.imposition.orientation,
 		warnings: [...faces.warnings, ...plan.warnings]
 	};
+}
+
+/* ---------------------------------------------------------- PNG zips */
+
+export interface PngJobOptions {
+	dpi: number;
+	kinds?: string[];
+}
+
+/** The resolution asked for a PNG zip (default 300), or 400. */
+export function pngDpi(value: string | null | undefined): number {
+	const dpi = Number(value ?? PNG_DPI_DEFAULT);
+	if (!Number.isInteger(dpi) || dpi < PNG_DPI_MIN || dpi > PNG_DPI_MAX) throw new ApiError(400, `dpi is a whole number from ${PNG_DPI_MIN} to ${PNG_DPI_MAX}`);
+	return dpi;
+}
+
+export const pngZipName = (source: PrintSource, dpi: number) => `${fileStem(source)}-cards-${dpi}dpi.zip`;
+
+/**
+ * A PNG zip drawn on every print worker at once: each draws a share of the faces (and keeps
+ * them in its cache, so the next zip of an unchanged game only collects them); the zip is put
+ * together here. A share goes back to the worker that drew it last, where its faces are kept.
+ */
+export async function buildPngZip(
+	game: Game,
+	art: Map<string, Uint8Array>,
+	options: PngJobOptions & { isolated?: boolean },
+	onProgress?: (done: number, total: number) => void
+): Promise<PrintJobResult> {
+	pngDpi(String(options.dpi));
+	const count = printPool().size;
+	const progress = Array.from({ length: count }, () => ({ done: 0, total: 0 }));
+	const parts = await Promise.all(
+		progress.map((p, index) =>
+			runPrint(
+				{ type: 'png-part', isolated: options.isolated, game, art, options: { dpi: options.dpi, kinds: options.kinds, shard: { index, count } } },
+				(done, total) => {
+					Object.assign(p, { done, total });
+					onProgress?.(
+						progress.reduce((n, x) => n + x.done, 0),
+						progress.reduce((n, x) => n + x.total, 0)
+					);
+				},
+				`${game.slug}#png${index}`
+			)
+		)
+	);
+	const zip = zipPngParts(parts.map((p) => p.part!));
+	return { ...parts[0], type: 'pngs', part: undefined, bytes: zip.zip, files: zip.files, warnings: zip.warnings };
 }

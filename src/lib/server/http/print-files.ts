@@ -3,7 +3,7 @@
  * one card's press PDF and the PNG zip. A proof's files are built from its snapshot only.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, fileStem, pdfxTarget } from '../printing';
+import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, fileStem, pdfxTarget, buildPngZip, pngDpi, pngZipName } from '../printing';
 import { PrintQuerySchema } from '$lib/print/options';
 import { isUuid } from '$lib/schemas/ids';
 
@@ -52,8 +52,8 @@ export async function pressPdf(event: Ev) {
 export async function cardsZip(event: Ev) {
 	const d = await db();
 	const source = await printSource(d, event.locals, event.params.gameId, event.params.proofId);
-	const dpi = Number(event.url.searchParams.get('dpi') ?? 300);
-	const result = await runPrint({ type: 'pngs', isolated: !!source.proofNumber, game: source.game, art: await artBytes(source.game), options: { dpi } });
+	const dpi = pngDpi(event.url.searchParams.get('dpi'));
+	const result = await buildPngZip(source.game, await artBytes(source.game), { dpi, isolated: !!source.proofNumber });
 	await logDownload(d, source, 'pngs');
-	return fileResponse(result.bytes, 'application/zip', `${fileStem(source)}-cards-${dpi}dpi.zip`, result.warnings);
+	return fileResponse(result.bytes, 'application/zip', pngZipName(source, dpi), result.warnings);
 }

@@ -2,22 +2,30 @@ import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { z } from 'zod';
 import { api, readJson } from '$lib/server/api';
-import { printSource, printOptions, logDownload } from '$lib/server/printing';
-import { startSheetJob, jobState } from '$lib/server/print-jobs';
+import { printSource, printOptions, logDownload, pngDpi } from '$lib/server/printing';
+import { startSheetJob, startPngJob, jobState } from '$lib/server/print-jobs';
 import { db } from '$lib/server/runtime';
 
 const JobSchema = z.object({
 	/** A proof id or number; the working game when absent. */
 	proof: z.string().max(40).optional(),
-	/** The print route's query parameters (or `profile`). */
+	/** What to build: the sheet PDF, or the zip of one PNG per face. */
+	kind: z.enum(['sheets', 'pngs']).default('sheets'),
+	/** The print route's query parameters (or `profile`); for PNGs, `dpi` and `kinds`. */
 	query: z.record(z.string(), z.string().max(200)).default({})
 });
 
-/** Starts a sheet build and answers at once with the job to follow. */
+/** Starts a sheet build or a PNG zip and answers at once with the job to follow. */
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
 	const input = await readJson(request, JobSchema);
 	const source = await printSource(d, locals, params.gameId, input.proof);
+	if (input.kind === 'pngs') {
+		const kinds = input.query.kinds ? input.query.kinds.split(',').filter(Boolean) : undefined;
+		const job = await startPngJob(d, source, { dpi: pngDpi(input.query.dpi), kinds });
+		await logDownload(d, source, 'pngs');
+		return json(jobState(job), { status: 202 });
+	}
 	const options = await printOptions(d, source, new URLSearchParams(input.query));
 	const job = await startSheetJob(d, source, options);
 	await logDownload(d, source, 'sheets');
