@@ -48,3 +48,21 @@ test('a new runner saves with a warning linking to the table it leaves short; th
 	await page.getByRole('button', { name: 'Save the runner' }).click();
 	await expect(page.getByText('Fill this in.').first()).toBeVisible();
 });
+
+test('leaving a runner with unsaved changes asks first; staying keeps the change', async ({ page }) => {
+	await signIn(page, 'designer@paddock.test');
+	const gameId = await demoGameId(page);
+	await page.goto(`/games/${gameId}/runners`);
+	await hydrated(page);
+	await page.getByLabel('Name', { exact: true }).fill('Renamed but not saved');
+	await page.getByRole('link', { name: 'Money tables' }).first().click();
+	const prompt = page.getByTestId('unsaved-prompt');
+	await expect(prompt).toBeVisible();
+	await shot(page, 'unsaved-prompt');
+	await prompt.getByRole('button', { name: 'Stay on this page' }).click();
+	await expect(page).toHaveURL(/runners/);
+	await expect(page.getByLabel('Name', { exact: true })).toHaveValue('Renamed but not saved');
+	await page.getByRole('link', { name: 'Money tables' }).first().click();
+	await prompt.getByRole('button', { name: 'Leave and lose the changes' }).click();
+	await expect(page).toHaveURL(/money-tables/);
+});
