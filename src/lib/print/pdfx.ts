@@ -18,7 +18,8 @@
 import { createHash } from 'node:crypto';
 import { deflateSync } from 'node:zlib';
 import { PDFDict, PDFDocument, PDFHexString, PDFName, PDFString } from 'pdf-lib';
-import type { PressProfile, RenderingIntent } from './colour/cmm';
+import { PressColour, type PressProfile, type RenderingIntent } from './colour/cmm';
+import type { PressOutput } from './pdf';
 
 export const PDFX_STANDARDS = ['pdfx4', 'pdfx1a'] as const;
 export type PdfxStandard = (typeof PDFX_STANDARDS)[number];
@@ -49,6 +50,21 @@ export async function savePdfx(doc: PDFDocument, standard: PdfxStandard): Promis
 	if (new TextDecoder().decode(bytes.subarray(0, 5)) !== '%PDF-') throw new Error('pdf-lib wrote no PDF header');
 	bytes.set(header, 0);
 	return bytes;
+}
+
+/** What a face writer needs to draw for the target's press: its colour transform, limits and font tag. */
+export async function pressOutput(
+	target: PdfxTarget,
+	seed: string,
+	onInkOver?: (what: string, pct: number) => void
+): Promise<PressOutput> {
+	return {
+		colour: await PressColour.open(target.profile.icc, target.intent),
+		allowTransparency: target.standard === 'pdfx4',
+		subsetTag: documentTag(seed),
+		totalInkLimitPct: target.profile.totalInkLimitPct,
+		onInkOver
+	};
 }
 
 /** Six capitals from the document's identity: the tag of its subset fonts. */

@@ -13,8 +13,7 @@ import { CROP_MARK, drawSheetMarks, type MarkLine } from './marks';
 import { PT_PER_MM } from './paper';
 import { PdfFaceWriter, type ColourMode } from './pdf';
 import type { EncodedImageStore } from './pdf-image';
-import { PressColour } from './colour/cmm';
-import { documentTag, finishPdfx, savePdfx, type PdfxTarget } from './pdfx';
+import { finishPdfx, pressOutput, savePdfx, type PdfxTarget } from './pdfx';
 
 /** Mark length on a press file: shorter than on a sheet, since the page only has to carry them. */
 export const PRESS_MARK_LENGTH_MM = 5;
@@ -106,15 +105,7 @@ export async function buildPressPdf(input: PressPdfInput): Promise<Uint8Array> {
 		images: input.images,
 		colour: input.colour ?? 'cmyk',
 		imageStore: input.imageStore,
-		...(pdfx && {
-			press: {
-				colour: await PressColour.open(pdfx.profile.icc, pdfx.intent),
-				allowTransparency: pdfx.standard === 'pdfx4',
-				subsetTag: documentTag(seed),
-				totalInkLimitPct: pdfx.profile.totalInkLimitPct,
-				onInkOver: input.onInkOver
-			}
-		})
+		...(pdfx && { press: await pressOutput(pdfx, seed, input.onInkOver) })
 	});
 	for (const face of input.back ? [input.front, input.back] : [input.front]) {
 		await drawPressPage(doc.addPage(), writer, face, !!input.cropMarks);

@@ -18,8 +18,7 @@ import { drawSheetMarks, sheetMarks } from './marks';
 import { mmToPt, PT_PER_MM } from './paper';
 import { drawIntoForm, packPageContent, PdfFaceWriter } from './pdf';
 import type { EncodedImageStore } from './pdf-image';
-import { PressColour } from './colour/cmm';
-import { documentTag, finishPdfx, savePdfx, type PdfxTarget } from './pdfx';
+import { finishPdfx, pressOutput, savePdfx, type PdfxTarget } from './pdfx';
 
 export interface SheetPdfInput {
 	title: string;
@@ -63,15 +62,7 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 		imageStore: input.imageStore,
 		// A card printed many times is drawn once and placed by reference.
 		faceForms: true,
-		...(pdfx && {
-			press: {
-				colour: await PressColour.open(pdfx.profile.icc, pdfx.intent),
-				allowTransparency: pdfx.standard === 'pdfx4',
-				subsetTag: documentTag(seed),
-				totalInkLimitPct: pdfx.profile.totalInkLimitPct,
-				onInkOver: input.onInkOver
-			}
-		})
+		...(pdfx && { press: await pressOutput(pdfx, seed, input.onInkOver) })
 	});
 	const labelFont = writer.font('regular');
 	const labelColour = writer.paint({ hex: '#000000', cmyk: [0, 0, 0, 1] });

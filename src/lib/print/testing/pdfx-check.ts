@@ -4,9 +4,9 @@
  * lines of our own from the bytes qpdf hands out (ICC.1:2010 §7.2 offsets).
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { withFile } from './poppler';
 
 /* eslint-disable @typescript-eslint/no-explicit-any */
 type Obj = Record<string, any>;
@@ -32,16 +32,6 @@ export interface PdfxReport {
 	inkedShare: number;
 }
 
-function withFile<T>(bytes: Uint8Array, run: (path: string, dir: string) => T): T {
-	const dir = mkdtempSync(join(tmpdir(), 'paddock-pdfx-'));
-	try {
-		const path = join(dir, 'in.pdf');
-		writeFileSync(path, bytes);
-		return run(path, dir);
-	} finally {
-		rmSync(dir, { recursive: true, force: true });
-	}
-}
 
 const text = (v: unknown) => (typeof v === 'string' ? v.replace(/^[ub]:/, '') : String(v));
 

@@ -7,7 +7,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
-function withFile<T>(bytes: Uint8Array, run: (path: string, dir: string) => T): T {
+export function withFile<T>(bytes: Uint8Array, run: (path: string, dir: string) => T): T {
 	const dir = mkdtempSync(join(tmpdir(), 'paddock-pdf-'));
 	try {
 		const path = join(dir, 'in.pdf');
