@@ -62,6 +62,24 @@ export interface SharedQueueOptions {
 	maintenanceSeconds?: number;
 }
 
+/**
+ * Creates a queue unless it is there. Two processes starting together may both try; PostgreSQL
+ * then ends one of them with a deadlock (40P01), which is tried again after a short pause.
+ */
+async function createQueueOnce(boss: PgBoss, name: string, options: PgBoss.Queue) {
+	for (let attempt = 1; ; attempt++) {
+		try {
+			if (await boss.getQueue(name)) return;
+			await boss.createQueue(name, options);
+			return;
+		} catch (e) {
+			const code = (e as { code?: string }).code;
+			if ((code !== '40P01' && code !== '23505') || attempt >= 5) throw e;
+			await new Promise((ok) => setTimeout(ok, 50 + Math.random() * 200 * attempt));
+		}
+	}
+}
+
 /** pg-boss on the PostgreSQL server: every process sends and works. */
 export async function sharedQueue(databaseUrl: string, options: SharedQueueOptions = {}): Promise<JobQueue> {
 	const boss = new PgBoss({
@@ -75,7 +93,7 @@ export async function sharedQueue(databaseUrl: string, options: SharedQueueOptio
 	const expireInSeconds = options.expireSeconds ?? Number(process.env.PADDOCK_JOB_EXPIRE_SECONDS ?? 300);
 	const names = [...kinds.keys()];
 	for (const name of names) {
-		await boss.createQueue(name, { name, retryLimit: attempts - 1, retryDelay: 1, expireInSeconds, policy: 'standard' });
+		await createQueueOnce(boss, name, { name, retryLimit: attempts - 1, retryDelay: 1, expireInSeconds, policy: 'standard' });
 		const kind = kindOf(name);
 		await boss.work<{ id: string }>(
 			name,
