@@ -1,4 +1,4 @@
-// Part of `npm run build`: the print worker and the print CLI compiled to plain JavaScript
+// Part of `npm run build`: the print worker, the odds worker and the print CLI compiled to plain JavaScript
 // (esbuild), so neither needs a TypeScript loader at run time. Packages stay in node_modules.
 import { build } from 'esbuild';
 
@@ -18,6 +18,7 @@ export async function buildPrint({ quiet = false } = {}) {
 	};
 	await Promise.all([
 		build({ ...common, entryPoints: ['src/lib/print/worker.ts'], outfile: 'build/print-worker.js' }),
+		build({ ...common, entryPoints: ['src/lib/odds/worker.ts'], outfile: 'build/odds-worker.js' }),
 		build({ ...common, entryPoints: ['scripts/print.ts'], outfile: 'build/print.js' })
 	]);
 }

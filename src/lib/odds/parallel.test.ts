@@ -1,4 +1,7 @@
 /** Worker threads give the single-thread answer for the same seed, report progress, and cancel. */
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { join } from 'node:path';
+import { build } from 'esbuild';
 import { afterAll, describe, expect, it } from 'vitest';
 import { demoGame } from '../demo/demo';
 import { OddsCancelled, OddsPool } from './parallel';
@@ -34,6 +37,31 @@ describe('the odds pool', () => {
 		const setup = raceSetupFromGame(demoGame(), 3);
 		const out = await pool.run({ kind: 'race', setup, races: 2000, seed: 5 });
 		expect(out.kind === 'race' && out.odds).toEqual(simulateRaces(setup, 2000, 5));
+	}, 60_000);
+
+	it('gives the same answer from the worker compiled to plain JavaScript (as `npm run build` makes it)', async () => {
+		// Inside the project, so the compiled file finds the packages it leaves in node_modules.
+		const cache = new URL('../../../node_modules/.cache/', import.meta.url).pathname;
+		mkdirSync(cache, { recursive: true });
+		const dir = mkdtempSync(join(cache, 'paddock-odds-worker-'));
+		const compiled = new OddsPool({ size: 2, workerPath: join(dir, 'odds-worker.js') });
+		try {
+			await build({
+				entryPoints: [new URL('./worker.ts', import.meta.url).pathname],
+				outfile: join(dir, 'odds-worker.js'),
+				bundle: true,
+				platform: 'node',
+				format: 'esm',
+				packages: 'external',
+				logLevel: 'error'
+			});
+			const samples = 2 * CHUNK_SAMPLES + 7;
+			const out = await compiled.run({ kind: 'stage', scenario, samples, seed: 3 });
+			expect(out.kind === 'stage' && out.odds).toEqual(monteCarloStage(compileStage(scenario), samples, 3));
+		} finally {
+			await compiled.close();
+			rmSync(dir, { recursive: true, force: true });
+		}
 	}, 60_000);
 
 	it('stops when cancelled', async () => {

@@ -7,7 +7,7 @@
  */
 import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
-import { resolveWorkerModule, startTsWorker } from '../threads/ts-worker';
+import { resolveCompiledWorker, startTsWorker } from '../threads/ts-worker';
 import { addRaceTally, emptyRaceTally, raceOddsFromTally, type RaceOdds, type RaceSetup, type RaceTally } from './race';
 import { rankedRunners, type Scenario } from './scenario';
 import { addTally, chunkCount, emptyTally, stageOddsFromTally, type StageOdds, type Tally } from './stage';
@@ -70,7 +70,7 @@ export class OddsPool {
 
 	constructor(options: { size?: number; workerPath?: string } = {}) {
 		this.size = Math.max(1, Math.floor(options.size ?? availableParallelism()));
-		this.workerPath = resolveWorkerModule(import.meta.url, 'worker.ts', 'src/lib/odds/worker.ts', options.workerPath);
+		this.workerPath = resolveCompiledWorker(import.meta.url, 'worker.ts', 'src/lib/odds/worker.ts', 'odds-worker.js', options.workerPath);
 	}
 
 	/** Jobs waiting behind the one running. */

@@ -22,7 +22,7 @@ import type { Game } from '../game/model';
 import type { CacheArea, CacheStats } from './cache';
 import type { CardPressOptions, GamePdfOptions, PngPart, PngShard, PngZipOptions } from './job';
 import { PrintOptionsError } from './options';
-import { resolveWorkerModule, tsxEsmApi, type TsWorkerData } from '../threads/ts-worker';
+import { resolveCompiledWorker, tsxEsmApi, type TsWorkerData } from '../threads/ts-worker';
 
 type Plain<T> = Omit<T, 'onProgress' | 'cache'>;
 
@@ -114,25 +114,7 @@ const WORKER_NICE = 10;
  * the compiled worker (`npm run build` writes build/print-worker.js) once this file is bundled.
  */
 export function resolveWorkerPath(explicit?: string): string {
-	const source = resolveWorkerModule(import.meta.url, 'worker.ts', 'src/lib/print/worker.ts', explicit);
-	if (explicit || isBeside(source)) return source;
-	let here: string | undefined;
-	try {
-		here = dirname(fileURLToPath(import.meta.url));
-	} catch {
-		// import.meta.url is not a file URL once bundled for some targets.
-	}
-	const compiled = [here && join(here, '..', '..', 'print-worker.js'), resolve(process.cwd(), 'build/print-worker.js')];
-	return compiled.find((c) => c && existsSync(c)) ?? source;
-}
-
-/** Whether a worker path is the source file beside this module (running from source). */
-function isBeside(path: string): boolean {
-	try {
-		return dirname(path) === dirname(fileURLToPath(import.meta.url));
-	} catch {
-		return false;
-	}
+	return resolveCompiledWorker(import.meta.url, 'worker.ts', 'src/lib/print/worker.ts', 'print-worker.js', explicit);
 }
 
 /** The worker's first module: plain JavaScript that loads the real worker (through tsx when it is TypeScript). */

@@ -33,6 +33,25 @@ export function resolveWorkerModule(here: string, name: string, fallback: string
 	return resolve(process.cwd(), fallback);
 }
 
+/**
+ * Like `resolveWorkerModule`, but once the calling module is bundled (the source is not beside
+ * it) the compiled worker `compiled` (written by `npm run build` into build/) is preferred, so the
+ * thread needs no TypeScript loader. Falls back to the source when nothing is compiled.
+ */
+export function resolveCompiledWorker(here: string, name: string, fallback: string, compiled: string, explicit?: string): string {
+	const source = resolveWorkerModule(here, name, fallback, explicit);
+	let dir: string | undefined;
+	try {
+		dir = dirname(fileURLToPath(here));
+	} catch {
+		// import.meta.url is not a file URL once bundled for some targets.
+	}
+	if (explicit || (dir && dirname(source) === dir)) return source;
+	// Bundled server chunks live in build/server/chunks/: the compiled worker two folders up.
+	const candidates = [dir && join(dir, '..', '..', compiled), resolve(process.cwd(), 'build', compiled)];
+	return candidates.find((c) => c && existsSync(c)) ?? source;
+}
+
 /** Starts a thread running `entry` (a .ts or .js file path) with `data` beside the loader's own fields. */
 export function startTsWorker<D extends object>(entry: string, data: D): Worker {
 	const tsx = entry.endsWith('.ts') ? tsxEsmApi() : undefined;
