@@ -348,7 +348,7 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 			imageStore: cache,
 			onPage: (d) => report(d),
 			pdfx: options.pdfx,
-			onInkOver: (what, pct) => ink.push(inkWarning(what, pct, options.pdfx!))
+			onInkOver: (what, pct, imageId) => ink.push(inkWarning(imageId ? pictureWords(game, imageId, faces.cards) : what, pct, options.pdfx!))
 		})
 	);
 	return { pdf, sheets: plan.sheetCount, pages: pageTotal, warnings: [...faces.warnings, ...plan.warnings, ...ink] };
@@ -401,7 +401,8 @@ export async function buildCardPressPdf(
 			imageStore: cache,
 			date: options.date,
 			pdfx: options.pdfx,
-			onInkOver: (what, pct) => ink.push(inkWarning(what, pct, options.pdfx!))
+			onInkOver: (what, pct, imageId) =>
+				ink.push(inkWarning(imageId ? pictureWords(game, imageId, [{ cardName: card.name, front, back }]) : what, pct, options.pdfx!))
 		})
 	);
 	return { pdf, warnings: [...warnings, ...front.warnings, ...back.warnings, ...ink] };
@@ -415,6 +416,15 @@ async function pressBuild<T>(build: () => Promise<T>): Promise<T> {
 		if (e instanceof PressImageError) throw new PrintOptionsError(`This game cannot be PDF/X-1a: ${e.message}`);
 		throw e;
 	}
+}
+
+/** A picture in a warning: its file name and the cards it is on (a few by name, then a count). */
+function pictureWords(game: Game, imageId: string, cards: { cardName: string; front: FaceLayout; back?: FaceLayout }[]): string {
+	const file = game.art.find((a) => a.sha256 === imageId)?.fileName ?? imageId.slice(0, 12);
+	const uses = (f?: FaceLayout) => !!f?.items.some((i) => i.type === 'image' && i.imageId === imageId);
+	const names = [...new Set(cards.filter((c) => uses(c.front) || uses(c.back)).map((c) => `“${c.cardName}”`))];
+	const shown = names.slice(0, 3).join(', ') + (names.length > 3 ? ` and ${names.length - 3} more` : '');
+	return `the picture “${file}”${names.length ? ` on ${names.length === 1 ? 'card' : 'cards'} ${shown}` : ''}`;
 }
 
 /** The total-ink warning: what, how much, the limit and where the limit comes from. */

@@ -124,8 +124,8 @@ export interface PressOutput {
 	subsetTag: string;
 	/** Highest total ink the condition allows, in %. */
 	totalInkLimitPct: number;
-	/** Told of every colour or picture whose total ink is over the limit (each once). */
-	onInkOver?: (what: string, pct: number) => void;
+	/** Told of every colour or picture whose total ink is over the limit (each once); a picture's own id comes with it. */
+	onInkOver?: (what: string, pct: number, imageId?: string) => void;
 }
 
 export interface PdfFaceWriterOptions {
@@ -197,15 +197,15 @@ export class PdfFaceWriter {
 			press && {
 				colour: press.colour,
 				allowTransparency: press.allowTransparency,
-				onInk: (id, pct) => this.checkInk(`a picture (${id.slice(0, 12)})`, pct)
+				onInk: (id, pct) => this.checkInk(`a picture (${id.slice(0, 12)})`, pct, id)
 			}
 		);
 	}
 
-	private checkInk(what: string, pct: number): void {
+	private checkInk(what: string, pct: number, imageId?: string): void {
 		if (!this.press || pct <= this.press.totalInkLimitPct + 0.5 || this.inkReported.has(what)) return;
 		this.inkReported.add(what);
-		this.press.onInkOver?.(what, pct);
+		this.press.onInkOver?.(what, pct, imageId);
 	}
 
 	static async create(doc: PDFDocument, options: PdfFaceWriterOptions): Promise<PdfFaceWriter> {

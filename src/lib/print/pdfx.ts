@@ -56,7 +56,7 @@ export async function savePdfx(doc: PDFDocument, standard: PdfxStandard): Promis
 export async function pressOutput(
 	target: PdfxTarget,
 	seed: string,
-	onInkOver?: (what: string, pct: number) => void
+	onInkOver?: (what: string, pct: number, imageId?: string) => void
 ): Promise<PressOutput> {
 	return {
 		colour: await PressColour.open(target.profile.icc, target.intent),

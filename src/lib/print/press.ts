@@ -85,7 +85,7 @@ export interface PressPdfInput {
 	/** A PDF/X file for a press profile instead of plain RGB or CMYK. */
 	pdfx?: PdfxTarget;
 	/** Told of colours and pictures over the profile's total ink limit (PDF/X only). */
-	onInkOver?: (what: string, pct: number) => void;
+	onInkOver?: (what: string, pct: number, imageId?: string) => void;
 }
 
 export async function buildPressPdf(input: PressPdfInput): Promise<Uint8Array> {

@@ -36,7 +36,7 @@ export interface SheetPdfInput {
 	/** A PDF/X file for a press profile instead of plain RGB or CMYK. */
 	pdfx?: PdfxTarget;
 	/** Told of colours and pictures over the profile's total ink limit (PDF/X only). */
-	onInkOver?: (what: string, pct: number) => void;
+	onInkOver?: (what: string, pct: number, imageId?: string) => void;
 }
 
 export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
