@@ -10,7 +10,7 @@ import { as, g } from './role-table';
 import { demoStage } from './role-rows/odds';
 import { oddsScenarios } from '$lib/server/db/schema';
 import { loadGame, saveSettings } from '$lib/server/game-store';
-import { oddsJobs, pricesAtProof, type JobView } from '$lib/server/odds';
+import { cancelOddsJob, oddsJobView, pricesAtProof, type JobView } from '$lib/server/odds';
 import { cutProof, snapshotOf } from '$lib/server/proofs';
 import { coinsForPlace } from '$lib/game/model';
 import * as oddsApi from '../../src/routes/api/v1/games/[gameId=id]/odds/+server';
@@ -88,11 +88,28 @@ describe('POST /api/v1/games/{gameId}/odds', () => {
 		let view: JobView = body.job;
 		for (let i = 0; i < 600 && view.state !== 'done' && view.state !== 'failed'; i++) {
 			await new Promise((r) => setTimeout(r, 100));
-			view = oddsJobs.view(w.callers.designer!.id, body.job.id);
+			view = await oddsJobView(w.db, w.callers.designer!.id, body.job.id);
 		}
 		expect(view.state).toBe('done');
 		expect(view.result!.method).toBe('monte-carlo');
 		expect(view.result!.wagers.length).toBeGreaterThan(0);
+		// The same seed answered inline agrees with the job's answer (the job is only where it ran).
+		expect(view.result!.kind === 'stage' && view.result!.samples).toBe(300_000);
+	}, 90_000);
+
+	it('cancels a run; another person cannot see or cancel it', async () => {
+		const { body } = await post({ race: { players: 4 }, samples: 1_000_000, seed: 5 });
+		const id = body.job.id;
+		const designer = w.callers.designer!.id;
+		await expect(oddsJobView(w.db, w.callers.reviewer!.id, id)).rejects.toMatchObject({ status: 404 });
+		await expect(cancelOddsJob(w.db, w.callers.owner!.id, id)).rejects.toMatchObject({ status: 404 });
+		const cancelled = await cancelOddsJob(w.db, designer, id);
+		expect(cancelled.state).toBe('cancelled');
+		// It stays cancelled: the worker notices and never writes an answer.
+		await new Promise((r) => setTimeout(r, 1500));
+		const later = await oddsJobView(w.db, designer, id);
+		expect(later.state).toBe('cancelled');
+		expect(later.result).toBeUndefined();
 	}, 90_000);
 });
 

@@ -1,13 +1,14 @@
 /**
  * The odds lab for the app: runs a stage scenario or whole races of a game, prices the game's
  * wager cards from the answer, keeps saved scenarios, and hands large runs to the worker pool as
- * jobs to poll (like print jobs). Small runs answer at once.
+ * jobs to poll (like print jobs): rows in the database that any app process runs and answers.
+ * Small runs answer at once.
  */
-import { randomUUID } from 'node:crypto';
-import { and, asc, eq, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Db } from './db';
-import { oddsScenarios } from './db/schema';
+import { oddsJobs, oddsScenarios } from './db/schema';
+import { jobQueue } from './job-queue';
 import { ApiError } from './api';
 import { loadGame } from './game-store';
 import { logActivity } from './activity';
@@ -111,11 +112,7 @@ export async function runOdds(db: Db, actor: OddsActor, body: unknown): Promise<
 		const { scenario, method, target } = req;
 		if ('exact' in method || method.samples <= INLINE_SAMPLES) return { answer: stageAnswer(game, runStage(scenario, method), target) };
 		const seed = method.seed ?? DEFAULT_SEED;
-		const job = oddsJobs.start(actor, { kind: 'stage', scenario, samples: method.samples, seed }, (r) => {
-			if (r.kind !== 'stage') throw new Error('a stage run answered with races');
-			return stageAnswer(game, stageReport(r.odds, { samples: method.samples, seed }, { ms: r.ms }), target);
-		});
-		return { job };
+		return { job: await startOddsJob(db, actor, { kind: 'stage', game, target, scenario, samples: method.samples, seed }) };
 	}
 	let setup;
 	try {
@@ -129,11 +126,9 @@ export async function runOdds(db: Db, actor: OddsActor, body: unknown): Promise<
 		const odds = simulateRaces(setup, req.samples, req.seed);
 		return { answer: raceAnswer(game, req.players, req.samples, req.seed, odds, req.target, performance.now() - started) };
 	}
-	const job = oddsJobs.start(actor, { kind: 'race', setup, races: req.samples, seed: req.seed }, (r) => {
-		if (r.kind !== 'race') throw new Error('a race run answered with a stage');
-		return raceAnswer(game, req.players, req.samples, req.seed, r.odds, req.target, r.ms);
-	});
-	return { job };
+	return {
+		job: await startOddsJob(db, actor, { kind: 'race', game, target: req.target, players: req.players, races: req.samples, seed: req.seed })
+	};
 }
 
 /** Player counts with a setup card (the Odds tab offers these). */
@@ -142,91 +137,184 @@ export const playerCounts = (game: Game) => setupPlayerCounts(game);
 /* ------------------------------------------------------------------- jobs */
 
 /**
- * Where odds jobs run and wait. This in-process queue answers from the process's worker pool;
- * a shared queue (several app processes) can stand in behind the same three calls.
+ * A large run as a database row, run through the job queue (./job-queue.ts): in this process
+ * with PGlite, by any process's workers with a PostgreSQL server. The row holds what was fixed
+ * when it was queued (the game as data and the checked request), so a retry elsewhere after a
+ * crash computes the same answer; its progress, its answer, and a cancel from any process.
  */
-export interface OddsJobQueue {
-	start(owner: OddsActor, job: OddsJob, finish: (r: OddsJobResult) => OddsAnswer): JobView;
-	view(userId: string, id: string): JobView;
-	cancel(userId: string, id: string): JobView;
-}
+type QueuedOdds = { game: Game; target: number } & (
+	| { kind: 'stage'; scenario: Scenario; samples: number; seed: number }
+	| { kind: 'race'; players: number; races: number; seed: number }
+);
 
-interface Held {
-	view: JobView;
-	userId: string;
-	controller: AbortController;
-	finishedAt?: number;
-}
-
-/** A finished job's answer stays this long to be read. */
-const KEEP_MS = 10 * 60 * 1000;
+/** A finished run's answer stays this long to be read. */
+export const ODDS_KEEP_MS = 10 * 60 * 1000;
 /** Jobs one person may have waiting or running at once. */
 const MAX_OPEN_PER_USER = 4;
+/** Progress is written, and a cancel looked for, at most this often. */
+const PROGRESS_MS = 400;
+const OPEN = ['queued', 'running'] as const;
 
-class InProcessOddsJobs implements OddsJobQueue {
-	private jobs = new Map<string, Held>();
+type OddsJobRow = typeof oddsJobs.$inferSelect;
 
-	start(owner: OddsActor, job: OddsJob, finish: (r: OddsJobResult) => OddsAnswer): JobView {
-		this.sweep();
-		const open = [...this.jobs.values()].filter((j) => j.userId === owner.userId && !j.finishedAt).length;
-		if (open >= MAX_OPEN_PER_USER) throw new ApiError(429, `You have ${open} odds runs going; wait for one or cancel it`);
-		const total = job.kind === 'stage' ? job.samples : job.races;
-		const held: Held = {
-			view: { id: randomUUID(), state: 'queued', done: 0, total },
-			userId: owner.userId,
-			controller: new AbortController()
-		};
-		this.jobs.set(held.view.id, held);
-		oddsPool()
-			.run(job, {
-				signal: held.controller.signal,
-				onProgress: (done) => {
-					held.view.state = 'running';
-					held.view.done = done;
-				}
+function viewOf(row: OddsJobRow): JobView {
+	return {
+		id: row.id,
+		state: row.state,
+		done: row.done,
+		total: row.total,
+		...(row.error ? { error: row.error } : {}),
+		...(row.result ? { result: row.result as unknown as OddsAnswer } : {})
+	};
+}
+
+async function startOddsJob(db: Db, owner: OddsActor, request: QueuedOdds): Promise<JobView> {
+	const [{ open }] = await db
+		.select({ open: sql<number>`count(*)::int` })
+		.from(oddsJobs)
+		.where(and(eq(oddsJobs.userId, owner.userId), inArray(oddsJobs.state, OPEN)));
+	if (open >= MAX_OPEN_PER_USER) throw new ApiError(429, `You have ${open} odds runs going; wait for one or cancel it`);
+	const total = request.kind === 'stage' ? request.samples : request.races;
+	const [row] = await db
+		.insert(oddsJobs)
+		.values({ userId: owner.userId, gameId: owner.gameId, total, request: request as unknown as Record<string, unknown> })
+		.returning();
+	await jobQueue().send('odds', row.id);
+	return viewOf(row);
+}
+
+async function findOddsJob(db: Db, userId: string, id: string): Promise<OddsJobRow> {
+	const [row] = await db
+		.select()
+		.from(oddsJobs)
+		.where(and(eq(oddsJobs.id, id), eq(oddsJobs.userId, userId)));
+	if (!row) throw new ApiError(404, 'No such odds run (answers are kept for ten minutes)');
+	return row;
+}
+
+/** A run's progress, then its answer. Only the person who started it sees it. */
+export async function oddsJobView(db: Db, userId: string, id: string): Promise<JobView> {
+	return viewOf(await findOddsJob(db, userId, id));
+}
+
+/** Runs this process is computing, to stop at once on a cancel made here or on shutdown. */
+const runningHere = new Map<string, { controller: AbortController; stopping: boolean }>();
+
+/** Cancels a run, whichever process is computing it (that one notices within a moment). */
+export async function cancelOddsJob(db: Db, userId: string, id: string): Promise<JobView> {
+	await findOddsJob(db, userId, id);
+	await db
+		.update(oddsJobs)
+		.set({ state: 'cancelled', finishedAt: new Date() })
+		.where(and(eq(oddsJobs.id, id), eq(oddsJobs.userId, userId), inArray(oddsJobs.state, OPEN)));
+	runningHere.get(id)?.controller.abort();
+	return oddsJobView(db, userId, id);
+}
+
+/**
+ * Computes one queued run (the queue's worker calls this, in whichever process took it).
+ * Returns when the run is answered, was cancelled or was answered by another attempt; throws
+ * when it should be tried again.
+ */
+export async function runQueuedOddsJob(db: Db, id: string): Promise<void> {
+	const [row] = await db
+		.update(oddsJobs)
+		.set({ attempts: sql`${oddsJobs.attempts} + 1` })
+		.where(and(eq(oddsJobs.id, id), inArray(oddsJobs.state, OPEN)))
+		.returning();
+	if (!row) return;
+	// Which process runs what, for operators following a shared queue.
+	if (jobQueue().shared) console.log(`Running odds job ${id} (attempt ${row.attempts}) in process ${process.pid}`);
+	const req = row.request as unknown as QueuedOdds;
+	const job: OddsJob =
+		req.kind === 'stage'
+			? { kind: 'stage', scenario: req.scenario, samples: req.samples, seed: req.seed }
+			: { kind: 'race', setup: raceSetupFromGame(req.game, req.players), races: req.races, seed: req.seed };
+	const here = { controller: new AbortController(), stopping: false };
+	runningHere.set(id, here);
+	// Progress goes to the row; a row no longer open means a cancel, made in any process.
+	let last = 0;
+	let writing = Promise.resolve();
+	const report = (done: number) => {
+		writing = writing
+			.then(async () => {
+				const open = await db
+					.update(oddsJobs)
+					.set({ state: 'running', done })
+					.where(and(eq(oddsJobs.id, id), inArray(oddsJobs.state, OPEN)))
+					.returning({ id: oddsJobs.id });
+				if (!open.length) here.controller.abort();
 			})
-			.then((r) => {
-				held.view.result = finish(r);
-				held.view.state = 'done';
-				held.view.done = total;
+			.catch(() => undefined);
+	};
+	// Between progress reports (or while waiting its turn on the pool), look for a cancel.
+	const watch = setInterval(() => {
+		if (Date.now() - last < PROGRESS_MS) return;
+		writing = writing
+			.then(async () => {
+				const [now] = await db.select({ state: oddsJobs.state }).from(oddsJobs).where(eq(oddsJobs.id, id));
+				if (!now || !(OPEN as readonly string[]).includes(now.state)) here.controller.abort();
 			})
-			.catch((e) => {
-				if (e instanceof OddsCancelled) held.view.state = 'cancelled';
-				else {
-					held.view.state = 'failed';
-					held.view.error = 'The run failed';
-					console.error(e);
-				}
-			})
-			.finally(() => {
-				held.finishedAt = Date.now();
-			});
-		return { ...held.view };
-	}
-
-	view(userId: string, id: string): JobView {
-		return { ...this.find(userId, id).view };
-	}
-
-	cancel(userId: string, id: string): JobView {
-		const held = this.find(userId, id);
-		if (!held.finishedAt) held.controller.abort();
-		return { ...held.view };
-	}
-
-	private find(userId: string, id: string): Held {
-		const held = this.jobs.get(id);
-		if (!held || held.userId !== userId) throw new ApiError(404, 'No such odds run (answers are kept for ten minutes)');
-		return held;
-	}
-
-	private sweep() {
-		const now = Date.now();
-		for (const [id, j] of this.jobs) if (j.finishedAt && now - j.finishedAt > KEEP_MS) this.jobs.delete(id);
+			.catch(() => undefined);
+	}, PROGRESS_MS * 2);
+	watch.unref();
+	try {
+		const r = await oddsPool().run(job, {
+			signal: here.controller.signal,
+			onProgress: (done) => {
+				row.done = done;
+				if (Date.now() - last < PROGRESS_MS) return;
+				last = Date.now();
+				report(done);
+			}
+		});
+		const answer = answerOf(req, r);
+		clearInterval(watch);
+		await writing;
+		await db
+			.update(oddsJobs)
+			.set({ state: 'done', done: row.total, result: answer as unknown as Record<string, unknown>, finishedAt: new Date() })
+			.where(and(eq(oddsJobs.id, id), inArray(oddsJobs.state, OPEN)));
+	} catch (e) {
+		clearInterval(watch);
+		await writing;
+		// Cancelled by its owner: the row says so already. Stopped with the process: run elsewhere.
+		if (e instanceof OddsCancelled && !here.stopping) return;
+		throw e;
+	} finally {
+		clearInterval(watch);
+		runningHere.delete(id);
 	}
 }
 
-export const oddsJobs: OddsJobQueue = new InProcessOddsJobs();
+function answerOf(req: QueuedOdds, r: OddsJobResult): OddsAnswer {
+	if (req.kind === 'stage') {
+		if (r.kind !== 'stage') throw new Error('a stage run answered with races');
+		return stageAnswer(req.game, stageReport(r.odds, { samples: req.samples, seed: req.seed }, { ms: r.ms }), req.target);
+	}
+	if (r.kind !== 'race') throw new Error('a race run answered with a stage');
+	return raceAnswer(req.game, req.players, req.races, req.seed, r.odds, req.target, r.ms);
+}
+
+/** Gives up on a run after its last attempt. */
+export async function failOddsJob(db: Db, id: string, error: unknown) {
+	console.error(error);
+	await db
+		.update(oddsJobs)
+		.set({ state: 'failed', error: 'The run failed', finishedAt: new Date() })
+		.where(and(eq(oddsJobs.id, id), inArray(oddsJobs.state, OPEN)));
+}
+
+/**
+ * On shutdown: stops the runs this process is computing. With a shared queue they are taken
+ * up again by another process at once rather than after they expire.
+ */
+export function stopOddsRunsHere() {
+	for (const here of runningHere.values()) {
+		here.stopping = true;
+		here.controller.abort();
+	}
+}
 
 /* -------------------------------------------------------- saved scenarios */
 

@@ -11,6 +11,7 @@ import { printPool, closePrintPool } from '$lib/print/pool';
 import { watchVitals } from './vitals';
 import { defineJob, jobQueue, sharedQueue, useJobQueue } from './job-queue';
 import { buildQueuedJob, failJob } from './print-jobs';
+import { failOddsJob, runQueuedOddsJob, stopOddsRunsHere } from './odds';
 
 interface Runtime {
 	database: Database;
@@ -39,6 +40,7 @@ export async function startMail(db: Db, smtpUrl: string | null) {
 /** The kinds of queued work, each reading its job's row from this database. */
 function defineJobs(db: Db) {
 	defineJob('print', { run: (id) => buildQueuedJob(db, id), giveUp: (id) => failJob(db, id) });
+	defineJob('odds', { run: (id) => runQueuedOddsJob(db, id), giveUp: (id, e) => failOddsJob(db, id, e) });
 }
 
 /** Refusal to start with a message for the operator (printed without a stack, exit 1). */
@@ -67,7 +69,9 @@ async function start(): Promise<Runtime> {
 	if (config.databaseUrl) useJobQueue(await sharedQueue(config.databaseUrl));
 	const runtime: Runtime = { database, stopCatcher: mail.stop, catching: mail.catching };
 	const stop = async () => {
-		// Running builds finish (or, past the wait, are left for another process to retry).
+		// Running builds finish (or, past the wait, are left for another process to retry); odds
+		// runs, which can be long, stop now and are taken up again elsewhere.
+		if (jobQueue().shared) stopOddsRunsHere();
 		await jobQueue().stop();
 		await closePrintPool();
 		await runtime.stopCatcher?.();

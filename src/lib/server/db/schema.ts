@@ -451,3 +451,32 @@ export const printJobs = pgTable(
 	},
 	(t) => [index('print_jobs_user').on(t.userId, t.createdAt)]
 );
+
+export const ODDS_JOB_STATES = ['queued', 'running', 'done', 'failed', 'cancelled'] as const;
+
+/**
+ * Large odds runs, as rows any app process can run, follow and cancel: the request fixed when
+ * queued (the game as data and the checked request), the progress, then the answer.
+ */
+export const oddsJobs = pgTable(
+	'odds_jobs',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		userId: uuid('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		gameId: uuid('game_id')
+			.notNull()
+			.references(() => games.id, { onDelete: 'cascade' }),
+		state: text('state', { enum: ODDS_JOB_STATES }).notNull().default('queued'),
+		done: integer('done').notNull().default(0),
+		total: integer('total').notNull().default(0),
+		request: jsonb('request').$type<Record<string, unknown>>().notNull(),
+		result: jsonb('result').$type<Record<string, unknown>>(),
+		error: text('error'),
+		attempts: integer('attempts').notNull().default(0),
+		createdAt: createdAt(),
+		finishedAt: timestamp('finished_at', { withTimezone: true })
+	},
+	(t) => [index('odds_jobs_user').on(t.userId, t.state)]
+);
