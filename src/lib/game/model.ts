@@ -32,7 +32,7 @@ export type HexColour = z.infer<typeof HexColourSchema>;
 
 const percent = z.number().min(0).max(100);
 /** Press colour as ink percentages, 0..100 each. */
-export const CmykSchema = z.object({ c: percent, m: percent, y: percent, k: percent });
+export const CmykSchema = z.strictObject({ c: percent, m: percent, y: percent, k: percent });
 export type Cmyk = z.infer<typeof CmykSchema>;
 
 /** CMYK as fractions 0..1 in c, m, y, k order (what PDF colour operators take). */
@@ -60,7 +60,7 @@ export const SlugSchema = z
 export const RUNNERS_MIN = 3;
 export const RUNNERS_MAX = 8;
 
-export const RunnerSchema = z.object({
+export const RunnerSchema = z.strictObject({
 	id: IdSchema,
 	name: z.string().trim().min(1).max(40),
 	colourHex: HexColourSchema,
@@ -77,14 +77,14 @@ export type RogueRunner = z.infer<typeof RogueRunnerSchema>;
 
 /* ------------------------------------------------------------ money tables */
 
-export const MoneyRowSchema = z.object({
+export const MoneyRowSchema = z.strictObject({
 	place: z.int().min(1),
 	/** Coins won (positive) or lost (negative) for finishing in this place. */
 	coins: z.int()
 });
 export type MoneyRow = z.infer<typeof MoneyRowSchema>;
 
-export const MoneyTableSchema = z.object({
+export const MoneyTableSchema = z.strictObject({
 	id: IdSchema,
 	name: z.string().trim().min(1).max(60),
 	rows: z.array(MoneyRowSchema).max(RUNNERS_MAX + 4),
@@ -171,7 +171,7 @@ export const CARD_SIZES: Record<Exclude<CardSizePreset, 'custom'>, { widthMm: nu
 export const CARD_MAX_MM = 420;
 
 export const CardSizeSchema = z
-	.object({
+	.strictObject({
 		preset: z.enum(CARD_SIZE_PRESETS),
 		widthMm: z.number().positive().max(CARD_MAX_MM),
 		heightMm: z.number().positive().max(CARD_MAX_MM)
@@ -256,14 +256,14 @@ export type LayoutParams = z.infer<typeof LayoutParamsSchema>;
  * back is drawn from that card's own data ('per-card').
  */
 export const CardBackSchema = z.discriminatedUnion('mode', [
-	z.object({
+	z.strictObject({
 		mode: z.literal('shared'),
 		template: TemplateIdSchema,
 		params: LayoutParamsSchema,
 		/** Art slot (of the kind) printed on the back, if any. */
 		artSlot: FieldNameSchema.optional()
 	}),
-	z.object({
+	z.strictObject({
 		mode: z.literal('per-card'),
 		template: TemplateIdSchema,
 		params: LayoutParamsSchema
@@ -271,7 +271,7 @@ export const CardBackSchema = z.discriminatedUnion('mode', [
 ]);
 export type CardBack = z.infer<typeof CardBackSchema>;
 
-export const CardKindSchema = z.object({
+export const CardKindSchema = z.strictObject({
 	id: IdSchema,
 	name: z.string().trim().min(1).max(60),
 	type: CardKindTypeSchema,
@@ -299,17 +299,17 @@ export type TileRole = z.infer<typeof TileRoleSchema>;
 
 const count = z.int().min(0).max(999);
 
-export const MovementDataSchema = z.object({
+export const MovementDataSchema = z.strictObject({
 	type: z.literal('movement'),
 	runnerId: IdSchema,
 	steps: z.int().min(1).max(9)
 });
 /** The wrong-way runner's move: it goes back `steps` spaces. */
-export const RogueDataSchema = z.object({
+export const RogueDataSchema = z.strictObject({
 	type: z.literal('rogue'),
 	steps: z.int().min(1).max(9)
 });
-export const WagerDataSchema = z.object({
+export const WagerDataSchema = z.strictObject({
 	type: z.literal('wager'),
 	betType: BetTypeSchema,
 	runnerId: IdSchema,
@@ -321,7 +321,7 @@ export const WagerDataSchema = z.object({
  * One per player count: the deal table and the track length. Every count is taken from the
  * movement deck (movement and rogue cards shuffled together) at the start of a stage.
  */
-export const SetupDataSchema = z.object({
+export const SetupDataSchema = z.strictObject({
 	type: z.literal('setup'),
 	players: z.int().min(2).max(12),
 	/** Cards dealt to each player. */
@@ -343,19 +343,19 @@ export const SetupDataSchema = z.object({
 	 */
 	rogueToDeck: z.int().min(0).max(99).optional()
 });
-export const ModifierDataSchema = z.object({
+export const ModifierDataSchema = z.strictObject({
 	type: z.literal('modifier'),
 	name: z.string().trim().min(1).max(40),
 	effectText: z.string().trim().max(240),
 	/** Spaces a runner landing here moves on (+) or back (−). */
 	steps: z.int().min(-9).max(9)
 });
-export const CustomDataSchema = z.object({
+export const CustomDataSchema = z.strictObject({
 	type: z.literal('custom'),
 	values: z.record(z.string(), z.string().max(2000))
 });
 /** A numbered double-sided track tile. */
-export const TileDataSchema = z.object({
+export const TileDataSchema = z.strictObject({
 	type: z.literal('tile'),
 	number: z.int().min(1).max(999),
 	role: TileRoleSchema,
@@ -400,7 +400,7 @@ export type CardDataOf<T extends CardKindType> = Extract<CardData, { type: T }>;
  * One card design. `copies` is how many of it are printed (and sit in the deck);
  * it lives here once, not inside `data`. `data.type` must equal its kind's `type`.
  */
-export const CardSchema = z.object({
+export const CardSchema = z.strictObject({
 	id: IdSchema,
 	kindId: IdSchema,
 	name: z.string().trim().min(1).max(80),
@@ -425,7 +425,7 @@ export const ART_EXTENSIONS: Record<ArtMime, string> = {
 export const ArtStatusSchema = z.enum(['placeholder', 'sketch', 'final']);
 export type ArtStatus = z.infer<typeof ArtStatusSchema>;
 
-export const ArtAssignmentSchema = z.object({
+export const ArtAssignmentSchema = z.strictObject({
 	/** A runner's art (its portrait on every card of that runner), a kind's, or one card's. */
 	scope: z.enum(['runner', 'kind', 'card']),
 	targetId: IdSchema,
@@ -435,7 +435,7 @@ export type ArtAssignment = z.infer<typeof ArtAssignmentSchema>;
 
 export const Sha256Schema = z.string().regex(/^[0-9a-f]{64}$/, 'sha256 is 64 lower-case hex digits');
 
-export const ArtAssetSchema = z.object({
+export const ArtAssetSchema = z.strictObject({
 	id: IdSchema,
 	sha256: Sha256Schema,
 	mime: ArtMimeSchema,
@@ -457,7 +457,7 @@ export type ArtAsset = z.infer<typeof ArtAssetSchema>;
  * The numbers of the movement model that vary between designs (the odds lab reads them).
  * A game without its own rules uses these defaults.
  */
-export const RaceRulesSchema = z.object({
+export const RaceRulesSchema = z.strictObject({
 	/** Extra spaces the rogue moves when anyone rides on it. */
 	rogueCarryBonus: z.int().min(0).max(9).default(1),
 	/** A modifier acts once and is then removed from the track. */
@@ -472,7 +472,7 @@ export const DEFAULT_RACE_RULES: RaceRules = { rogueCarryBonus: 1, modifiersOneU
 
 export const GAME_FORMAT_VERSION = 1;
 
-export const GameSchema = z.object({
+export const GameSchema = z.strictObject({
 	formatVersion: z.literal(GAME_FORMAT_VERSION),
 	name: z.string().trim().min(1).max(80),
 	slug: SlugSchema,

@@ -20,18 +20,18 @@ export const MAX_STEPS = 20;
 
 const RunnerIdSchema = z.string().trim().min(1).max(60);
 
-export const StackSchema = z.object({
+export const StackSchema = z.strictObject({
 	space: z.int().min(0, 'A stack stands on space 0 (behind the start) or further'),
 	bottomToTop: z.array(RunnerIdSchema).min(1, 'A stack holds at least one runner').max(MAX_TRACK_RUNNERS)
 });
 
-export const ScenarioCardSchema = z.object({
+export const ScenarioCardSchema = z.strictObject({
 	runner: RunnerIdSchema,
 	steps: z.int().min(1, 'A card moves at least 1 step').max(MAX_STEPS, `A card moves at most ${MAX_STEPS} steps`)
 });
 export type ScenarioCard = z.infer<typeof ScenarioCardSchema>;
 
-export const ModifierSchema = z.object({
+export const ModifierSchema = z.strictObject({
 	space: z.int().min(1, 'A modifier stands on space 1 or further'),
 	steps: z
 		.int()
@@ -41,13 +41,13 @@ export const ModifierSchema = z.object({
 });
 
 export const ScenarioSchema = z
-	.object({
+	.strictObject({
 		finish: z
 			.int('finish must be a whole number')
 			.min(1, 'finish must be greater than 0')
 			.max(MAX_FINISH, `finish must be at most ${MAX_FINISH}`),
 		stacks: z.array(StackSchema).min(1, 'Place at least one runner').max(MAX_TRACK_RUNNERS),
-		rogue: z.object({ runner: RunnerIdSchema }).optional(),
+		rogue: z.strictObject({ runner: RunnerIdSchema }).optional(),
 		modifiers: z.array(ModifierSchema).max(MAX_MODIFIERS, `At most ${MAX_MODIFIERS} modifiers`).default([]),
 		rules: RaceRulesSchema.default({ rogueCarryBonus: 1, modifiersOneUse: true, backUnder: true }),
 		deck: z.array(ScenarioCardSchema).max(MAX_DECK_CARDS, `A stage deck holds at most ${MAX_DECK_CARDS} cards`)
@@ -106,8 +106,8 @@ export type Scenario = z.infer<typeof ScenarioSchema>;
 
 /** How to compute: every order, or a seeded sample. */
 export const MethodSchema = z.union([
-	z.object({ exact: z.literal(true) }),
-	z.object({
+	z.strictObject({ exact: z.literal(true) }),
+	z.strictObject({
 		samples: z
 			.int('samples must be a whole number')
 			.min(1, 'samples must be at least 1')

@@ -15,13 +15,13 @@ export const newPassword = z
 	.refine((p) => !COMMON.has(p.toLowerCase()), 'This password is too common')
 	.refine((p) => new Set(p).size >= 5, 'Use more different characters');
 
-export const signInSchema = z.object({
+export const signInSchema = z.strictObject({
 	email,
 	password: z.string().min(1, 'Enter your password').max(200)
 });
 
 export const signUpSchema = z
-	.object({
+	.strictObject({
 		name: z.string().trim().min(1, 'Enter your name').max(80),
 		email,
 		password: newPassword
@@ -31,29 +31,29 @@ export const signUpSchema = z
 		path: ['password']
 	});
 
-export const forgotSchema = z.object({ email });
+export const forgotSchema = z.strictObject({ email });
 
-export const passwordChangeSchema = z.object({
+export const passwordChangeSchema = z.strictObject({
 	current: z.string().min(1, 'Enter your current password').max(200),
 	password: newPassword
 });
 
-export const resetSchema = z.object({ token: z.string().min(10), password: newPassword });
+export const resetSchema = z.strictObject({ token: z.string().min(10), password: newPassword });
 
-export const teamSchema = z.object({ name: z.string().trim().min(1, 'Name the team').max(80) });
+export const teamSchema = z.strictObject({ name: z.string().trim().min(1, 'Name the team').max(80) });
 
-export const inviteSchema = z.object({
+export const inviteSchema = z.strictObject({
 	email,
 	role: z.enum(ROLE_NAMES)
 });
 
-export const roleChangeSchema = z.object({ role: z.enum(ROLE_NAMES) });
+export const roleChangeSchema = z.strictObject({ role: z.enum(ROLE_NAMES) });
 
-export const tokenSchema = z.object({
+export const tokenSchema = z.strictObject({
 	name: z.string().trim().min(1, 'Name the token').max(60)
 });
 
-export const gameCreateSchema = z.object({
+export const gameCreateSchema = z.strictObject({
 	name: z.string().trim().min(1, 'Name the game').max(80),
 	bleedStandard: z.enum(['metric', 'us']).default('metric'),
 	defaultCardSize: z.enum(['poker', 'bridge', 'mini', 'tarot', 'square']).default('poker')

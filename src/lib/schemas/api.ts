@@ -60,6 +60,6 @@ export const PrintJobSchema = z
 	})
 	.describe('A sheet PDF being built; its file is at /api/v1/print-jobs/{jobId}/file once done.');
 
-export const MuteSchema = z.object({ muted: z.boolean() });
+export const MuteSchema = z.strictObject({ muted: z.boolean() });
 
 export const ProofCutSchema = z.object({ id: z.string(), number: z.int() });

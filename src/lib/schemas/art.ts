@@ -4,7 +4,7 @@ import { ArtAssetSchema, ArtAssignmentSchema, ArtStatusSchema, IdSchema } from '
 
 /** The fields of an upload, as the API takes them (multipart fields, or query parameters with a raw body). */
 export const UploadFieldsSchema = z
-	.object({
+	.strictObject({
 		status: ArtStatusSchema.optional(),
 		scope: ArtAssignmentSchema.shape.scope.optional(),
 		targetId: IdSchema.optional(),
@@ -25,14 +25,14 @@ export const UploadFieldsSchema = z
 	});
 
 /** The Art page's upload form: `place` is a slot picker's value (see $lib/art/placement.ts). */
-export const UploadFormSchema = z.object({
+export const UploadFormSchema = z.strictObject({
 	file: z.instanceof(File, { message: 'Choose an art file (PNG, JPEG or SVG).' }),
 	status: ArtStatusSchema.default('sketch'),
 	place: z.string().max(400).default('')
 });
 
 /** The Art page's replace form, for one asset. */
-export const ReplaceFormSchema = z.object({
+export const ReplaceFormSchema = z.strictObject({
 	file: z.instanceof(File, { message: 'Choose the new file (PNG, JPEG or SVG).' }),
 	artId: IdSchema,
 	version: z.int().min(1),

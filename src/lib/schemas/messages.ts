@@ -60,7 +60,9 @@ export function plainMessage(issue: $ZodRawIssue): string | undefined {
 		case 'invalid_value':
 			return `Choose ${orList(issue.values)}.`;
 		case 'unrecognized_keys':
-			return `Remove what this form does not know: ${issue.keys.join(', ')}.`;
+			return issue.keys.length === 1
+				? `“${issue.keys[0]}” is not a field here; remove it.`
+				: `${issue.keys.map((k) => `“${k}”`).join(', ')} are not fields here; remove them.`;
 		case 'invalid_union':
 			return 'This value matches none of the accepted forms.';
 		default:

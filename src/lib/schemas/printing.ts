@@ -4,7 +4,7 @@ import { DEFAULT_MARGIN_MM, PrintSettingsSchema } from '$lib/print/options';
 
 /** A printer's settings (./print/options.ts holds their units and limits), named and versioned. */
 export const PrinterProfileSchema = z
-	.object({
+	.strictObject({
 		id: z.string().uuid().optional(),
 		name: z.string().trim().min(1, 'Name the profile').max(60),
 		...PrintSettingsSchema.shape,
@@ -39,7 +39,7 @@ export const DEFAULT_INK_LIMIT_PCT = 300;
  * identifier the print shop confirms (e.g. FOGRA51, GRACoL2013), words for people, where the
  * identifier is registered, and the condition's total ink limit.
  */
-export const PressConditionSchema = z.object({
+export const PressConditionSchema = z.strictObject({
 	conditionIdentifier: z
 		.string()
 		.trim()

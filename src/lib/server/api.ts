@@ -4,6 +4,7 @@
  */
 import { json, isHttpError, isRedirect, type RequestHandler } from '@sveltejs/kit';
 import type { z } from 'zod';
+import type { $ZodIssue } from 'zod/v4/core';
 
 const CODES: Record<number, string> = {
 	400: 'bad_request',
@@ -113,7 +114,7 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 	if (control) throw new ApiError(400, `${control}: text may not contain control characters (tab and line breaks aside)`, 'invalid');
 	const parsed = schema.safeParse(value);
 	if (!parsed.success) {
-		const issues = parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
+		const issues = closestIssues(parsed.error.issues).map((i) => ({ path: i.path.join('.'), message: i.message }));
 		throw new ApiError(
 			400,
 			issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)).join('; '),
@@ -122,6 +123,19 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 		);
 	}
 	return parsed.data;
+}
+
+/**
+ * A body fitting none of a union's forms is explained by the form it came closest to (fewest
+ * issues), so a stray key is named rather than hidden behind "matches none of the forms".
+ */
+function closestIssues(issues: readonly $ZodIssue[], prefix: PropertyKey[] = []): { path: PropertyKey[]; message: string }[] {
+	return issues.flatMap((i) => {
+		const path = [...prefix, ...i.path];
+		if (i.code !== 'invalid_union' || i.errors.length === 0) return [{ path, message: i.message }];
+		const closest = i.errors.reduce((a, b) => (b.length < a.length ? b : a));
+		return closestIssues(closest, path);
+	});
 }
 
 /** C0 controls and DEL, tab, line feed and carriage return aside: the database refuses NUL outright. */

@@ -55,7 +55,7 @@ const NOUN: Record<Collection, string> = {
 };
 
 /** Game-wide settings: the rogue runner and the race rules the odds lab plays by. */
-export const SettingsSchema = z.object({ rogueRunner: RogueRunnerSchema.optional(), raceRules: RaceRulesSchema.optional() });
+export const SettingsSchema = z.strictObject({ rogueRunner: RogueRunnerSchema.optional(), raceRules: RaceRulesSchema.optional() });
 type Settings = z.infer<typeof SettingsSchema>;
 
 /** A refusal with an HTTP status and a message for people; `current` is the newer object on 409. */

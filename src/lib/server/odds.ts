@@ -38,8 +38,8 @@ export const MAX_RACES = 1_000_000;
 const TargetSchema = z.number().min(-1000).max(1000).default(0);
 
 /** Whole races of the game: `{ "race": { "players": N }, "samples": N, "seed": S }`. */
-export const RaceRequestSchema = z.object({
-	race: z.object({ players: z.int().min(2).max(12) }),
+export const RaceRequestSchema = z.strictObject({
+	race: z.strictObject({ players: z.int().min(2).max(12) }),
 	samples: z
 		.int('samples must be a whole number')
 		.min(1, 'samples must be at least 1')
@@ -321,7 +321,7 @@ export function stopOddsRunsHere() {
 export const SCENARIO_NAME_MAX = 80;
 export const MAX_SAVED_SCENARIOS = 100;
 
-export const SavedScenarioInputSchema = z.object({
+export const SavedScenarioInputSchema = z.strictObject({
 	name: z.string().trim().min(1, 'Name the scenario').max(SCENARIO_NAME_MAX),
 	scenario: ScenarioSchema,
 	/** The answer of a run of this scenario, kept beside it. */

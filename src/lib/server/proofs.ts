@@ -35,29 +35,29 @@ export class ProofError extends Error {
 }
 
 export const CommentSchema = z.union([
-	z.object({
+	z.strictObject({
 		cardId: z.string().min(1).max(160),
 		side: z.enum(['front', 'back']).default('front'),
 		xMm: z.number().finite(),
 		yMm: z.number().finite(),
 		body: z.string().trim().min(1, 'Write something in the comment').max(4000)
 	}),
-	z.object({
+	z.strictObject({
 		replyTo: z.string().uuid(),
 		body: z.string().trim().min(1, 'Write something in the reply').max(4000)
 	})
 ]);
 
-export const VerdictSchema = z.object({
+export const VerdictSchema = z.strictObject({
 	verdict: z.enum(['approve', 'changes']),
 	note: z.string().trim().max(2000).default('')
 });
 
-export const CutSchema = z.object({
+export const CutSchema = z.strictObject({
 	description: z.string().trim().min(1, 'Say what this proof is for').max(500)
 });
 
-export const WithdrawSchema = z.object({ note: z.string().trim().max(2000).default('') });
+export const WithdrawSchema = z.strictObject({ note: z.string().trim().max(2000).default('') });
 
 const link = (path: string) => new URL(path, config.origin).toString();
 export const proofPath = (gameId: string, number: number) => `/games/${gameId}/proofs/${number}`;

@@ -1,11 +1,10 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { z } from 'zod';
 import { api, readJson } from '$lib/server/api';
 import { requireGameRole } from '$lib/server/guard';
 import { setMuted, isMuted } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
-import type { ApiAnswer, MuteSchema } from '$lib/schemas/api';
+import { MuteSchema, type ApiAnswer } from '$lib/schemas/api';
 
 export const GET: RequestHandler = api(async ({ locals, params }) => {
 	const d = await db();
@@ -17,7 +16,7 @@ export const GET: RequestHandler = api(async ({ locals, params }) => {
 export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
 	const { user } = await requireGameRole(d, locals, params.gameId, 'release.read');
-	const { muted } = await readJson(request, z.object({ muted: z.boolean() }));
+	const { muted } = await readJson(request, MuteSchema);
 	await setMuted(d, user.id, params.gameId, muted);
 	return json({ muted } satisfies ApiAnswer<typeof MuteSchema>);
 });

@@ -9,12 +9,12 @@ import { db } from '$lib/server/runtime';
 import { CardKindSchema, CardSchema } from '$lib/game/model';
 import type { ApiAnswer, CardPreviewSchema } from '$lib/schemas/api';
 
-const PreviewSchema = z.object({
+const PreviewSchema = z.strictObject({
 	/** The kind and card as they stand in the editor, saved or not. */
 	kind: CardKindSchema,
 	card: CardSchema.optional(),
 	side: z.enum(['front', 'back']),
-	guides: z.object({ trim: z.boolean(), bleed: z.boolean(), safe: z.boolean() }).optional()
+	guides: z.strictObject({ trim: z.boolean(), bleed: z.boolean(), safe: z.boolean() }).optional()
 });
 
 /** Live preview: lays out the editor's unsaved kind and card against the saved game. Writes nothing. */

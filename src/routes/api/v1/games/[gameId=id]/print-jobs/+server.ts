@@ -6,7 +6,7 @@ import { printSource, printOptions, logDownload, pngDpi } from '$lib/server/prin
 import { startSheetJob, startPngJob, jobState } from '$lib/server/print-jobs';
 import { db } from '$lib/server/runtime';
 
-const JobSchema = z.object({
+const JobSchema = z.strictObject({
 	/** A proof id or number; the working game when absent. */
 	proof: z.string().max(40).optional(),
 	/** What to build: the sheet PDF, or the zip of one PNG per face. */

@@ -7,6 +7,7 @@ import { applyChanges, loadGame, COLLECTION_FIELD } from '$lib/server/game-store
 import type { Collection } from '$lib/schemas/collections';
 import { collectionOf, objectIdParam, requireGameEdit } from '$lib/server/game-access';
 import { db } from '$lib/server/runtime';
+import { ArtAssetSchema } from '$lib/game/model';
 
 async function findObject(gameId: string, collection: Collection, id: string) {
 	const game = await loadGame(await db(), gameId);
@@ -28,7 +29,11 @@ export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const collection = collectionOf(params.collection);
 	const id = objectIdParam(params.objectId);
 	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
-	const body = await readJson(request, z.looseObject({ version: z.int().min(0) }));
+	// Art's own fields are checked here (its file changes only by uploading); other objects in full when saved.
+	const body = await readJson(
+		request,
+		collection === 'art' ? ArtAssetSchema.partial().extend({ version: z.int().min(0) }) : z.looseObject({ version: z.int().min(0) })
+	);
 	const { version, ...sent } = body;
 	// The file behind an art piece changes only by uploading; here only its status and slot.
 	const object = collection === 'art' ? { ...(await findObject(params.gameId, collection, id)), status: sent.status, assignment: sent.assignment } : sent;
