@@ -33,6 +33,19 @@ export const CardPreviewSchema = z
 	.object({ svg: z.string().describe('The face as SVG, sized in mm'), warnings: z.array(z.string()) })
 	;
 
+export const SoftProofSchema = z
+	.object({
+		png: z.string().describe('The face as it will print, a PNG as a data: URL, moved colours striped'),
+		widthPx: z.int(),
+		heightPx: z.int(),
+		thresholdDeltaE2000: z.number().describe('Colours that move more than this (CIEDE2000) are striped'),
+		movedPct: z.number().describe('Share of the face over the threshold, in %'),
+		maxDeltaE2000: z.number(),
+		profileName: z.string(),
+		conditionIdentifier: z.string()
+	})
+	.describe('A card face soft-proofed on a press profile');
+
 export const PrintPreviewSchema = z
 	.object({
 		svg: z.string().describe("The build's first sheet as SVG (art linked, not embedded)"),

@@ -1,6 +1,8 @@
 /** Printer profiles: how one printer (at home or a shop) takes sheets. Shared by form, API and print page. */
 import { z } from 'zod';
 import { DEFAULT_MARGIN_MM, PrintSettingsSchema } from '$lib/print/options';
+import { RENDERING_INTENTS } from '$lib/print/colour/cmm';
+import { GAMUT_WARNING_DELTA_E2000, GAMUT_WARNING_MAX, GAMUT_WARNING_MIN } from '$lib/print/colour/delta-e';
 
 /** A printer's settings (./print/options.ts holds their units and limits), named and versioned. */
 export const PrinterProfileSchema = z
@@ -56,3 +58,24 @@ export const PressConditionSchema = z.strictObject({
 		.default(DEFAULT_INK_LIMIT_PCT)
 });
 export type PressCondition = z.infer<typeof PressConditionSchema>;
+
+/**
+ * A soft proof's choices, as query parameters (GET …/soft-proof.png) or JSON fields (the editor's
+ * preview): which face, which press profile (a printer profile of the team; the game's default
+ * when left out), the rendering intent, the ΔE2000 above which colours are striped, and whether
+ * to stripe them at all.
+ */
+export const SoftProofChoiceSchema = z.object({
+	side: z.enum(['front', 'back'], 'side is front or back').default('front'),
+	profile: z.uuid('profile is the id of one of the team’s printer profiles').optional(),
+	intent: z.enum(RENDERING_INTENTS, 'intent is relative or perceptual').default('relative'),
+	deltaE: z.coerce
+		.number({ error: `deltaE is a number from ${GAMUT_WARNING_MIN} to ${GAMUT_WARNING_MAX}` })
+		.min(GAMUT_WARNING_MIN, `deltaE is a number from ${GAMUT_WARNING_MIN} to ${GAMUT_WARNING_MAX}`)
+		.max(GAMUT_WARNING_MAX, `deltaE is a number from ${GAMUT_WARNING_MIN} to ${GAMUT_WARNING_MAX}`)
+		.default(GAMUT_WARNING_DELTA_E2000),
+	marks: z
+		.union([z.boolean(), z.enum(['0', '1']).transform((v) => v === '1')])
+		.default(true)
+});
+export type SoftProofChoice = z.output<typeof SoftProofChoiceSchema>;

@@ -13,7 +13,8 @@ import {
 	MuteSchema,
 	PrintJobSchema,
 	PrintPreviewSchema,
-	ProofCutSchema
+	ProofCutSchema,
+	SoftProofSchema
 } from '$lib/schemas/api';
 import { PrinterProfileSchema } from '$lib/schemas/printing';
 import { GameSchema } from '$lib/game/model';
@@ -26,6 +27,7 @@ const NAMED = {
 	Members: MembersSchema,
 	CardPreview: CardPreviewSchema,
 	PrintPreview: PrintPreviewSchema,
+	SoftProof: SoftProofSchema,
 	PrintJob: PrintJobSchema,
 	Mute: MuteSchema,
 	ProofCut: ProofCutSchema,
@@ -74,6 +76,15 @@ const PATHS: Record<string, Record<string, Operation>> = {
 	'/api/v1/teams/{teamId}/printer-profiles/{profileId}': { put: op('Change a printer profile', { 200: answer('The profile', 'PrinterProfile') }, PrinterProfileSchema) },
 	'/api/v1/games/{gameId}': { get: op('The whole game', { 200: answer('The game', { type: 'object', properties: { game: ref('Game') }, required: ['game'] }) }) },
 	'/api/v1/games/{gameId}/preview': { post: op('An unsaved kind and card drawn as SVG', { 200: answer('The face', 'CardPreview') }) },
+	'/api/v1/games/{gameId}/preview/soft-proof': {
+		post: op('An unsaved card as it will print on a press profile, moved colours striped', { 200: answer('The soft proof', 'SoftProof') })
+	},
+	'/api/v1/games/{gameId}/cards/{cardId}/soft-proof.png': {
+		get: op('A card face as it will print (side, profile, intent, deltaE, marks)', { 200: file('image/png', 'The soft proof') })
+	},
+	'/api/v1/games/{gameId}/proofs/{proofId}/cards/{cardId}/soft-proof.png': {
+		get: op("A proof's card face as it will print (side, profile, intent, deltaE, marks)", { 200: file('image/png', 'The soft proof') })
+	},
 	'/api/v1/games/{gameId}/print-preview': { get: op('The first sheet of a build, as SVG, with the plan', { 200: answer('The sheet', 'PrintPreview') }) },
 	'/api/v1/games/{gameId}/print.pdf': { get: op('The imposed sheets', { 200: file('application/pdf', 'The PDF') }) },
 	'/api/v1/games/{gameId}/print-jobs': { post: op('Start building the sheets', { 202: answer('The job', 'PrintJob') }) },

@@ -83,9 +83,9 @@ describe('press colour through LittleCMS', () => {
 
 	it('soft proof: a saturated screen green falls outside the press gamut, a mid grey does not', async () => {
 		const press = await PressColour.open(icc, 'relative');
-		const { deltaE, rgb } = press.softProof(new Uint8Array([0, 255, 0, 128, 128, 128]));
-		expect(deltaE[0]).toBeGreaterThan(20);
-		expect(deltaE[1]).toBeLessThan(3);
+		const { deltaE2000, rgb } = press.softProof(new Uint8Array([0, 255, 0, 128, 128, 128]));
+		expect(deltaE2000[0]).toBeGreaterThan(10);
+		expect(deltaE2000[1]).toBeLessThan(1);
 		// Printed, the green is duller: less green relative to the others than on screen.
 		expect(rgb[1] - Math.max(rgb[0], rgb[2])).toBeLessThan(255);
 	});

@@ -7,7 +7,7 @@
  * - `PressColour.cmykOf`: one sRGB colour → the profile's CMYK (vector fills and strokes);
  * - `PressColour.pixelsToCmyk`: 8-bit RGB pixels → 8-bit CMYK (art);
  * - `PressColour.softProof`: RGB pixels → how they will print, back on screen, with the colour
- *   difference (ΔE*ab) of each pixel so the out-of-gamut ones can be marked.
+ *   difference (CIEDE2000, ./delta-e.ts) of each pixel so the out-of-gamut ones can be marked.
  *
  * Rendering intents (ICC.1:2010 §6.2): relative colorimetric with black-point compensation by
  * default (in-gamut colours stay exact, the darkest art black maps to the press's darkest black),
@@ -17,6 +17,7 @@ import * as lcms from 'lcms-wasm';
 import type { Handle, Lcms } from 'lcms-wasm';
 import { createHash } from 'node:crypto';
 import { checkPressProfile } from './icc';
+import { deltaE2000 } from './delta-e';
 
 export type RenderingIntent = 'relative' | 'perceptual';
 export const RENDERING_INTENTS = ['relative', 'perceptual'] as const satisfies readonly RenderingIntent[];
@@ -84,7 +85,7 @@ export class PressColour {
 		private toCmykF: Handle,
 		private toScreen: Handle,
 		private rgbToLab: Handle,
-		private cmykToLab: Handle
+		private cmykToLabBpc: Handle
 	) {}
 
 	static async open(icc: Uint8Array, intent: RenderingIntent = DEFAULT_INTENT): Promise<PressColour> {
@@ -108,7 +109,9 @@ export class PressColour {
 			// black shows as the dark grey it really is on paper.
 			L.cmsCreateTransform(press, lcms.TYPE_CMYK_8, srgb, lcms.TYPE_RGB_8, rel, 0),
 			L.cmsCreateTransform(srgb, lcms.TYPE_RGB_8, lab, TYPE_Lab_FLT, rel, 0),
-			L.cmsCreateTransform(press, lcms.TYPE_CMYK_8, lab, TYPE_Lab_FLT, rel, 0)
+			// The print measured with black-point compensation: the press's lighter black is then
+			// compared as black, so only colours the press cannot reach count as moved.
+			L.cmsCreateTransform(press, lcms.TYPE_CMYK_8, lab, TYPE_Lab_FLT, rel, lcms.cmsFLAGS_BLACKPOINTCOMPENSATION)
 		];
 		const description = L.cmsGetProfileInfoASCII(press, lcms.cmsInfoDescription, 'en', 'US');
 		// Transforms keep what they need of the profiles.
@@ -148,22 +151,28 @@ export class PressColour {
 	}
 
 	/**
-	 * RGB pixels as they will print, back in sRGB, with each pixel's colour difference between
-	 * the art and the print (CIE 1976 ΔE*ab in D50 Lab).
+	 * RGB pixels as they will print, back in sRGB (the press's black as the dark grey it is on
+	 * paper), with each pixel's colour difference between the art and the print: CIEDE2000 in
+	 * D50 Lab, measured after black-point compensation so that only colours outside the press
+	 * gamut (a screen green, a deep blue) move, not every black. Computed once per distinct colour.
 	 */
-	softProof(rgb: Uint8Array): { rgb: Uint8Array; deltaE: Float32Array } {
+	softProof(rgb: Uint8Array): { rgb: Uint8Array; deltaE2000: Float32Array } {
 		const count = rgb.length / 3;
 		const cmyk = this.pixelsToCmyk(rgb);
-		const asArt = this.L.cmsDoTransform(this.rgbToLab, rgb, count);
-		const asPrinted = this.L.cmsDoTransform(this.cmykToLab, cmyk, count);
+		const asArt: Float32Array = this.L.cmsDoTransform(this.rgbToLab, rgb, count);
+		const asPrinted: Float32Array = this.L.cmsDoTransform(this.cmykToLabBpc, cmyk, count);
 		const deltaE = new Float32Array(count);
+		const known = new Map<number, number>();
 		for (let i = 0, j = 0; i < count; i++, j += 3) {
-			const dL = asArt[j] - asPrinted[j];
-			const da = asArt[j + 1] - asPrinted[j + 1];
-			const db = asArt[j + 2] - asPrinted[j + 2];
-			deltaE[i] = Math.sqrt(dL * dL + da * da + db * db);
+			const colour = (rgb[j] << 16) | (rgb[j + 1] << 8) | rgb[j + 2];
+			let d = known.get(colour);
+			if (d === undefined) {
+				d = deltaE2000(asArt.subarray(j, j + 3), asPrinted.subarray(j, j + 3));
+				known.set(colour, d);
+			}
+			deltaE[i] = d;
 		}
-		return { rgb: this.cmykToScreen(cmyk), deltaE };
+		return { rgb: this.cmykToScreen(cmyk), deltaE2000: deltaE };
 	}
 
 	/** A CMYK colour (0–1 each, e.g. a runner's press value) as it will look printed, as #rrggbb. */

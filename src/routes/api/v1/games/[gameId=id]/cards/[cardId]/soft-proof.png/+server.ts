@@ -1,0 +1,5 @@
+import type { RequestHandler } from './$types';
+import { api } from '$lib/server/api';
+import { softProofPng } from '$lib/server/http/soft-proof';
+
+export const GET: RequestHandler = api(softProofPng);
