@@ -34,6 +34,8 @@ export interface World {
 	gameId: string;
 	outsiderTeamId: string;
 	callers: Record<Who, Caller | null>;
+	/** The PostgreSQL database's address on the server pass (for a second connection). */
+	databaseUrl?: string;
 	close: () => Promise<void>;
 }
 
@@ -65,6 +67,7 @@ export async function openWorld(): Promise<World> {
 		gameId: game.id,
 		outsiderTeamId: outsiderTeam.id,
 		callers,
+		databaseUrl: database.kind === 'server' ? database.url : undefined,
 		close: async () => {
 			await jobs.stop(20_000);
 			await mail.stop?.();

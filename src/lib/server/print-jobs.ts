@@ -16,6 +16,7 @@ import { ApiError } from './api';
 import { artBytes, buildPngZip, fileStem, pngZipName, runPrint, type PngJobOptions, type PrintSource } from './printing';
 import { storage, streamBody, StorageUnavailableError } from './storage';
 import { jobQueue } from './job-queue';
+import { holdingJobFiles } from './job-sweep';
 import { printPool } from '$lib/print/pool';
 import type { Game } from '$lib/game/model';
 import type { GamePdfOptions } from '$lib/print/job';
@@ -143,20 +144,23 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		const sha256 = createHash('sha256').update(result.bytes).digest('hex');
 		const [extension, type] = request.type === 'pngs' ? ['zip', 'application/zip'] : ['pdf', 'application/pdf'];
 		const fileKey = `print/${sha256.slice(0, 2)}/${sha256}.${extension}`;
-		await storage().putOnce(fileKey, result.bytes, type);
 		await writing;
-		// The first build to get here wins; any other keeps its hands off the row.
-		await db
-			.update(printJobs)
-			.set({
-				state: 'done',
-				fileKey,
-				done: Math.max(result.pages ?? result.files ?? 1, 1),
-				total: Math.max(result.pages ?? result.files ?? 1, 1),
-				result: { sheets: result.sheets, pages: result.pages, bytes: result.bytes.byteLength, warnings: result.warnings },
-				finishedAt: new Date()
-			})
-			.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
+		// Stored and recorded with no sweep in between (./job-sweep.ts): the key may name a file an
+		// older job left. The first build to get here wins; any other keeps its hands off the row.
+		await holdingJobFiles(db, async (tx) => {
+			await storage().putOnce(fileKey, result.bytes, type);
+			await tx
+				.update(printJobs)
+				.set({
+					state: 'done',
+					fileKey,
+					done: Math.max(result.pages ?? result.files ?? 1, 1),
+					total: Math.max(result.pages ?? result.files ?? 1, 1),
+					result: { sheets: result.sheets, pages: result.pages, bytes: result.bytes.byteLength, warnings: result.warnings },
+					finishedAt: new Date()
+				})
+				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
+		});
 	} catch (e) {
 		await writing;
 		if (e instanceof ApiError && e.status !== 503) {

@@ -12,6 +12,7 @@ import { watchVitals } from './vitals';
 import { defineJob, jobQueue, sharedQueue, useJobQueue } from './job-queue';
 import { buildQueuedJob, failJob } from './print-jobs';
 import { failOddsJob, runQueuedOddsJob, stopOddsRunsHere } from './odds';
+import { startSweeping } from './job-sweep';
 
 interface Runtime {
 	database: Database;
@@ -67,8 +68,10 @@ async function start(): Promise<Runtime> {
 	watchVitals(() => ({ printWorkersWarm: printWarm }));
 	defineJobs(database.db);
 	if (config.databaseUrl) useJobQueue(await sharedQueue(config.databaseUrl));
+	const stopSweeping = startSweeping(database.db);
 	const runtime: Runtime = { database, stopCatcher: mail.stop, catching: mail.catching };
 	const stop = async () => {
+		stopSweeping();
 		// Running builds finish (or, past the wait, are left for another process to retry); odds
 		// runs, which can be long, stop now and are taken up again elsewhere.
 		if (jobQueue().shared) stopOddsRunsHere();

@@ -6,6 +6,7 @@
  * An object appears whole or not at all, so nothing is ever half-written under a key.
  */
 import {
+	DeleteObjectCommand,
 	GetObjectCommand,
 	HeadBucketCommand,
 	HeadObjectCommand,
@@ -127,6 +128,14 @@ export function bucketStorage(url: string): Storage {
 				throw translate(e);
 			}
 			return keys.sort();
+		},
+		async remove(key) {
+			try {
+				await client.send(new DeleteObjectCommand({ Bucket: at.bucket, Key: full(key) }));
+			} catch (e) {
+				const t = translate(e, key);
+				if (!(t instanceof StorageMissingError)) throw t;
+			}
 		},
 		async ping() {
 			try {

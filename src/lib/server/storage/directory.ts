@@ -83,6 +83,13 @@ export function directoryStorage(root: string): Storage {
 		async list(prefix) {
 			return (await walk(base)).filter((k) => k.startsWith(prefix)).sort();
 		},
+		async remove(key) {
+			try {
+				await unlink(pathOf(key));
+			} catch (e) {
+				if (!missing(e)) throw e;
+			}
+		},
 		async ping() {
 			try {
 				await mkdir(base, { recursive: true });

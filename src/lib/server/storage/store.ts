@@ -18,6 +18,8 @@ export interface Storage {
 	has: (key: string) => Promise<boolean>;
 	/** Keys under a prefix (tests and housekeeping). */
 	list: (prefix: string) => Promise<string[]>;
+	/** Deletes the file under `key`; nothing there is no error (housekeeping of finished job files). */
+	remove: (key: string) => Promise<void>;
 	/** Throws StorageUnavailableError when the store does not answer (readiness). */
 	ping: () => Promise<void>;
 }

@@ -1,0 +1,76 @@
+/**
+ * Housekeeping of finished jobs: once their keep time is over, print jobs' rows and built files
+ * (sheets and PNG zips under `print/` in the file store, the data directory or the bucket) and
+ * odds runs' rows (their answers) are deleted.
+ *
+ * One process sweeps at a time: the sweep holds a PostgreSQL advisory lock and skips its turn
+ * when another holds it. Built files are content-addressed, so a new job may finish onto a file
+ * an old one left; finishing a job holds the same lock shared (`holdingJobFiles`), so a sweep
+ * never deletes a file between a build finding it in place and its row naming it.
+ */
+import { and, isNotNull, lt, sql } from 'drizzle-orm';
+import type { Db } from './db';
+import { oddsJobs, printJobs } from './db/schema';
+import { storage } from './storage';
+
+/** A finished job's row and file stay this long to be read. */
+export const JOB_KEEP_MS = 10 * 60 * 1000;
+/** How often each process offers to sweep. */
+const SWEEP_EVERY_MS = Number(process.env.PADDOCK_SWEEP_SECONDS ?? 60) * 1000;
+/** The advisory lock's key (any fixed number, the same in every process). */
+export const JOB_FILES_LOCK = 0x70616464_6f636b01n;
+
+/** Where built job files live in the store. */
+export const JOB_FILES_PREFIX = 'print/';
+
+const lockKey = sql.raw(`${BigInt.asIntN(64, JOB_FILES_LOCK)}`);
+
+/** Runs `work` (store a job's file, then record it on the row) so that no sweep runs meanwhile. */
+export async function holdingJobFiles<T>(db: Db, work: (tx: Db) => Promise<T>): Promise<T> {
+	return db.transaction(async (tx) => {
+		await tx.execute(sql`select pg_advisory_xact_lock_shared(${lockKey})`);
+		return work(tx as unknown as Db);
+	});
+}
+
+export interface Sweep {
+	/** False when another process was sweeping (or a job was being finished): nothing done. */
+	swept: boolean;
+	rows: number;
+	files: number;
+}
+
+/** Deletes what finished before `now - JOB_KEEP_MS`, and built files no job row names. */
+export async function sweepFinishedJobs(db: Db, now = new Date()): Promise<Sweep> {
+	return db.transaction(async (tx) => {
+		// Both drivers (PGlite, node-postgres) answer `{ rows }`.
+		const lock = (await tx.execute(sql`select pg_try_advisory_xact_lock(${lockKey}) as got`)) as unknown as { rows: { got?: boolean }[] };
+		if (!lock.rows[0]?.got) return { swept: false, rows: 0, files: 0 };
+		const cutoff = new Date(now.getTime() - JOB_KEEP_MS);
+		const prints = await tx.delete(printJobs).where(lt(printJobs.finishedAt, cutoff)).returning({ id: printJobs.id });
+		const odds = await tx.delete(oddsJobs).where(lt(oddsJobs.finishedAt, cutoff)).returning({ id: oddsJobs.id });
+		const named = new Set(
+			(await tx.selectDistinct({ key: printJobs.fileKey }).from(printJobs).where(and(isNotNull(printJobs.fileKey)))).map((r) => r.key)
+		);
+		let files = 0;
+		for (const key of await storage().list(JOB_FILES_PREFIX)) {
+			if (named.has(key)) continue;
+			await storage().remove(key);
+			files++;
+		}
+		return { swept: true, rows: prints.length + odds.length, files };
+	});
+}
+
+/** Offers to sweep every minute (or PADDOCK_SWEEP_SECONDS); returns the stop. */
+export function startSweeping(db: Db): () => void {
+	let running: Promise<unknown> = Promise.resolve();
+	const timer = setInterval(() => {
+		running = sweepFinishedJobs(db).catch((e) => console.error(`Sweeping finished jobs: ${(e as Error).message}`));
+	}, SWEEP_EVERY_MS);
+	timer.unref();
+	return () => {
+		clearInterval(timer);
+		void running;
+	};
+}
