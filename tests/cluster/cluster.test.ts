@@ -4,6 +4,8 @@
  * renders on B; a stale save on B after a save on A is refused (409) and nothing is lost; failed
  * sign-ins on A and B count together; a print job queued on A is built and downloaded from B;
  * and a process killed (SIGKILL) while building a job leaves it to the other, which finishes it.
+ * Odds runs likewise: started on A, followed and cancelled on B, and finished by B when the
+ * process computing one is killed.
  * Runs in the suite's second pass (it needs the PostgreSQL server and the bucket).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -244,6 +246,78 @@ describe.runIf(server && bucket)('two app processes, one database, one bucket', 
 		const file = await call(survivor, `/api/v1/print-jobs/${id}/file`);
 		expect(file.status).toBe(200);
 		expect(pdfPages(new Uint8Array(await file.arrayBuffer()))).toBe(done.pages);
+	}, 400_000);
+
+	/** Both processes up again (a test above may have killed one). */
+	async function bothUp() {
+		for (const [i, app] of [A, B].entries()) {
+			if (app.child.exitCode !== null || app.child.signalCode !== null) {
+				const fresh = await startApp(app.name, app.port);
+				if (i === 0) A = fresh;
+				else B = fresh;
+			}
+		}
+	}
+
+	const startOdds = async (app: App, races: number, seed: number) => {
+		const res = await call(app, `/api/v1/games/${demoGameId}/odds`, { method: 'POST', json: { race: { players: 4 }, samples: races, seed } });
+		expect(res.status).toBe(202);
+		return (await res.json()).job.id as string;
+	};
+	const oddsView = async (app: App, id: string) => {
+		const res = await call(app, `/api/v1/odds-jobs/${id}`);
+		expect(res.status).toBe(200);
+		return res.json();
+	};
+	async function waitOdds(app: App, id: string, until: (v: { state: string; done: number }) => boolean, timeoutMs = 300_000) {
+		const end = Date.now() + timeoutMs;
+		while (Date.now() < end) {
+			const v = await oddsView(app, id);
+			if (until(v)) return v;
+			await new Promise((ok) => setTimeout(ok, 250));
+		}
+		throw new Error(`the odds run ${id} did not get there`);
+	}
+
+	it('an odds run started on A is followed on B, answered, and a second one cancelled from B', async () => {
+		await bothUp();
+		const id = await startOdds(A, 20_000, 11);
+		const done = await waitOdds(B, id, (v) => v.state === 'done' || v.state === 'failed');
+		expect(done.state).toBe('done');
+		expect(done.result.samples).toBe(20_000);
+		// Each place's odds over the runners sum to one (a probability distribution).
+		for (let place = 0; place < 3; place++) {
+			const sum = (Object.values(done.result.race) as number[][]).reduce((a, row) => a + row[place], 0);
+			expect(sum).toBeCloseTo(1, 9);
+		}
+		// The answer read on A is the very same.
+		expect((await oddsView(A, id)).result).toEqual(done.result);
+
+		const long = await startOdds(A, 1_000_000, 12);
+		const cancel = await call(B, `/api/v1/odds-jobs/${long}`, { method: 'DELETE' });
+		expect(cancel.status).toBe(200);
+		expect((await cancel.json()).state).toBe('cancelled');
+		// Neither process answers it afterwards; it stays cancelled with no answer.
+		const later = await oddsView(A, long);
+		expect(later.state).toBe('cancelled');
+		expect(later.result).toBeUndefined();
+	}, 400_000);
+
+	it('a process killed while computing an odds run leaves it to the other, which answers it', async () => {
+		await bothUp();
+		const id = await startOdds(A, 400_000, 13);
+		let runner: App | undefined;
+		for (let i = 0; i < 600 && !runner; i++) {
+			runner = [A, B].find((a) => a.child.exitCode === null && a.log.join('').includes(`Running odds job ${id}`));
+			if (!runner) await new Promise((ok) => setTimeout(ok, 100));
+		}
+		expect(runner, 'no process took the odds run').toBeTruthy();
+		runner!.child.kill('SIGKILL');
+		const survivor = runner === A ? B : A;
+		const done = await waitOdds(survivor, id, (v) => v.state === 'done' || v.state === 'failed');
+		expect(done.state).toBe('done');
+		expect(done.result.samples).toBe(400_000);
+		expect(survivor.log.join('')).toContain(`Running odds job ${id}`);
 	}, 400_000);
 });
 
