@@ -6,6 +6,7 @@ import { startRuntime, db, StartupError } from '$lib/server/runtime';
 import { findUser } from '$lib/server/users';
 import { userForToken } from '$lib/server/api-tokens';
 import { apiError } from '$lib/server/api';
+import { refuseControlCharacters } from '$lib/server/http/form-text';
 import { DataDirLockedError } from '$lib/server/db/lock';
 import '$lib/schemas/messages';
 import { DatabaseUnreachableError } from '$lib/server/db';
@@ -58,6 +59,6 @@ const identify: Handle = async ({ event, resolve }) => {
 };
 
 /** In order; exported so integration tests can run the same chain without the server. */
-export const handlers: Handle[] = [knowClient, cookiePolicy, signInLimitAnswer, authHandle, identify];
+export const handlers: Handle[] = [knowClient, cookiePolicy, signInLimitAnswer, authHandle, identify, refuseControlCharacters];
 
 export const handle = sequence(...handlers);

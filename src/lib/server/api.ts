@@ -5,6 +5,7 @@
 import { json, isHttpError, isRedirect, type RequestHandler } from '@sveltejs/kit';
 import type { z } from 'zod';
 import type { $ZodIssue } from 'zod/v4/core';
+import { controlCharacterIn, controlCharacterMessage } from './text-input';
 
 const CODES: Record<number, string> = {
 	400: 'bad_request',
@@ -111,7 +112,7 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 		throw new ApiError(400, 'The body is not valid JSON', 'malformed_json');
 	}
 	const control = controlCharacterIn(value);
-	if (control) throw new ApiError(400, `${control}: text may not contain control characters (tab and line breaks aside)`, 'invalid');
+	if (control) throw new ApiError(400, controlCharacterMessage(control), 'invalid');
 	const parsed = schema.safeParse(value);
 	if (!parsed.success) {
 		const issues = closestIssues(parsed.error.issues).map((i) => ({ path: i.path.join('.'), message: i.message }));
@@ -136,27 +137,4 @@ function closestIssues(issues: readonly $ZodIssue[], prefix: PropertyKey[] = [])
 		const closest = i.errors.reduce((a, b) => (b.length < a.length ? b : a));
 		return closestIssues(closest, path);
 	});
-}
-
-/** C0 controls and DEL, tab, line feed and carriage return aside: the database refuses NUL outright. */
-const CONTROL = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
-
-/** The path of the first string (or key) in a JSON value holding a control character, if any. */
-function controlCharacterIn(value: unknown, path = 'body'): string | null {
-	if (typeof value === 'string') return CONTROL.test(value) ? path : null;
-	if (Array.isArray(value)) {
-		for (let i = 0; i < value.length; i++) {
-			const found = controlCharacterIn(value[i], `${path}.${i}`);
-			if (found) return found;
-		}
-		return null;
-	}
-	if (value && typeof value === 'object') {
-		for (const [k, v] of Object.entries(value)) {
-			if (CONTROL.test(k)) return `${path} (a key)`;
-			const found = controlCharacterIn(v, path === 'body' ? k : `${path}.${k}`);
-			if (found) return found;
-		}
-	}
-	return null;
 }

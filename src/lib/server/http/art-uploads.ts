@@ -11,6 +11,7 @@ import { requireGameRole } from '../guard';
 import { StoreError } from '../game-store';
 import { db } from '../runtime';
 import { placeArt, uploadArt, type UploadOutcome, type UploadRequest } from '../art-uploads';
+import { checkedForm } from './form-text';
 import { ArtPlacementSchema, ReplaceFormSchema, UploadFieldsSchema, UploadFormSchema } from '$lib/schemas/art';
 import { ArtRejected, MAX_ART_BYTES } from '$lib/art/inspect';
 import { describeAssignment, parsePlaceKey } from '$lib/art/placement';
@@ -39,11 +40,13 @@ async function readCapped(request: Request, limit: number): Promise<Uint8Array> 
 /** A multipart form body, read with the art cap (plus room for the fields) and then parsed. */
 export async function readArtForm(request: Request): Promise<FormData> {
 	const bytes = await readCapped(request, MAX_ART_BYTES + FORM_ROOM_BYTES);
+	let form: FormData;
 	try {
-		return await new Response(new Uint8Array(bytes), { headers: { 'content-type': request.headers.get('content-type') ?? '' } }).formData();
+		form = await new Response(new Uint8Array(bytes), { headers: { 'content-type': request.headers.get('content-type') ?? '' } }).formData();
 	} catch {
 		throw new StoreError(400, 'The form could not be read; send the art as multipart/form-data.');
 	}
+	return checkedForm(form);
 }
 
 /**
