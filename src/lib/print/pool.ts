@@ -5,8 +5,9 @@
  * PrintBusyError (HTTP 503). A rebuild of a game goes to the worker that built it last when that
  * one is free, so its cache still holds the faces and the art.
  *
- * The workers start with the pool and load the fonts and the WebAssembly rasteriser before they
- * take a job (see ./worker.ts), so the first build after a start is not the slow one. They run
+ * `idleSize` workers (one by default) start with the pool and load the fonts and the WebAssembly
+ * rasteriser before they take a job (see ./worker.ts), so the first build after a start is not
+ * the slow one; the others start when builds queue up and stop after a quiet minute. They run
  * at a lower scheduling priority than the server's own thread, so builds never starve requests.
  *
  * Callers see only `PrintRunner` (run, close), so the pool can be swapped for a queue elsewhere.
@@ -81,6 +82,10 @@ export class PrintBusyError extends Error {
 export interface PrintPoolOptions {
 	/** Builds at the same time (worker threads). */
 	size?: number;
+	/** Workers that stay started while idle (default 1); the rest start when builds queue. */
+	idleSize?: number;
+	/** How long an extra worker may sit idle before it stops (default a minute). */
+	idleMs?: number;
 	/** Jobs allowed to wait; beyond this `run` refuses with PrintBusyError. */
 	maxQueue?: number;
 	/** The worker module, when it is not beside this file (e.g. once the app is bundled). */
@@ -106,6 +111,9 @@ export interface PrintRunner {
 /** One per core: builds are CPU-bound. */
 export const DEFAULT_POOL_SIZE = Math.max(1, availableParallelism());
 export const DEFAULT_MAX_QUEUE = 16;
+export const DEFAULT_IDLE_SIZE = 1;
+const DEFAULT_IDLE_MS = 60_000;
+const WORKER_YOUNG_MB = 8;
 /** Worker threads yield the CPU to the server's thread (Linux nice value; ignored elsewhere). */
 const WORKER_NICE = 10;
 
@@ -138,6 +146,8 @@ interface QueueOptions {
 
 export class PrintPool implements PrintRunner {
 	readonly size: number;
+	/** Workers kept started (and warm) while nothing is being built. */
+	readonly idleSize: number;
 	readonly maxQueue: number;
 	readonly workerPath: string;
 	private piscina: Piscina<WorkerTask, unknown>;
@@ -148,6 +158,7 @@ export class PrintPool implements PrintRunner {
 
 	constructor(options: PrintPoolOptions = {}) {
 		this.size = Math.max(1, Math.floor(options.size ?? DEFAULT_POOL_SIZE));
+		this.idleSize = Math.min(this.size, Math.max(1, Math.floor(options.idleSize ?? DEFAULT_IDLE_SIZE)));
 		this.maxQueue = Math.max(0, Math.floor(options.maxQueue ?? DEFAULT_MAX_QUEUE));
 		this.workerPath = resolveWorkerPath(options.workerPath);
 		if (!existsSync(this.workerPath)) throw new Error(`print worker not found at ${this.workerPath}`);
@@ -160,15 +171,19 @@ export class PrintPool implements PrintRunner {
 		this.piscina = new Piscina({
 			filename: direct ? this.workerPath : entryFile(),
 			workerData,
-			// Every worker starts now and warms up; none is ever retired for idling.
-			minThreads: this.size,
+			// `idleSize` workers start now, warm up and stay; more start when builds queue and
+			// leave after a quiet minute (each thread holds tens of MB of code, fonts and wasm).
+			minThreads: this.idleSize,
 			maxThreads: this.size,
-			idleTimeout: Infinity,
+			idleTimeout: this.idleSize === this.size ? Infinity : options.idleMs ?? DEFAULT_IDLE_MS,
 			maxQueue: this.maxQueue,
 			concurrentTasksPerWorker: 1,
 			// Idle workers wait on a message port, so a job's own async work is never parked.
 			atomics: 'disabled',
 			niceIncrement: WORKER_NICE,
+			// A smaller young generation: builds allocate in short bursts, and every megabyte a
+			// thread's heap grew to stays resident while the thread lives.
+			resourceLimits: { maxYoungGenerationSizeMb: WORKER_YOUNG_MB },
 			loadBalancer: (task, workers) => {
 				const free = workers.filter((w) => w.currentUsage === 0 && !w.terminating && !w.destroyed);
 				if (!free.length) return null;
@@ -185,7 +200,7 @@ export class PrintPool implements PrintRunner {
 		let warmed = 0;
 		this.warm = new Promise((resolve) => {
 			const onMessage = (m: unknown) => {
-				if ((m as { warm?: boolean })?.warm && ++warmed >= this.size) {
+				if ((m as { warm?: boolean })?.warm && ++warmed >= this.idleSize) {
 					this.piscina.off('message', onMessage);
 					resolve();
 				}
@@ -206,7 +221,7 @@ export class PrintPool implements PrintRunner {
 		return this.inFlight >= this.size + this.maxQueue;
 	}
 
-	/** Resolves once every worker has loaded its fonts and wasm (each says so when it is warm). */
+	/** Resolves once the idle workers have loaded their fonts and wasm (each says so when it is warm). */
 	ready(): Promise<void> {
 		return this.warm;
 	}

@@ -9,6 +9,7 @@ import { configureMail } from './mail';
 import { config } from './config';
 import { printPool, closePrintPool } from '$lib/print/pool';
 import { watchVitals } from './vitals';
+import { warmRecentGames } from './print-warmup';
 import { defineJob, jobQueue, sharedQueue, useJobQueue } from './job-queue';
 import { buildQueuedJob, failJob } from './print-jobs';
 import { failOddsJob, runQueuedOddsJob, stopOddsRunsHere } from './odds';
@@ -60,11 +61,15 @@ async function start(): Promise<Runtime> {
 		const { seedDemo } = await import('./demo');
 		await database.exclusive(() => seedDemo(database.db));
 	}
-	// Print workers start now and load fonts and wasm, so the first build is not the slow one.
+	// Print workers start now, load fonts and wasm and build the latest games once, so the
+	// first build is not the slow one.
 	let printWarm = false;
-	void printPool({ cacheBytes: WORKER_CACHE_BYTES })
+	const pool = printPool({ cacheBytes: WORKER_CACHE_BYTES });
+	void pool
 		.ready()
-		.then(() => (printWarm = true));
+		.then(() => warmRecentGames(database.db, pool))
+		.catch((e) => console.error('warming the print workers failed:', e))
+		.finally(() => (printWarm = true));
 	watchVitals(() => ({ printWorkersWarm: printWarm }));
 	defineJobs(database.db);
 	if (config.databaseUrl) useJobQueue(await sharedQueue(config.databaseUrl));

@@ -11,7 +11,9 @@ import { migrate as migratePg } from 'drizzle-orm/node-postgres/migrator';
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
 import { sql } from 'drizzle-orm';
 import pg from 'pg';
+import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
+import { Worker } from 'node:worker_threads';
 import * as schema from './schema';
 import { lockDataDir } from './lock';
 import { describeServerError, serverName } from './server-errors';
@@ -35,11 +37,44 @@ export interface Database {
 
 export const MIGRATIONS_DIR = resolve(process.env.PADDOCK_MIGRATIONS_DIR ?? 'drizzle');
 
+/**
+ * Postgres sizes its buffer pool for a server of its own (128 MB); embedded, every megabyte of it
+ * stays in the process for good. A small team's data fits a much smaller pool.
+ */
+const EMBEDDED_PARAMS = [...PGlite.defaultStartParams, '-c', 'shared_buffers=16MB', '-c', 'wal_buffers=1MB'];
+
+/**
+ * A new data directory is made in a thread of its own: making one runs a second Postgres
+ * (initdb) whose memory is never given back, so it goes with the thread.
+ */
+async function initDataDir(dir: string): Promise<void> {
+	const code = `
+const { parentPort, workerData } = require('node:worker_threads');
+import(workerData.pglite).then(async ({ PGlite }) => {
+	const db = await PGlite.create({ dataDir: workerData.dir, startParams: workerData.params });
+	await db.close();
+	parentPort.postMessage('made');
+});
+`;
+	const worker = new Worker(code, { eval: true, workerData: { dir, params: EMBEDDED_PARAMS, pglite: import.meta.resolve('@electric-sql/pglite') } });
+	try {
+		await new Promise<void>((ok, fail) => {
+			worker.once('message', () => ok());
+			worker.once('error', fail);
+			worker.once('exit', (code) => fail(new Error(`making the database stopped (exit code ${code})`)));
+		});
+	} finally {
+		await worker.terminate();
+	}
+}
+
 /** `dataDir: null` opens a throw-away in-memory database. */
 export async function openDatabase(dataDir: string | null, migrationsFolder = MIGRATIONS_DIR): Promise<Database> {
 	const release = dataDir ? lockDataDir(dataDir) : () => {};
 	try {
-		const client = dataDir ? new PGlite(resolve(dataDir, 'pg')) : new PGlite();
+		const pgDir = dataDir && resolve(dataDir, 'pg');
+		if (pgDir && !existsSync(resolve(pgDir, 'PG_VERSION'))) await initDataDir(pgDir);
+		const client = new PGlite(pgDir ?? undefined, { startParams: EMBEDDED_PARAMS });
 		await client.waitReady;
 		const db = drizzlePglite({ client, schema });
 		const migrate = (folder: string) => migratePglite(db, { migrationsFolder: folder });
