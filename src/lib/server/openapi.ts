@@ -19,6 +19,7 @@ import {
 import { PrinterProfileSchema } from '$lib/schemas/printing';
 import { GameSchema } from '$lib/game/model';
 import { CommentSchema, CutSchema, VerdictSchema, WithdrawSchema } from './proofs';
+import { DeleteGameSchema } from './game-lifecycle';
 
 /** Answers named in components.schemas, referred to by the paths. */
 const NAMED = {
@@ -74,7 +75,11 @@ const PATHS: Record<string, Record<string, Operation>> = {
 	'/api/v1/teams/{teamId}/invitations': { post: op('Invite someone by e-mail (owner)', { 201: answer('Invited') }, inviteSchema) },
 	'/api/v1/teams/{teamId}/printer-profiles': { post: op('Add a printer profile', { 201: answer('The profile', 'PrinterProfile') }, PrinterProfileSchema) },
 	'/api/v1/teams/{teamId}/printer-profiles/{profileId}': { put: op('Change a printer profile', { 200: answer('The profile', 'PrinterProfile') }, PrinterProfileSchema) },
-	'/api/v1/games/{gameId}': { get: op('The whole game', { 200: answer('The game', { type: 'object', properties: { game: ref('Game') }, required: ['game'] }) }) },
+	'/api/v1/games/{gameId}': {
+		get: op('The whole game', { 200: answer('The game', { type: 'object', properties: { game: ref('Game') }, required: ['game'] }) }),
+		delete: op('Deletes the game with its proofs and files (owners; confirm with the game\'s name, here or as ?confirm=)', { 200: answer('Deleted') }, DeleteGameSchema)
+	},
+	'/api/v1/games/{gameId}/duplicate': { post: op('A new game with its own copy of this one\'s data and art', { 201: answer('The new game') }) },
 	'/api/v1/games/{gameId}/preview': { post: op('An unsaved kind and card drawn as SVG', { 200: answer('The face', 'CardPreview') }) },
 	'/api/v1/games/{gameId}/preview/soft-proof': {
 		post: op('An unsaved card as it will print on a press profile, moved colours striped', { 200: answer('The soft proof', 'SoftProof') })

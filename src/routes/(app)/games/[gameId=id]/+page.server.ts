@@ -1,4 +1,6 @@
-import { requireGame, requireGameRole } from '$lib/server/guard';
+import { redirect } from '@sveltejs/kit';
+import { requireGame, requireGameRole, may } from '$lib/server/guard';
+import { duplicateGame } from '$lib/server/game-lifecycle';
 import { checkDeck } from '$lib/game/deck-check';
 import { gameReadiness } from '$lib/server/readiness';
 import { db } from '$lib/server/runtime';
@@ -20,6 +22,17 @@ export const load = async ({ locals, params }) => {
 		},
 		rogue: game.rogueRunner?.name ?? null,
 		readiness: await gameReadiness(game),
-		deck
+		deck,
+		may: { duplicate: may(role, 'game.create'), delete: may(role, 'game.delete') }
 	};
+};
+
+export const actions = {
+	/** One click: a new game with its own copy of this one's data and art, opened at once. */
+	duplicate: async ({ locals, params }) => {
+		const d = await db();
+		const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.create');
+		const copy = await duplicateGame(d, { userId: user.id, name: user.name, teamId: game.teamId, gameId: game.id });
+		redirect(303, `/games/${copy.id}`);
+	}
 };
