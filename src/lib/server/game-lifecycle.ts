@@ -25,7 +25,7 @@ export interface GameActor {
 }
 
 /** The typed confirmation: the game's name, as the page shows it. */
-export const DeleteGameSchema = z.object({ confirm: z.string().trim().max(200) });
+export const DeleteGameSchema = z.strictObject({ confirm: z.string().trim().max(200) });
 
 const sameName = (typed: string, name: string) => typed.trim().normalize('NFC') === name.trim().normalize('NFC');
 
