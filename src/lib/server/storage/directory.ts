@@ -80,13 +80,6 @@ export function directoryStorage(root: string): Storage {
 				return false;
 			}
 		},
-		async remove(key) {
-			try {
-				await unlink(pathOf(key));
-			} catch (e) {
-				if (!missing(e)) throw e;
-			}
-		},
 		async list(prefix) {
 			return (await walk(base)).filter((k) => k.startsWith(prefix)).sort();
 		},

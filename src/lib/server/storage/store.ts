@@ -16,8 +16,6 @@ export interface Storage {
 	/** The file as a stream, for downloads. */
 	open: (key: string) => Promise<StoredFile>;
 	has: (key: string) => Promise<boolean>;
-	/** Deletes the file under `key`; a key with nothing under it is no error. */
-	remove: (key: string) => Promise<void>;
 	/** Keys under a prefix (tests and housekeeping). */
 	list: (prefix: string) => Promise<string[]>;
 	/** Deletes the file under `key`; nothing there is no error (housekeeping of finished job files). */
