@@ -325,7 +325,7 @@ describe('valid uploads', () => {
 				form: { __superform_id: 'placement', ...superformJson({ id: pebble.id, status: 'final', assignment: { scope: 'kind', targetId: 'kd-setup', slot: 'backArt' }, version: pebble.version }) }
 			})
 		)) as { form: { message: string } };
-		expect(result.form.message).toMatch(/^Saved\. It prints on Setup cards · backArt\. “setup-back-v3\.png” no longer prints there/);
+		expect(result.form.message).toMatch(/^Saved\. It prints on Setup cards · Card back \(shared by every card\)\. “setup-back-v3\.png” no longer prints there/);
 		const after = await loadGame(w.db, w.gameId);
 		expect(after.art.find((a) => a.id === first.id)?.assignment).toBeNull();
 		expect(after.art.find((a) => a.id === pebble.id)?.assignment).toEqual({ scope: 'kind', targetId: 'kd-setup', slot: 'backArt' });

@@ -107,7 +107,7 @@ describe('CSV import of a card kind', () => {
 		const preview = (await csvPage.actions.preview(hazard({ csv, removeMissing: 'on' }))) as unknown as { preview: { ok: boolean; missing: unknown[] }; basis: string };
 		expect(preview.preview.ok).toBe(true);
 		expect(preview.preview.missing).toHaveLength(3);
-		const result = await csvPage.actions.apply(hazard({ csv, removeMissing: 'on', basis: preview.basis }));
+		const result = await csvPage.actions.apply(hazard({ csv, removeMissing: 'on', confirmRemove: '3', basis: preview.basis }));
 		expect(isActionFailure(result)).toBe(true);
 		expect((result as unknown as { data: { problem: string } }).data.problem).toMatch(/^Nothing was imported: .*assigned to a missing card/);
 		expect((await loadGame(w.db, w.gameId)).cards.filter((c) => c.kindId === 'kd-hazard')).toEqual(before);
@@ -134,5 +134,34 @@ describe('CSV import of a card kind', () => {
 			preview: { ok: boolean; added: unknown[]; changed: unknown[]; missing: unknown[]; unchanged: number };
 		};
 		expect(again.preview).toMatchObject({ ok: true, added: [], changed: [], missing: [], unchanged: 4 });
+	});
+
+	it('keeps the cards a file does not list unless asked, and removes them only with the count confirmed', async () => {
+		const partial = ['name,copies,runner,steps', 'Rosehip dash,2,Rosehip,2', 'Saffron dash,1,Saffron,3'].join('\n');
+		// Not asked (the page's box starts unticked): the two cards not in the file are listed and kept.
+		const kept = (await csvPage.actions.preview(designer({ csv: partial }))) as unknown as {
+			preview: { ok: boolean; removeMissing: boolean; missing: { name: string }[] };
+			basis: string;
+		};
+		expect(kept.preview.removeMissing).toBe(false);
+		expect(kept.preview.missing.map((c) => c.name)).toEqual(['Sorrel dash', 'Pebble dash']);
+		const keptApply = (await csvPage.actions.apply(designer({ csv: partial, basis: kept.basis }))) as unknown as { applied: { removed: number } };
+		expect(keptApply.applied.removed).toBe(0);
+		expect(await sprintCards()).toHaveLength(4);
+
+		// Asked, but without the count the person saw: refused, nothing written, the count said.
+		const asked = (await csvPage.actions.preview(designer({ csv: partial, removeMissing: 'on' }))) as unknown as { basis: string };
+		for (const confirmRemove of [undefined, '1', '3']) {
+			const form: Record<string, string> = { csv: partial, removeMissing: 'on', basis: asked.basis, ...(confirmRemove ? { confirmRemove } : {}) };
+			const refused = await csvPage.actions.apply(designer(form));
+			expect(isActionFailure(refused)).toBe(true);
+			expect((refused as unknown as { data: { problem: string } }).data.problem).toMatch(/would remove 2 cards/);
+			expect(await sprintCards()).toHaveLength(4);
+		}
+		const removed = (await csvPage.actions.apply(designer({ csv: partial, removeMissing: 'on', confirmRemove: '2', basis: asked.basis }))) as unknown as {
+			applied: { removed: number };
+		};
+		expect(removed.applied.removed).toBe(2);
+		expect((await sprintCards()).map((c) => c.name)).toEqual(['Rosehip dash', 'Saffron dash']);
 	});
 });

@@ -124,8 +124,8 @@ describe('places for art', () => {
 
 	it('names what an assignment points at, or that it is missing', () => {
 		const g = game([]);
-		expect(describeAssignment(g, { scope: 'runner', targetId: 'r-gravel', slot: 'portrait' })).toBe('Runner Gravel · portrait');
-		expect(describeAssignment(g, { scope: 'card', targetId: 'mv-long', slot: 'portrait' })).toBe('Crawl cards: Periwinkle 2 · portrait');
-		expect(describeAssignment(g, { scope: 'kind', targetId: 'k-gone', slot: 'x' })).toBe('a missing card kind · x');
+		expect(describeAssignment(g, { scope: 'runner', targetId: 'r-gravel', slot: 'portrait' })).toBe('Runner Gravel · Main picture');
+		expect(describeAssignment(g, { scope: 'card', targetId: 'mv-long', slot: 'portrait' })).toBe('Crawl cards: Periwinkle 2 · Main picture');
+		expect(describeAssignment(g, { scope: 'kind', targetId: 'k-gone', slot: 'x' })).toBe('a missing card kind · X');
 	});
 });

@@ -11,6 +11,7 @@ import type { FontSet } from '../print/fonts';
 import { layoutFace, type Side } from '../print/layout';
 import { checkArtResolution, faceWithBleedMm, type ArtResolution, type SlotMm } from '../game/art-check';
 import type { ArtAsset, ArtAssignment, Card, CardKind, Game } from '../game/model';
+import { slotLabel, slotLabelIn } from '../game/art-slots';
 
 /* ------------------------------------------------------------- places */
 
@@ -53,24 +54,24 @@ export function artPlaces(game: Game): ArtPlace[] {
 	];
 	const raceSlots = runnerSlots(['movement', 'wager']);
 	for (const r of game.runners)
-		for (const slot of raceSlots) add({ scope: 'runner', targetId: r.id, slot }, 'Runners (every card of the runner)', `${r.name} · ${slot}`);
+		for (const slot of raceSlots) add({ scope: 'runner', targetId: r.id, slot }, 'Runners (every card of the runner)', `${r.name} · ${slotLabel(slot)}`);
 	if (game.rogueRunner)
 		for (const slot of runnerSlots(['rogue']))
-			add({ scope: 'runner', targetId: game.rogueRunner.id, slot }, 'Runners (every card of the runner)', `${game.rogueRunner.name} (rogue) · ${slot}`);
+			add({ scope: 'runner', targetId: game.rogueRunner.id, slot }, 'Runners (every card of the runner)', `${game.rogueRunner.name} (rogue) · ${slotLabel(slot)}`);
 
 	for (const kind of game.kinds)
 		for (const slot of kind.artSlots)
 			add(
 				{ scope: 'kind', targetId: kind.id, slot },
 				'Card kinds (every card of the kind)',
-				`${kind.name} · ${slot}${slot === sharedBackSlot(kind) ? ' (back)' : ''}`
+				`${kind.name} · ${slotLabelIn(kind, slot)}`
 			);
 
 	for (const kind of game.kinds) {
 		const slots = perCardSlots(kind);
 		if (!slots.length) continue;
 		for (const card of game.cards.filter((c) => c.kindId === kind.id))
-			for (const slot of slots) add({ scope: 'card', targetId: card.id, slot }, `${kind.name}: one card`, `${card.name} · ${slot}`);
+			for (const slot of slots) add({ scope: 'card', targetId: card.id, slot }, `${kind.name}: one card`, `${card.name} · ${slotLabel(slot)}`);
 	}
 	return places;
 }
@@ -79,15 +80,15 @@ export function artPlaces(game: Game): ArtPlace[] {
 export function describeAssignment(game: Game, a: ArtAssignment): string {
 	if (a.scope === 'runner') {
 		const r = game.runners.find((x) => x.id === a.targetId) ?? (game.rogueRunner?.id === a.targetId ? game.rogueRunner : undefined);
-		return r ? `Runner ${r.name} · ${a.slot}` : `a missing runner · ${a.slot}`;
+		return r ? `Runner ${r.name} · ${slotLabel(a.slot)}` : `a missing runner · ${slotLabel(a.slot)}`;
 	}
 	if (a.scope === 'kind') {
 		const k = game.kinds.find((x) => x.id === a.targetId);
-		return k ? `${k.name} · ${a.slot}` : `a missing card kind · ${a.slot}`;
+		return k ? `${k.name} · ${slotLabelIn(k, a.slot)}` : `a missing card kind · ${slotLabel(a.slot)}`;
 	}
 	const c = game.cards.find((x) => x.id === a.targetId);
 	const k = c && game.kinds.find((x) => x.id === c.kindId);
-	return c ? `${k ? `${k.name}: ` : ''}${c.name} · ${a.slot}` : `a missing card · ${a.slot}`;
+	return c ? `${k ? `${k.name}: ` : ''}${c.name} · ${slotLabel(a.slot)}` : `a missing card · ${slotLabel(a.slot)}`;
 }
 
 /* ------------------------------------------------------- printed size */

@@ -3,6 +3,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { unzipSync, strFromU8 } from 'fflate';
+import { fileSlug } from './file-names';
 import { imageSize } from 'image-size';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { demoGameWithArt } from '../demo/demo-art';
@@ -252,6 +253,10 @@ describe('per-card files', () => {
 		expect(files).toBe(5);
 		expect(pngs.length).toBe(5);
 		expect(pngs).toContain('garden-hazards/back.png');
+		// Files are named after the cards, never their ids.
+		const hazardCards = demo.game.cards.filter((c) => c.kindId === 'kd-hazard');
+		for (const c of hazardCards) expect(pngs).toContain(`garden-hazards/${fileSlug(c.name)}-front.png`);
+		for (const name of pngs) expect(name).not.toContain('kd-hazard');
 		// mini 44 × 68 mm + 3 mm bleed each side = 50 × 74 mm; at 300 px per 25.4 mm: 590.6 → 591 px across.
 		for (const name of pngs) {
 			const size = imageSize(entries[name]);

@@ -27,7 +27,8 @@ import { paperSize, type PaperSpec } from './paper';
 import type { ColourMode } from './pdf';
 import { mmToPx, svgToPng } from './png';
 import { buildPressPdf } from './press';
-import { planSheets, type SheetFace } from './sheet-plan';
+import { countPages, planSheets, type SheetFace } from './sheet-plan';
+import { fileSlug, uniqueFileParts } from './file-names';
 import { buildSheetPdf } from './sheets';
 import { PressImageError } from './pdf-image';
 import type { PdfxTarget } from './pdfx';
@@ -265,7 +266,9 @@ export interface GamePdf {
 	pdf: Uint8Array;
 	/** Physical sheets of paper (a duplex sheet has two pages). */
 	sheets: number;
+	/** Every page of the document, the cutting guide's included (`guidePages` of them). */
 	pages: number;
+	guidePages: number;
 	warnings: string[];
 }
 
@@ -334,7 +337,8 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 
 	const sheetOptions = toSheetOptions(options);
 	const plan = planSheets({ faces: faces.cards, options: sheetOptions });
-	pageTotal = plan.groups.reduce((n, g) => n + g.pages.length, 0) + (sheetOptions.cuttingGuide ? 1 : 0);
+	const count = countPages(plan, !!sheetOptions.cuttingGuide);
+	pageTotal = count.total;
 	const ink: string[] = [];
 	const pdf = await pressBuild(async () =>
 		buildSheetPdf({
@@ -351,7 +355,7 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 			onInkOver: (what, pct, imageId) => ink.push(inkWarning(imageId ? pictureWords(game, imageId, faces.cards) : what, pct, options.pdfx!))
 		})
 	);
-	return { pdf, sheets: plan.sheetCount, pages: pageTotal, warnings: [...faces.warnings, ...plan.warnings, ...ink] };
+	return { pdf, sheets: plan.sheetCount, pages: pageTotal, guidePages: count.guidePages, warnings: [...faces.warnings, ...plan.warnings, ...ink] };
 }
 
 /* ------------------------------------------------------------ press PDF */
@@ -471,15 +475,6 @@ export async function cachedFacePng(
 	);
 }
 
-/** File-name-safe slug of a name or id. */
-const slug = (s: string) =>
-	s
-		.normalize('NFKD')
-		.replace(/[\u0300-\u036f]/g, '')
-		.toLowerCase()
-		.replace(/[^a-z0-9.]+/g, '-')
-		.replace(/^-+|-+$/g, '') || 'card';
-
 /** A fixed date keeps the zip's bytes the same for the same game (no clock in the output). */
 const ZIP_MTIME = new Date(2000, 0, 1);
 
@@ -539,17 +534,15 @@ export async function renderPngPart(
 
 	const rows: Record<string, string | number>[] = [];
 	const written = new Set<string>();
-	const kindDirs = new Map<string, string>();
-	for (const k of game.kinds) {
-		let dir = slug(k.name);
-		while ([...kindDirs.values()].includes(dir)) dir += '-x';
-		kindDirs.set(k.id, dir);
-	}
+	// Folders by kind name, files by card name (from the whole game, so every share names alike).
+	const kindDirs = uniqueFileParts(game.kinds, 'cards');
+	const cardFiles = new Map(game.kinds.flatMap((k) => [...uniqueFileParts(game.cards.filter((c) => c.kindId === k.id), 'card')]));
 	const jobs: { path: string; face: FaceLayout; key: string }[] = [];
 	for (const c of faces.cards) {
 		const dir = kindDirs.get(c.kindId)!;
-		const front = `${dir}/${slug(c.cardId)}-front.png`;
-		const back = c.back ? (c.sharedBack ? `${dir}/back.png` : `${dir}/${slug(c.cardId)}-back.png`) : '';
+		const file = cardFiles.get(c.cardId) ?? fileSlug(c.cardName, 'card');
+		const front = `${dir}/${file}-front.png`;
+		const back = c.back ? (c.sharedBack ? `${dir}/back.png` : `${dir}/${file}-back.png`) : '';
 		jobs.push({ path: front, face: c.front, key: c.frontKey });
 		if (c.back && c.backKey) jobs.push({ path: back, face: c.back, key: c.backKey });
 		rows.push({

@@ -47,6 +47,8 @@ export interface PrintJobResult {
 	/** Sheet PDFs: sheets of paper and pages. */
 	sheets?: number;
 	pages?: number;
+	/** Of `pages`, those of the cutting guide. */
+	guidePages?: number;
 	/** PNG zips: files in it. */
 	files?: number;
 	/** A share of a PNG zip: its files (`bytes` is then empty). */

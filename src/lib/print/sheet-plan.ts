@@ -65,6 +65,20 @@ export interface SheetPlan {
 	warnings: string[];
 }
 
+/** Pages of a sheet document: the card pages of the plan, then the cutting guide when it is included. */
+export interface PageCount {
+	cardPages: number;
+	guidePages: number;
+	total: number;
+}
+
+/** The one page count of a build: the preview, the builder and the finished job all say this figure. */
+export function countPages(plan: Pick<SheetPlan, 'groups'>, cuttingGuide: boolean): PageCount {
+	const cardPages = plan.groups.reduce((n, g) => n + g.pages.length, 0);
+	const guidePages = cuttingGuide ? 1 : 0;
+	return { cardPages, guidePages, total: cardPages + guidePages };
+}
+
 /** Crop marks want this much room outside the bleed; kept free only when it costs no cards. */
 const MARK_ROOM_MM = CROP_MARK.gapMm + CROP_MARK.lengthMm;
 

@@ -12,7 +12,7 @@ import { drawObject, PDFDocument, popGraphicsState, pushGraphicsState, type PDFP
 import type { ImageAsset } from './display-list';
 import { faceHeightMm } from './display-list';
 import { drawCuttingGuide } from './cutting-guide';
-import { planSheets, type PlacedCard, type SheetFace, type SheetOptions } from './sheet-plan';
+import { countPages, planSheets, type PlacedCard, type SheetFace, type SheetOptions } from './sheet-plan';
 import { loadFonts, type FontSet } from './fonts';
 import { drawSheetMarks, sheetMarks } from './marks';
 import { mmToPt, PT_PER_MM } from './paper';
@@ -82,7 +82,7 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 		return w * pt;
 	};
 	const k = PT_PER_MM;
-	const totalPages = plan.groups.reduce((n, g) => n + g.pages.length, 0) + (o.cuttingGuide ? 1 : 0);
+	const totalPages = countPages(plan, !!o.cuttingGuide).total;
 	let pagesDone = 0;
 
 	for (const group of plan.groups) {

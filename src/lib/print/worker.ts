@@ -54,7 +54,7 @@ async function run(job: PrintJob, progress?: MessagePort): Promise<Omit<PrintJob
 	switch (job.type) {
 		case 'sheets': {
 			const out = await buildGamePdf(job.game, job.art, { ...job.options, ...isolation, onProgress });
-			return finish({ bytes: out.pdf, warnings: out.warnings, sheets: out.sheets, pages: out.pages });
+			return finish({ bytes: out.pdf, warnings: out.warnings, sheets: out.sheets, pages: out.pages, guidePages: out.guidePages });
 		}
 		case 'pngs': {
 			const out = await buildCardsPngZip(job.game, job.art, { ...job.options, ...isolation, onProgress });

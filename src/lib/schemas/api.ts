@@ -50,7 +50,8 @@ export const PrintPreviewSchema = z
 	.object({
 		svg: z.string().describe("The build's first sheet as SVG (art linked, not embedded)"),
 		sheets: z.int(),
-		pages: z.int(),
+		pages: z.int().describe('Every page of the document, the cutting guide included'),
+		guidePages: z.int().describe('Of those, the cutting guide'),
 		cardsPerSheet: z.int(),
 		columns: z.int(),
 		rows: z.int(),
@@ -67,7 +68,8 @@ export const PrintJobSchema = z
 		total: z.int(),
 		error: z.string().optional(),
 		sheets: z.int().optional(),
-		pages: z.int().optional(),
+		pages: z.int().optional().describe('Every page of the document, the cutting guide included'),
+		guidePages: z.int().optional().describe('Of those, the cutting guide'),
 		bytes: z.int().optional(),
 		warnings: z.array(z.string())
 	})

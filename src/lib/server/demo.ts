@@ -5,7 +5,7 @@
 import { count } from 'drizzle-orm';
 import type { Db } from './db';
 import { users, memberships, type Role } from './db/schema';
-import { createUser } from './users';
+import { createUser, findUserByEmail } from './users';
 import { createTeam } from './teams';
 import { createGameFrom } from './game-io';
 import { demoGameWithArt } from '$lib/demo/demo-art';
@@ -26,6 +26,13 @@ const NAMES: Record<Role, string> = {
 	printer: 'Pim Castellan',
 	reviewer: 'Rue Marchetti'
 };
+
+/** The start-up log's line on how to sign in, when the demo accounts exist (they are made only in an empty database). */
+export async function demoSignInNote(db: Db): Promise<string | null> {
+	if (!(await findUserByEmail(db, demoEmail('owner')))) return null;
+	const names = DEMO_ROLES.map((r) => `${r}@`).join(', ');
+	return `Demo mode: sign in as ${names.replace(/, ([^,]*)$/, ' or $1')}paddock.test with the password ${DEMO_PASSWORD} (PADDOCK_DEMO=0 turns demo mode off).`;
+}
 
 export async function seedDemo(db: Db): Promise<boolean> {
 	const [{ n }] = await db.select({ n: count() }).from(users);

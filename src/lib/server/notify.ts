@@ -1,6 +1,7 @@
 /** Who gets which e-mail, with links back to the exact page. */
 import { config } from './config';
 import { sendMail } from './mail';
+import { formatMoment } from '$lib/dates';
 
 const link = (path: string) => new URL(path, config.origin).toString();
 
@@ -16,7 +17,8 @@ export async function mailInvitation(input: {
 		inviter: input.inviter,
 		team: input.team,
 		role: input.role,
-		expires: input.expiresAt.toISOString().slice(0, 10),
+		// The reader's zone is unknown in an e-mail: the moment in UTC, saying so.
+		expires: formatMoment(input.expiresAt, { locale: 'en-GB', timeZone: 'UTC' }),
 		link: link(`/invite/${input.token}`)
 	});
 }

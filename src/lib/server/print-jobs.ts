@@ -13,7 +13,7 @@ import { createHash } from 'node:crypto';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
 import { ApiError } from './api';
-import { artBytes, buildPngZip, fileStem, pngZipName, runPrint, type PngJobOptions, type PrintSource } from './printing';
+import { artBytes, buildPngZip, sheetsName, pngZipName, runPrint, type PngJobOptions, type PrintSource } from './printing';
 import { storage, streamBody, StorageUnavailableError } from './storage';
 import { jobQueue } from './job-queue';
 import { holdingJobFiles } from './job-sweep';
@@ -48,7 +48,7 @@ const PROGRESS_MS = 400;
 /** Queues a sheet build and returns at once; progress is read with `jobFor` and `jobState`. */
 export async function startSheetJob(db: Db, source: PrintSource, options: GamePdfOptions): Promise<PrintJobRow> {
 	const { onProgress: _ignored, ...plain } = options;
-	return queueJob(db, source, { type: 'sheets', proof: !!source.proofNumber, game: source.game, options: plain }, `${fileStem(source)}-sheets.pdf`);
+	return queueJob(db, source, { type: 'sheets', proof: !!source.proofNumber, game: source.game, options: plain }, sheetsName(source, options));
 }
 
 /** Queues a PNG zip, followed like a sheet build. */
@@ -86,6 +86,7 @@ export function jobState(job: PrintJobRow): ApiAnswer<typeof PrintJobSchema> {
 		error: job.error?.message,
 		sheets: job.result?.sheets,
 		pages: job.result?.pages,
+		guidePages: job.result?.guidePages,
 		bytes: job.result?.bytes,
 		warnings: job.result?.warnings ?? []
 	};
@@ -156,7 +157,7 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 					fileKey,
 					done: Math.max(result.pages ?? result.files ?? 1, 1),
 					total: Math.max(result.pages ?? result.files ?? 1, 1),
-					result: { sheets: result.sheets, pages: result.pages, bytes: result.bytes.byteLength, warnings: result.warnings },
+					result: { sheets: result.sheets, pages: result.pages, guidePages: result.guidePages, bytes: result.bytes.byteLength, warnings: result.warnings },
 					finishedAt: new Date()
 				})
 				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));

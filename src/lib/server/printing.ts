@@ -18,9 +18,11 @@ import { printPool, PrintBusyError, type PrintJob, type PrintJobResult } from '$
 import { PNG_DPI_DEFAULT, PNG_DPI_MAX, PNG_DPI_MIN, renderGameFaces, zipPngParts, type GamePdfOptions } from '$lib/print/job';
 import { parsePrintOptions, PrintOptionsError, settingsQuery, toSheetOptions, type PrintOptions } from '$lib/print/options';
 import type { PdfxTarget } from '$lib/print/pdfx';
+import type { PaperSpec } from '$lib/print/paper';
+import { pngZipFileName, pressFileName, sheetsFileName, type DownloadOf } from '$lib/print/file-names';
 import type { PressProfile } from '$lib/print/colour/cmm';
 import { builtinPressProfile } from '$lib/print/colour/press-profiles';
-import { planSheets } from '$lib/print/sheet-plan';
+import { countPages, planSheets } from '$lib/print/sheet-plan';
 import { sheetPreviewSvg } from '$lib/print/preview';
 import { isUuid } from '$lib/schemas/ids';
 import type { ApiAnswer, PrintPreviewSchema } from '$lib/schemas/api';
@@ -154,8 +156,20 @@ export function fileResponse(bytes: Uint8Array, type: string, name: string, warn
 	});
 }
 
-export const fileStem = (source: PrintSource) =>
-	`${source.game.slug}${source.proofNumber ? `-proof-${source.proofNumber}` : ''}`;
+/** What a download's name says about where it came from: the game, the version, the day. */
+export const downloadOf = (source: PrintSource): DownloadOf => ({ gameName: source.game.name, version: source.versionLabel, date: source.date });
+
+/** The paper as a file-name part: its name, or a custom size in mm. */
+const paperPart = (paper: PaperSpec) => (typeof paper === 'string' ? paper : `${paper.widthMm}x${paper.heightMm}mm`);
+
+export const sheetsName = (source: PrintSource, options: Pick<GamePdfOptions, 'paper'>) => sheetsFileName(downloadOf(source), paperPart(options.paper));
+
+/** A card's press file: the game, version, day, then the card's kind and name. */
+export function pressName(source: PrintSource, cardId: string): string {
+	const card = source.game.cards.find((c) => c.id === cardId);
+	const kind = source.game.kinds.find((k) => k.id === card?.kindId);
+	return pressFileName(downloadOf(source), kind?.name ?? 'cards', card?.name ?? 'card');
+}
 
 /** The first sheet of a build as SVG, with the plan's figures, for the print page (art linked, not embedded). */
 export async function previewFirstSheet(
@@ -164,12 +178,14 @@ export async function previewFirstSheet(
 	artUrl: (sha256: string) => string
 ): Promise<ApiAnswer<typeof PrintPreviewSchema>> {
 	const faces = await renderGameFaces(source.game, await artBytes(source.game), { kinds: options.kinds, sets: options.sets });
+	const sheetOptions = toSheetOptions(options);
 	let plan;
 	try {
-		plan = planSheets({ faces: faces.cards, options: toSheetOptions(options) });
+		plan = planSheets({ faces: faces.cards, options: sheetOptions });
 	} catch (e) {
 		throw new ApiError(400, (e as Error).message);
 	}
+	const pages = countPages(plan, !!sheetOptions.cuttingGuide);
 	const group = plan.groups[0];
 	if (!group) throw new ApiError(400, 'Nothing to print: the chosen card kinds have no cards with copies');
 	const page = group.pages[0];
@@ -178,7 +194,8 @@ export async function previewFirstSheet(
 	return {
 		svg,
 		sheets: plan.sheetCount,
-		pages: plan.groups.reduce((n, g) => n + g.pages.length, 0),
+		pages: pages.total,
+		guidePages: pages.guidePages,
 		cardsPerSheet: group.imposition.cardsPerSheet,
 		columns: group.imposition.columns,
 		rows: group.imposition.rows,
@@ -201,7 +218,7 @@ export function pngDpi(value: string | null | undefined): number {
 	return dpi;
 }
 
-export const pngZipName = (source: PrintSource, dpi: number) => `${fileStem(source)}-cards-${dpi}dpi.zip`;
+export const pngZipName = (source: PrintSource, dpi: number) => pngZipFileName(downloadOf(source), dpi);
 
 /**
  * A PNG zip drawn on every print worker at once: each draws a share of the faces (and keeps

@@ -57,9 +57,11 @@ async function start(): Promise<Runtime> {
 	}
 	const database = await openConfiguredDatabase(config.databaseUrl, config.dataDir);
 	const mail = await startMail(database.db, config.smtpUrl);
+	let demoNote: string | null = null;
 	if (config.demo) {
-		const { seedDemo } = await import('./demo');
+		const { seedDemo, demoSignInNote } = await import('./demo');
 		await database.exclusive(() => seedDemo(database.db));
+		demoNote = await demoSignInNote(database.db);
 	}
 	// Print workers start now, load fonts and wasm and build the latest games once, so the
 	// first build is not the slow one.
@@ -86,6 +88,9 @@ async function start(): Promise<Runtime> {
 		await database.close();
 	};
 	process.once('sveltekit:shutdown', () => void stop());
+	// The start-up log: where to open the app and, in demo mode, how to sign in.
+	console.log(`Paddock is ready: open ${config.origin}`);
+	if (demoNote) console.log(demoNote);
 	return runtime;
 }
 

@@ -443,7 +443,7 @@ export const printJobs = pgTable(
 		fileName: text('file_name').notNull(),
 		fileKey: text('file_key'),
 		/** Sheets, pages, bytes and warnings of the finished file. */
-		result: jsonb('result').$type<{ sheets?: number; pages?: number; bytes: number; warnings: string[] }>(),
+		result: jsonb('result').$type<{ sheets?: number; pages?: number; guidePages?: number; bytes: number; warnings: string[] }>(),
 		error: jsonb('error').$type<{ status: number; message: string }>(),
 		attempts: integer('attempts').notNull().default(0),
 		createdAt: createdAt(),

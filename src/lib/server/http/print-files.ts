@@ -3,7 +3,7 @@
  * one card's press PDF and the PNG zip. A proof's files are built from its snapshot only.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, fileStem, pdfxTarget, buildPngZip, pngDpi, pngZipName } from '../printing';
+import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, sheetsName, pressName, pdfxTarget, buildPngZip, pngDpi, pngZipName } from '../printing';
 import { PrintQuerySchema } from '$lib/print/options';
 import { isUuid } from '$lib/schemas/ids';
 
@@ -21,7 +21,7 @@ export async function sheetsPdf(event: Ev) {
 	const { onProgress: _none, ...plain } = options;
 	const result = await runPrint({ type: 'sheets', isolated: !!source.proofNumber, game: source.game, art: await artBytes(source.game), options: plain });
 	await logDownload(d, source, 'sheets');
-	return fileResponse(result.bytes, 'application/pdf', `${fileStem(source)}-sheets.pdf`, result.warnings);
+	return fileResponse(result.bytes, 'application/pdf', sheetsName(source, options), result.warnings);
 }
 
 export async function pressPdf(event: Ev) {
@@ -46,7 +46,7 @@ export async function pressPdf(event: Ev) {
 		options: { colour, cropMarks: marks, date: source.date, ...(pdfx ? { pdfx } : {}) }
 	});
 	await logDownload(d, source, `press:${cardId}`);
-	return fileResponse(result.bytes, 'application/pdf', `${fileStem(source)}-${cardId}.pdf`, result.warnings);
+	return fileResponse(result.bytes, 'application/pdf', pressName(source, cardId), result.warnings);
 }
 
 export async function cardsZip(event: Ev) {

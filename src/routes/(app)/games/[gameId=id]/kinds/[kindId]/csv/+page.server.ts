@@ -7,6 +7,8 @@ import { csvColumns } from '$lib/game/csv';
 import type { Game } from '$lib/game/model';
 import { importBasis, planImport } from './import-plan';
 
+const removals = (n: number) => `${n} ${n === 1 ? 'card' : 'cards'}`;
+
 /** Largest CSV accepted: far more rows than any kind holds, small enough to parse at once. */
 const CSV_LIMIT_CHARS = 1_000_000;
 
@@ -81,6 +83,12 @@ export const actions = {
 		if (!preview.ok) return fail(400, { ...again, problem: 'Nothing was imported: the file has errors.' });
 		if (String(body.get('basis') ?? '') !== basis)
 			return fail(409, { ...again, problem: 'The cards changed since your preview. Nothing was imported; check this new preview and confirm again.' });
+		// Removing cards needs the count the person saw and agreed to.
+		if (removeMissing && preview.missing.length > 0 && Number(body.get('confirmRemove')) !== preview.missing.length)
+			return fail(400, {
+				...again,
+				problem: `Nothing was imported: this would remove ${removals(preview.missing.length)}. Look at the list below and confirm the import again.`
+			});
 		if (writes.length === 0) return { applied: { added: 0, changed: 0, removed: 0 } };
 		try {
 			await applyChanges(
