@@ -11,7 +11,7 @@ import pg from 'pg';
 import { openWorld, type World } from './harness';
 import { oddsJobs, printJobs } from '$lib/server/db/schema';
 import { storage } from '$lib/server/storage';
-import { JOB_FILES_LOCK, JOB_KEEP_MS, holdingJobFiles, sweepFinishedJobs } from '$lib/server/job-sweep';
+import { JOB_FILES_LOCK, JOB_KEEP_MS, JOB_LOST_MS, holdingJobFiles, sweepFinishedJobs } from '$lib/server/job-sweep';
 
 let w: World;
 beforeAll(async () => {
@@ -91,7 +91,7 @@ describe('sweeping finished jobs', () => {
 		const sweep = await sweepFinishedJobs(w.db, later);
 		expect(sweep.swept).toBe(true);
 		expect(await storage().list('print/')).toEqual([]);
-		// A job still running is never swept, however old.
+		// A job still running is not swept.
 		expect((await w.db.select().from(printJobs).where(eq(printJobs.state, 'running'))).length).toBeGreaterThan(0);
 	});
 
@@ -107,6 +107,26 @@ describe('sweeping finished jobs', () => {
 		expect(await storage().has(key(5))).toBe(true);
 	});
 
+	it('closes a job still open long after it was queued as failed, so its waiter hears so, then sweeps it', async () => {
+		const lostPrint = await printRow(null, null);
+		const lostOdds = await oddsRow(null);
+		const longAgo = ago(JOB_LOST_MS + MINUTE);
+		await w.db.update(printJobs).set({ createdAt: longAgo }).where(eq(printJobs.id, lostPrint));
+		await w.db.update(oddsJobs).set({ createdAt: longAgo }).where(eq(oddsJobs.id, lostOdds));
+		const sweep = await sweepFinishedJobs(w.db);
+		expect(sweep.lost).toBe(2);
+		const [p] = await w.db.select().from(printJobs).where(eq(printJobs.id, lostPrint));
+		expect(p.state).toBe('failed');
+		expect(p.error?.message).toMatch(/lost; start it again/);
+		const [o] = await w.db.select().from(oddsJobs).where(eq(oddsJobs.id, lostOdds));
+		expect(o.state).toBe('failed');
+		expect(o.error).toMatch(/lost; start it again/);
+		// Kept for its ten minutes like any finished job, then swept.
+		await sweepFinishedJobs(w.db, new Date(Date.now() + JOB_KEEP_MS + MINUTE));
+		expect(await w.db.select().from(printJobs).where(eq(printJobs.id, lostPrint))).toEqual([]);
+		expect(await w.db.select().from(oddsJobs).where(eq(oddsJobs.id, lostOdds))).toEqual([]);
+	});
+
 	const server = process.env.PADDOCK_TEST_DATABASE_URL;
 	it.runIf(server)('one process at a time: with the lock held elsewhere a sweep does nothing', async () => {
 		await storage().putOnce(key(6), bytes(6), 'application/pdf');
@@ -117,7 +137,7 @@ describe('sweeping finished jobs', () => {
 			// Another process finishing a job (the shared hold) or sweeping (the exclusive one).
 			await other.query(`select pg_advisory_xact_lock_shared(${BigInt.asIntN(64, JOB_FILES_LOCK)})`);
 			const sweep = await sweepFinishedJobs(w.db);
-			expect(sweep).toEqual({ swept: false, rows: 0, files: 0 });
+			expect(sweep).toEqual({ swept: false, lost: 0, rows: 0, files: 0 });
 			expect(await storage().has(key(6))).toBe(true);
 			await other.query('commit');
 		} finally {

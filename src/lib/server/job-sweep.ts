@@ -8,13 +8,18 @@
  * an old one left; finishing a job holds the same lock shared (`holdingJobFiles`), so a sweep
  * never deletes a file between a build finding it in place and its row naming it.
  */
-import { and, isNotNull, lt, sql } from 'drizzle-orm';
+import { and, inArray, isNotNull, lt, sql } from 'drizzle-orm';
 import type { Db } from './db';
 import { oddsJobs, printJobs } from './db/schema';
 import { storage } from './storage';
 
 /** A finished job's row and file stay this long to be read. */
 export const JOB_KEEP_MS = 10 * 60 * 1000;
+/**
+ * A job still open this long after it was queued is taken as lost (the queue gave up on it when
+ * its last attempt's process died) and closed as failed, so whoever waits for it hears so.
+ */
+export const JOB_LOST_MS = 6 * 60 * 60 * 1000;
 /** How often each process offers to sweep. */
 const SWEEP_EVERY_MS = Number(process.env.PADDOCK_SWEEP_SECONDS ?? 60) * 1000;
 /** The advisory lock's key (any fixed number, the same in every process). */
@@ -36,16 +41,32 @@ export async function holdingJobFiles<T>(db: Db, work: (tx: Db) => Promise<T>): 
 export interface Sweep {
 	/** False when another process was sweeping (or a job was being finished): nothing done. */
 	swept: boolean;
+	/** Jobs closed as lost. */
+	lost: number;
 	rows: number;
 	files: number;
 }
 
-/** Deletes what finished before `now - JOB_KEEP_MS`, and built files no job row names. */
+/**
+ * Closes jobs lost long ago, deletes what finished before `now - JOB_KEEP_MS`, and built files
+ * no job row names.
+ */
 export async function sweepFinishedJobs(db: Db, now = new Date()): Promise<Sweep> {
 	return db.transaction(async (tx) => {
 		// Both drivers (PGlite, node-postgres) answer `{ rows }`.
 		const lock = (await tx.execute(sql`select pg_try_advisory_xact_lock(${lockKey}) as got`)) as unknown as { rows: { got?: boolean }[] };
-		if (!lock.rows[0]?.got) return { swept: false, rows: 0, files: 0 };
+		if (!lock.rows[0]?.got) return { swept: false, lost: 0, rows: 0, files: 0 };
+		const lostBefore = new Date(now.getTime() - JOB_LOST_MS);
+		const lostPrints = await tx
+			.update(printJobs)
+			.set({ state: 'failed', error: { status: 500, message: 'The build was lost; start it again' }, finishedAt: now })
+			.where(and(inArray(printJobs.state, ['queued', 'running']), lt(printJobs.createdAt, lostBefore)))
+			.returning({ id: printJobs.id });
+		const lostOdds = await tx
+			.update(oddsJobs)
+			.set({ state: 'failed', error: 'The run was lost; start it again', finishedAt: now })
+			.where(and(inArray(oddsJobs.state, ['queued', 'running']), lt(oddsJobs.createdAt, lostBefore)))
+			.returning({ id: oddsJobs.id });
 		const cutoff = new Date(now.getTime() - JOB_KEEP_MS);
 		const prints = await tx.delete(printJobs).where(lt(printJobs.finishedAt, cutoff)).returning({ id: printJobs.id });
 		const odds = await tx.delete(oddsJobs).where(lt(oddsJobs.finishedAt, cutoff)).returning({ id: oddsJobs.id });
@@ -58,7 +79,7 @@ export async function sweepFinishedJobs(db: Db, now = new Date()): Promise<Sweep
 			await storage().remove(key);
 			files++;
 		}
-		return { swept: true, rows: prints.length + odds.length, files };
+		return { swept: true, lost: lostPrints.length + lostOdds.length, rows: prints.length + odds.length, files };
 	});
 }
 
