@@ -32,6 +32,7 @@ import { CHROMIUM, CHROMIUM_ARGS } from '../tests/e2e/env';
 import { benchOdds } from './bench/odds';
 import { benchCluster } from './bench/cluster';
 import { benchArtMemory } from './bench/art-memory';
+import { benchUploadMemory } from './bench/upload-memory';
 
 const { values: flags } = parseArgs({
 	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
@@ -503,7 +504,8 @@ async function main() {
 				targets,
 				odds: await benchOdds(),
 				cluster: await benchCluster(),
-				artMemory: await benchArtMemory()
+				artMemory: await benchArtMemory(),
+				uploadMemory: await benchUploadMemory()
 			},
 			null,
 			'\t'

@@ -6,6 +6,7 @@
  * Run alone with `npx tsx scripts/bench/art-memory.ts`.
  */
 import { spawnSync } from 'node:child_process';
+import { randomFillSync } from 'node:crypto';
 import { deflateSync, crc32 } from 'node:zlib';
 import { fileURLToPath } from 'node:url';
 
@@ -20,10 +21,11 @@ export interface ArtMemoryBench {
 	wallMs: number;
 }
 
-/** A grey RGB PNG, written row by row (ISO/IEC 15948 chunk layout). */
-function bigPng(width: number, height: number): Uint8Array {
+/** A grey RGB PNG, written row by row (ISO/IEC 15948 chunk layout); `noiseRows` rows of random pixels make it large on the wire too. */
+export function bigPng(width: number, height: number, noiseRows = 0): Uint8Array {
 	const raw = Buffer.alloc((1 + width * 3) * height, 0x80);
 	for (let y = 0; y < height; y++) raw[y * (1 + width * 3)] = 0;
+	for (let y = 0; y < Math.min(noiseRows, height); y++) randomFillSync(raw, y * (1 + width * 3) + 1, width * 3);
 	const chunk = (type: string, data: Buffer) => {
 		const length = Buffer.alloc(4);
 		length.writeUInt32BE(data.length);
@@ -38,7 +40,7 @@ function bigPng(width: number, height: number): Uint8Array {
 	ihdr[8] = 8;
 	ihdr[9] = 2;
 	return new Uint8Array(
-		Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw, { level: 9 })), chunk('IEND', Buffer.alloc(0))])
+		Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw, { level: noiseRows ? 1 : 9 })), chunk('IEND', Buffer.alloc(0))])
 	);
 }
 

@@ -39,7 +39,8 @@ export async function startServer(port: number, buildDir = 'build'): Promise<Ser
 	const url = `http://localhost:${port}`;
 	const child: ChildProcess = spawn(process.execPath, [join(buildDir, 'index.js')], {
 		cwd: ROOT,
-		env: { ...process.env, PORT: String(port), ORIGIN: url, PADDOCK_DATA_DIR: dataDir, PADDOCK_DEMO: '1', DATABASE_URL: '' },
+		// The body limit `npm start` sets (scripts/start.js); the framework's own default refuses art uploads.
+		env: { ...process.env, PORT: String(port), ORIGIN: url, PADDOCK_DATA_DIR: dataDir, PADDOCK_DEMO: '1', DATABASE_URL: '', BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '210M' },
 		stdio: ['ignore', 'pipe', 'inherit']
 	});
 	let out = '';
