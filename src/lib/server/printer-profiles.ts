@@ -1,7 +1,7 @@
 /** A team's printer profiles, kept by printers and designers, versioned against lost updates. */
 import { and, asc, eq, sql } from 'drizzle-orm';
 import type { Db } from './db';
-import { printerProfiles } from './db/schema';
+import { games, printerProfiles } from './db/schema';
 import { DEFAULT_INK_LIMIT_PCT, type PressCondition, type PrinterProfile } from '$lib/schemas/printing';
 import { checkPressProfile } from '$lib/print/colour/icc';
 import { PressColour, type PressProfile } from '$lib/print/colour/cmm';
@@ -178,4 +178,28 @@ export async function deleteProfile(db: Db, teamId: string, id: string, userId: 
 	const gone = await db.delete(printerProfiles).where(and(eq(printerProfiles.teamId, teamId), eq(printerProfiles.id, id))).returning();
 	if (!gone.length) throw new ProfileError(404, 'No such printer profile in this team');
 	await logActivity(db, { teamId, userId, action: 'profile.deleted', detail: { name: gone[0].name } });
+}
+
+/**
+ * The game's default press profile: a printer profile of the game's team (its uploaded ICC or
+ * the built-in one), or null for the built-in profile. PDF/X files, soft proofs and the print
+ * page use it whenever no printer profile is named.
+ */
+export async function setGamePressProfile(db: Db, actor: { userId: string; teamId: string }, gameId: string, profileId: string | null) {
+	const profile = profileId ? await findProfile(db, actor.teamId, profileId) : null;
+	const [row] = await db
+		.update(games)
+		.set({ pressProfileId: profile?.id ?? null, updatedAt: new Date() })
+		.where(and(eq(games.id, gameId), eq(games.teamId, actor.teamId)))
+		.returning({ id: games.id });
+	if (!row) throw new ProfileError(404, 'No such game in this team');
+	const summary = await gamePressSummary(db, actor.teamId, profile?.id ?? null);
+	await logActivity(db, {
+		teamId: actor.teamId,
+		gameId,
+		userId: actor.userId,
+		action: 'game.press',
+		detail: { profile: profile?.name ?? null, condition: summary.conditionIdentifier }
+	});
+	return summary;
 }

@@ -52,7 +52,8 @@ export const answerOf = (proof: CardSoftProof): ApiAnswer<typeof SoftProofSchema
 	conditionIdentifier: proof.conditionIdentifier
 });
 
-const PreviewSoftProofSchema = SoftProofChoiceSchema.extend({
+const PreviewSoftProofSchema = z.strictObject({
+	...SoftProofChoiceSchema.shape,
 	/** The kind and card as they stand in the editor, saved or not. */
 	kind: CardKindSchema,
 	card: CardSchema.optional()
