@@ -10,7 +10,7 @@ import { as, g } from './role-table';
 import { demoStage } from './role-rows/odds';
 import { oddsScenarios } from '$lib/server/db/schema';
 import { loadGame, saveSettings } from '$lib/server/game-store';
-import { cancelOddsJob, oddsJobView, pricesAtProof, type JobView } from '$lib/server/odds';
+import { cancelOddsJob, oddsJobView, pricesAtProof, stopOddsRunsHere, type JobView } from '$lib/server/odds';
 import { cutProof, snapshotOf } from '$lib/server/proofs';
 import { coinsForPlace } from '$lib/game/model';
 import * as oddsApi from '../../src/routes/api/v1/games/[gameId=id]/odds/+server';
@@ -111,6 +111,30 @@ describe('POST /api/v1/games/{gameId}/odds', () => {
 		expect(later.state).toBe('cancelled');
 		expect(later.result).toBeUndefined();
 	}, 90_000);
+
+	it('a run stopped with its process is run again by the shared queue, or else closed with a word to run it again', async () => {
+		const { body } = await post({ race: { players: 4 }, samples: 200_000, seed: 6 });
+		const designer = w.callers.designer!.id;
+		let view: JobView = body.job;
+		for (let i = 0; i < 600 && view.done === 0 && view.state !== 'done'; i++) {
+			await new Promise((r) => setTimeout(r, 50));
+			view = await oddsJobView(w.db, designer, body.job.id);
+		}
+		stopOddsRunsHere();
+		const shared = !!process.env.PADDOCK_TEST_DATABASE_URL;
+		for (let i = 0; i < 1200 && view.state !== 'done' && view.state !== 'failed'; i++) {
+			await new Promise((r) => setTimeout(r, 100));
+			view = await oddsJobView(w.db, designer, body.job.id);
+		}
+		if (shared) {
+			expect(view.state).toBe('done');
+			expect(view.result!.kind === 'race' && view.result!.samples).toBe(200_000);
+		} else if (view.state !== 'done') {
+			// (Unless it had already finished when the stop came.)
+			expect(view.state).toBe('failed');
+			expect(view.error).toBe('The server stopped during the run; run it again');
+		}
+	}, 180_000);
 });
 
 describe('saved scenarios', () => {

@@ -200,6 +200,9 @@ export async function oddsJobView(db: Db, userId: string, id: string): Promise<J
 /** Runs this process is computing, to stop at once on a cancel made here or on shutdown. */
 const runningHere = new Map<string, { controller: AbortController; stopping: boolean }>();
 
+/** A run stopped with its process (not cancelled by its owner). */
+class OddsRunStopped extends Error {}
+
 /** Cancels a run, whichever process is computing it (that one notices within a moment). */
 export async function cancelOddsJob(db: Db, userId: string, id: string): Promise<JobView> {
 	await findOddsJob(db, userId, id);
@@ -278,8 +281,12 @@ export async function runQueuedOddsJob(db: Db, id: string): Promise<void> {
 	} catch (e) {
 		clearInterval(watch);
 		await writing;
-		// Cancelled by its owner: the row says so already. Stopped with the process: run elsewhere.
-		if (e instanceof OddsCancelled && !here.stopping) return;
+		// Cancelled by its owner: the row says so already. Stopped with the process: run elsewhere
+		// (a shared queue), or closed with a word to run it again (this process was the only one).
+		if (e instanceof OddsCancelled) {
+			if (!here.stopping) return;
+			throw new OddsRunStopped('The server stopped during the run; run it again');
+		}
 		throw e;
 	} finally {
 		clearInterval(watch);
@@ -298,16 +305,16 @@ function answerOf(req: QueuedOdds, r: OddsJobResult): OddsAnswer {
 
 /** Gives up on a run after its last attempt. */
 export async function failOddsJob(db: Db, id: string, error: unknown) {
-	console.error(error);
+	if (!(error instanceof OddsRunStopped)) console.error(error);
 	await db
 		.update(oddsJobs)
-		.set({ state: 'failed', error: 'The run failed', finishedAt: new Date() })
+		.set({ state: 'failed', error: error instanceof OddsRunStopped ? error.message : 'The run failed', finishedAt: new Date() })
 		.where(and(eq(oddsJobs.id, id), inArray(oddsJobs.state, OPEN)));
 }
 
 /**
- * On shutdown: stops the runs this process is computing. With a shared queue they are taken
- * up again by another process at once rather than after they expire.
+ * On shutdown: stops the runs this process is computing, which can be long. With a shared
+ * queue they are taken up again by another process at once rather than after they expire.
  */
 export function stopOddsRunsHere() {
 	for (const here of runningHere.values()) {

@@ -80,8 +80,8 @@ async function start(): Promise<Runtime> {
 	const stop = async () => {
 		stopSweeping();
 		// Running builds finish (or, past the wait, are left for another process to retry); odds
-		// runs, which can be long, stop now and are taken up again elsewhere.
-		if (jobQueue().shared) stopOddsRunsHere();
+		// runs, which can be long, stop now (taken up again elsewhere on a shared queue).
+		stopOddsRunsHere();
 		await jobQueue().stop();
 		await closePrintPool();
 		await runtime.stopCatcher?.();
