@@ -29,7 +29,7 @@ type Handler = (event: never) => Promise<Response>;
 interface Row {
 	/** The route file under src/routes/api/v1. */
 	file: string;
-	method: 'POST' | 'PUT' | 'PATCH';
+	method: 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 	who: Who;
 	params: () => Record<string, string>;
 	/** A body the route accepts as it stands. */
@@ -79,6 +79,8 @@ const ROWS: Row[] = [
 		params: () => ({ teamId: w.teamId, profileId }),
 		body: () => ({ ...DEFAULT_PROFILE, name: 'Strict shop', version: 1 })
 	},
+	// The confirmation names another game, so even an accepted body would delete nothing.
+	{ file: 'games/[gameId=id]/+server.ts', method: 'DELETE', who: 'owner', params: gameP, body: () => ({ confirm: 'Not this game' }) },
 	{ file: 'games/[gameId=id]/mute/+server.ts', method: 'PUT', who: 'owner', params: gameP, body: () => ({ muted: true }) },
 	{ file: 'games/[gameId=id]/settings/+server.ts', method: 'PUT', who: 'owner', params: gameP, body: () => ({ version: game.rogueRunner?.version ?? 0 }) },
 	{ file: 'games/[gameId=id]/preview/+server.ts', method: 'POST', who: 'owner', params: gameP, body: () => ({ kind: game.kinds[0], side: 'front' }) },
