@@ -33,6 +33,7 @@ import { benchOdds } from './bench/odds';
 import { benchCluster } from './bench/cluster';
 import { benchArtMemory } from './bench/art-memory';
 import { benchUploadMemory } from './bench/upload-memory';
+import { benchPdfx } from './bench/pdfx';
 
 const { values: flags } = parseArgs({
 	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
@@ -505,7 +506,8 @@ async function main() {
 				odds: await benchOdds(),
 				cluster: await benchCluster(),
 				artMemory: await benchArtMemory(),
-				uploadMemory: await benchUploadMemory()
+				uploadMemory: await benchUploadMemory(),
+				pdfx: await benchPdfx()
 			},
 			null,
 			'\t'
