@@ -141,14 +141,13 @@ export const playerCounts = (game: Game) => setupPlayerCounts(game);
  * with PGlite, by any process's workers with a PostgreSQL server. The row holds what was fixed
  * when it was queued (the game as data and the checked request), so a retry elsewhere after a
  * crash computes the same answer; its progress, its answer, and a cancel from any process.
+ * Finished rows are kept ten minutes (./job-sweep.ts).
  */
 type QueuedOdds = { game: Game; target: number } & (
 	| { kind: 'stage'; scenario: Scenario; samples: number; seed: number }
 	| { kind: 'race'; players: number; races: number; seed: number }
 );
 
-/** A finished run's answer stays this long to be read. */
-export const ODDS_KEEP_MS = 10 * 60 * 1000;
 /** Jobs one person may have waiting or running at once. */
 const MAX_OPEN_PER_USER = 4;
 /** Progress is written, and a cancel looked for, at most this often. */
