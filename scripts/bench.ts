@@ -10,7 +10,11 @@
  *     PNG per distinct face (rendered beforehand at 300 dpi, timed separately) at the same mm
  *     positions, through Playwright's page.pdf().
  *
- * Writes bench-results.json. Flags: --repeats N, --no-chromium.
+ * (f) the print CLI against chromium as whole processes, alternated (./bench/cli-race.ts).
+ * (g) the built server under HTTP load: memory, first sheet, faces, /me under builds, the PNG
+ *     zip (./bench/server.ts; port BENCH_PORT, default 4431).
+ *
+ * Writes bench-results.json. Flags: --repeats N, --no-chromium, --no-server.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -22,21 +26,21 @@ import { demoGameWithArt } from '../src/lib/demo/demo-art';
 import type { BetType, Card, Game } from '../src/lib/game/model';
 import { PrintCache } from '../src/lib/print/cache';
 import { forgetSharedFonts } from '../src/lib/print/pdf-fontkit';
-import type { FaceLayout } from '../src/lib/print/display-list';
 import { loadFonts } from '../src/lib/print/fonts';
-import { buildGamePdf, cachedFacePng, renderGameFaces, type GamePdfOptions } from '../src/lib/print/job';
-import { paperSize } from '../src/lib/print/paper';
+import { buildGamePdf, type GamePdfOptions } from '../src/lib/print/job';
 import { PrintPool } from '../src/lib/print/pool';
-import { planSheets, type SheetOptions } from '../src/lib/print/sheet-plan';
 import { CHROMIUM, CHROMIUM_ARGS } from '../tests/e2e/env';
 import { benchOdds } from './bench/odds';
 import { benchCluster } from './bench/cluster';
 import { benchArtMemory } from './bench/art-memory';
 import { benchUploadMemory } from './bench/upload-memory';
 import { benchPdfx } from './bench/pdfx';
+import { writeChromiumSheets } from './bench/chromium-sheets';
+import { benchCliRace } from './bench/cli-race';
+import { benchServer } from './bench/server';
 
 const { values: flags } = parseArgs({
-	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
+	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'no-server': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
 });
 const REPEATS = Math.max(1, Number(flags.repeats ?? 5));
 /** The job every scenario runs: A4, spaced, long-edge duplex, crop marks, cutting guide. */
@@ -204,10 +208,7 @@ interface ChromiumResult {
 	pages: number;
 }
 
-/**
- * The same sheets as HTML: one absolutely positioned <img> per card at the slot Paddock's plan
- * gives it (mm), backs mirrored as in the PDF, one CSS page per sheet side. No crop marks.
- */
+/** Chromium printing the same sheets (./bench/chromium-sheets.ts) from inside one process. */
 async function benchChromium(label: string, game: Game, art: Map<string, Uint8Array>): Promise<ChromiumResult> {
 	const paddockCold = async () => {
 		forgetSharedFonts();
@@ -216,49 +217,11 @@ async function benchChromium(label: string, game: Game, art: Map<string, Uint8Ar
 	const { chromium } = await import('@playwright/test');
 	const dir = mkdtempSync(join(tmpdir(), 'paddock-bench-'));
 	try {
-		const cache = new PrintCache();
-		const faces = await renderGameFaces(game, art, { cache });
-		const keys = new Map<FaceLayout, string>();
-		for (const c of faces.cards) {
-			keys.set(c.front, c.frontKey);
-			if (c.back && c.backKey) keys.set(c.back, c.backKey);
-		}
-		const files = new Map<FaceLayout, string>();
-		const pre = await timed(async () => {
-			for (const [face, key] of keys) {
-				const name = `f${files.size}.png`;
-				writeFileSync(join(dir, name), await cachedFacePng(face, key, faces.images, 300, cache));
-				files.set(face, name);
-			}
-		});
-		const options: SheetOptions = { ...JOB, marginMm: 5, cuttingGuide: false, backOffsetMm: undefined, sets: 1, marks: true, duplex: JOB.duplex };
-		const plan = planSheets({ faces: faces.cards, options });
-		const sheet = paperSize(JOB.paper);
-		const pages: string[] = [];
-		for (const g of plan.groups) {
-			const landscape = g.imposition.orientation === 'landscape';
-			for (const p of g.pages) {
-				const imgs = p.cards
-					.map((c) => {
-						const b = c.slot.bleedBox;
-						return `<img src="${files.get(c.face)}" style="left:${b.xMm}mm;top:${b.yMm}mm;width:${b.widthMm}mm;height:${b.heightMm}mm">`;
-					})
-					.join('');
-				pages.push(`<section class="${landscape ? 'land' : 'port'}">${imgs}</section>`);
-			}
-		}
-		const [w, h] = [sheet.widthMm, sheet.heightMm];
-		const html = `<!doctype html><html><head><meta charset="utf-8"><style>
-@page port { size: ${w}mm ${h}mm; margin: 0 }
-@page land { size: ${h}mm ${w}mm; margin: 0 }
-html, body { margin: 0; padding: 0 }
-section { position: relative; overflow: hidden; break-after: page }
-section.port { page: port; width: ${w}mm; height: ${h}mm }
-section.land { page: land; width: ${h}mm; height: ${w}mm }
-img { position: absolute; display: block }
-</style></head><body>${pages.join('\n')}</body></html>`;
-		const htmlPath = join(dir, 'sheets.html');
-		writeFileSync(htmlPath, html);
+		const sheets = await writeChromiumSheets(game, art, JOB, dir);
+		const htmlPath = sheets.htmlPath;
+		const pre = { ms: sheets.prerenderMs };
+		const files = { size: sheets.faces };
+		const pages = { length: sheets.pages };
 
 		const withLaunch: number[] = [];
 		const pageOnly: number[] = [];
@@ -507,7 +470,9 @@ async function main() {
 				cluster: await benchCluster(),
 				artMemory: await benchArtMemory(),
 				uploadMemory: await benchUploadMemory(),
-				pdfx: await benchPdfx()
+				pdfx: await benchPdfx(),
+				cliRace: flags['no-chromium'] ? null : await benchCliRace(demo, art, JOB),
+				server: flags['no-server'] ? null : await benchServer()
 			},
 			null,
 			'\t'

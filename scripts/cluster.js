@@ -5,6 +5,7 @@
 // cluster and a local bucket (s3rver) are started and removed on exit: nothing is kept.
 // Ctrl-C stops every process gracefully: running requests and builds finish first.
 import { spawn } from 'node:child_process';
+import { appEnv } from './app-env.js';
 import { randomBytes } from 'node:crypto';
 import { buildAppIfStale } from './build-if-stale.js';
 import { startPostgres, startBucket } from './services.js';
@@ -39,7 +40,7 @@ if (!storageUrl) {
 }
 
 const env = {
-	...process.env,
+	...appEnv(),
 	DATABASE_URL: databaseUrl,
 	PADDOCK_STORAGE_URL: storageUrl,
 	// Every process must sign and read the same session cookies.

@@ -3,6 +3,7 @@
 import { spawn } from 'node:child_process';
 import { createInterface } from 'node:readline';
 import { buildAppIfStale } from './build-if-stale.js';
+import { appEnv } from './app-env.js';
 
 const root = new URL('..', import.meta.url).pathname;
 process.chdir(root);
@@ -16,7 +17,7 @@ try {
 
 const port = process.env.PORT ?? '3000';
 const env = {
-	...process.env,
+	...appEnv(),
 	PORT: port,
 	ORIGIN: process.env.ORIGIN ?? `http://localhost:${port}`,
 	// Game bundles and artwork are larger than the default cap; routes apply their own limits.
