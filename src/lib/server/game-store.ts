@@ -7,7 +7,7 @@
 import { and, asc, eq, max, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Db } from './db';
-import { games, gameObjects, gameSettings, type Collection } from './db/schema';
+import { games, gameObjects, gameSettings, objectVersions, type Collection } from './db/schema';
 import {
 	ArtAssetSchema,
 	CardKindSchema,
@@ -178,6 +178,8 @@ export interface Change {
 	/** The version the caller saw; null for a new object; undefined skips the check (imports). */
 	baseVersion?: number | null;
 	remove?: boolean;
+	/** Set when the change brings back an earlier version (from the history). */
+	restoredFrom?: number;
 }
 
 /**
@@ -217,6 +219,17 @@ export async function applyChanges(
 					);
 				}
 			}
+			const record = (version: number, action: 'saved' | 'deleted' | 'restored', data: Record<string, unknown>) =>
+				tx.insert(objectVersions).values({
+					gameId,
+					collection: change.collection,
+					objectId: change.id,
+					version,
+					action,
+					restoredFrom: change.restoredFrom ?? null,
+					data,
+					changedBy: by.userId
+				});
 			if (change.remove) {
 				if (!row) throw new StoreError(404, `No ${NOUN[change.collection]} with id ${change.id}`);
 				await tx
@@ -224,11 +237,14 @@ export async function applyChanges(
 					.where(
 						objectWhere(gameId, change.collection, change.id)
 					);
+				// Kept in the history, so a delete can be undone by restoring it.
+				await record(row.version, 'deleted', row.data);
 				continue;
 			}
 			const object = parseObject(change.collection, change.object);
 			if (object.id !== change.id) throw new StoreError(400, 'The id in the body differs from the id in the path');
 			const data = stripVersion(object) as Record<string, unknown>;
+			const action = change.restoredFrom !== undefined ? 'restored' : 'saved';
 			if (row) {
 				await tx
 					.update(gameObjects)
@@ -236,19 +252,28 @@ export async function applyChanges(
 					.where(
 						objectWhere(gameId, change.collection, change.id)
 					);
+				await record(row.version + 1, action, data);
 			} else {
 				const [{ last }] = await tx
 					.select({ last: max(gameObjects.position) })
 					.from(gameObjects)
 					.where(and(eq(gameObjects.gameId, gameId), eq(gameObjects.collection, change.collection)));
+				// An object brought back after a delete carries on its numbering, so versions never repeat.
+				const [{ before }] = await tx
+					.select({ before: max(objectVersions.version) })
+					.from(objectVersions)
+					.where(and(eq(objectVersions.gameId, gameId), eq(objectVersions.collection, change.collection), eq(objectVersions.objectId, change.id)));
+				const version = (before ?? 0) + 1;
 				await tx.insert(gameObjects).values({
 					gameId,
 					collection: change.collection,
 					id: change.id,
 					position: (last ?? -1) + 1,
 					data,
+					version,
 					updatedBy: by.userId
 				});
+				await record(version, action, data);
 			}
 		}
 		const game = await loadGame(tx, gameId);
@@ -323,5 +348,8 @@ export async function writeGameContent(db: Db, gameId: string, game: Game, userI
 			}))
 		);
 		for (let i = 0; i < rows.length; i += 200) await tx.insert(gameObjects).values(rows.slice(i, i + 200));
+		// The history starts with the game as it arrived.
+		const first = rows.map((r) => ({ gameId, collection: r.collection, objectId: r.id, version: 1, action: 'saved' as const, data: r.data, changedBy: userId }));
+		for (let i = 0; i < first.length; i += 200) await tx.insert(objectVersions).values(first.slice(i, i + 200));
 	});
 }

@@ -225,6 +225,32 @@ export const gameObjects = pgTable(
 	(t) => [primaryKey({ columns: [t.gameId, t.collection, t.id] })]
 );
 
+/**
+ * Every version an object of a game has had: each save, delete and restore adds a row, so the
+ * history lists who changed what when, and any version can be restored (as a new version).
+ * `data` is the object as saved; for a delete, as it was just before.
+ */
+export const objectVersions = pgTable(
+	'object_versions',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		gameId: uuid('game_id')
+			.notNull()
+			.references(() => games.id, { onDelete: 'cascade' }),
+		collection: text('collection', { enum: COLLECTIONS }).notNull(),
+		objectId: text('object_id').notNull(),
+		/** The object's version this row records (for a delete: the version deleted). */
+		version: integer('version').notNull(),
+		action: text('action', { enum: ['saved', 'deleted', 'restored'] }).notNull(),
+		/** For a restore: the version brought back. */
+		restoredFrom: integer('restored_from'),
+		data: jsonb('data').$type<Record<string, unknown>>().notNull(),
+		changedBy: uuid('changed_by').references(() => users.id, { onDelete: 'set null' }),
+		changedAt: timestamp('changed_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [index('object_versions_object').on(t.gameId, t.collection, t.objectId, t.changedAt), index('object_versions_game').on(t.gameId, t.changedAt)]
+);
+
 /** Game-wide settings that are not objects of their own (the rogue runner). */
 export const gameSettings = pgTable('game_settings', {
 	gameId: uuid('game_id')
