@@ -332,7 +332,14 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 		);
 		const refused = flood.filter((r) => r.status === 503);
 		const withRetry = refused.filter((r) => r.headers.get('retry-after'));
-		results.push(verdict('30 builds at once: refused with 503 + Retry-After', `${refused.length} refused, ${withRetry.length} with Retry-After`, 'every refusal has Retry-After', withRetry.length === refused.length));
+		results.push(
+			verdict(
+				'30 builds at once: refused with 503 + Retry-After',
+				`${refused.length} refused, ${withRetry.length} with Retry-After`,
+				'some refused past the queue, each with Retry-After',
+				refused.length > 0 && withRetry.length === refused.length
+			)
+		);
 		// Let the flood's accepted builds finish before the zip.
 		const accepted = await Promise.all(flood.filter((r) => r.status === 202).map(async (r) => ((await r.json()) as { id: string }).id));
 		for (const id of accepted) {
