@@ -1,11 +1,11 @@
 import type { Handle, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
-import { authHandle } from '$lib/server/auth/authjs';
-import { knowClient, cookiePolicy, signInLimitAnswer } from '$lib/server/auth/request-hooks';
+import { authHandle } from '$lib/server/http/authjs';
+import { knowClient, cookiePolicy, signInLimitAnswer } from '$lib/server/http/request-hooks';
 import { startRuntime, db, StartupError } from '$lib/server/runtime';
 import { findUser } from '$lib/server/users';
 import { userForToken } from '$lib/server/api-tokens';
-import { apiError } from '$lib/server/api';
+import { apiError } from '$lib/server/http/api';
 import { refuseControlCharacters } from '$lib/server/http/form-text';
 import { DataDirLockedError } from '$lib/server/db/lock';
 import '$lib/schemas/messages';

@@ -9,7 +9,7 @@ import { PNG } from 'pngjs';
 import { openWorld, type World } from './harness';
 import { exportBundle, importBundle } from '$lib/server/game-io';
 import { openArtFile } from '$lib/server/art-files';
-import { StoreError } from '$lib/server/game-store';
+import { Invalid } from '$lib/server/refusals';
 import { games } from '$lib/server/db/schema';
 import { writeBundle } from '$lib/game/bundle';
 import type { Game } from '$lib/game/model';
@@ -43,8 +43,8 @@ async function refused(zip: Uint8Array) {
 		() => null,
 		(x) => x
 	);
-	expect(e).toBeInstanceOf(StoreError);
-	expect((e as StoreError).status).toBe(400);
+	expect(e).toBeInstanceOf(Invalid);
+	expect((e as Invalid).reason).toBe('invalid');
 	expect(await gameCount()).toBe(before);
 	return (e as Error).message;
 }

@@ -4,7 +4,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openWorld, fakeEvent, type World } from './harness';
-import { applyChanges, loadGame, StoreError } from '$lib/server/game-store';
+import { applyChanges, loadGame } from '$lib/server/game-store';
+import { Invalid } from '$lib/server/refusals';
 import { savedNote } from '$lib/server/http/object-actions';
 import * as runnersPage from '../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
 import * as artPage from '../../src/routes/(app)/games/[gameId=id]/art/+page.server';
@@ -72,7 +73,7 @@ describe('saving one object is never refused because of another', () => {
 		const table = (await loadGame(w.db, w.gameId)).moneyTables.find((t) => t.id === 'exact-fit')!;
 		await expect(
 			applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: table.id, baseVersion: table.version!, object: { ...table, name: 'Renamed' } }], by)
-		).rejects.toThrow(StoreError);
+		).rejects.toThrow(Invalid);
 	});
 
 	it('a runner in use cannot be deleted and the answer says what uses it', async () => {

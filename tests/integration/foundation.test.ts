@@ -5,7 +5,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { count, eq } from 'drizzle-orm';
 import { openWorld, fakeEvent, statusOf, type World } from './harness';
-import { acceptInvitation, changeRole, invite, removeMember, TeamError } from '$lib/server/teams';
+import { acceptInvitation, changeRole, invite, removeMember } from '$lib/server/teams';
+import { NotFound } from '$lib/server/refusals';
 import { invitations, users, games, caughtMail, memberships } from '$lib/server/db/schema';
 import { signInRefused, recordFailure, MAX_PER_ACCOUNT } from '$lib/server/auth/throttle';
 import { createUser, EmailTakenError, startPasswordReset, finishPasswordReset } from '$lib/server/users';
@@ -60,7 +61,7 @@ describe('invitations', () => {
 	});
 
 	it('an unknown token and the wrong account are refused', async () => {
-		await expect(acceptInvitation(w.db, 'inv_nonsense', w.callers.artist!)).rejects.toBeInstanceOf(TeamError);
+		await expect(acceptInvitation(w.db, 'inv_nonsense', w.callers.artist!)).rejects.toBeInstanceOf(NotFound);
 		const { token } = await invite(w.db, { teamId: w.teamId, invitedBy: w.callers.owner!.id, email: 'someone@x.test', role: 'reviewer' });
 		await expect(acceptInvitation(w.db, token, w.callers.outsider!)).rejects.toThrow(/sent to someone@x.test/);
 	});

@@ -4,7 +4,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openWorld, type World } from './harness';
-import { loadGame, applyChanges, StoreError } from '$lib/server/game-store';
+import { loadGame, applyChanges } from '$lib/server/game-store';
+import { Invalid } from '$lib/server/refusals';
 import { exportBundle, importBundle } from '$lib/server/game-io';
 import { demoGame } from '$lib/demo/demo';
 import { BundleError } from '$lib/game/bundle';
@@ -37,7 +38,7 @@ describe('game store', () => {
 		const v = table.version!;
 		await applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: table.id, baseVersion: v, object: { ...table, name: 'Tab one' } }], by);
 		const stale = applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: table.id, baseVersion: v, object: { ...table, name: 'Tab two' } }], by);
-		await expect(stale).rejects.toMatchObject({ status: 409 });
+		await expect(stale).rejects.toMatchObject({ reason: 'conflict' });
 		const after = await loadGame(w.db, w.gameId);
 		expect(after.moneyTables[0].name).toBe('Tab one');
 		expect(after.moneyTables[0].version).toBe(v + 1);
@@ -48,7 +49,7 @@ describe('game store', () => {
 		const before = await loadGame(w.db, w.gameId);
 		const runner = before.runners[0];
 		const removal = applyChanges(w.db, w.gameId, [{ collection: 'runner', id: runner.id, baseVersion: runner.version!, remove: true }], by);
-		await expect(removal).rejects.toBeInstanceOf(StoreError);
+		await expect(removal).rejects.toBeInstanceOf(Invalid);
 		const after = await loadGame(w.db, w.gameId);
 		expect(after.runners).toHaveLength(before.runners.length);
 		expect(after.version).toBe(before.version);

@@ -73,11 +73,12 @@ describe('layers', () => {
 	});
 
 	it('services leave HTTP to $lib/server/http', () => {
-		// Still to move behind the adapters: the API wrapper and the guard (HTTP statuses), and Auth.js's hooks.
-		const WAITING = new Set(['api.ts', 'guard.ts', 'auth/authjs.ts', 'auth/request-hooks.ts']);
 		const server = join(SRC, 'lib', 'server');
-		const services = filesUnder(server).filter((f) => !isTest(f) && !f.startsWith(join(server, 'http') + '/') && !WAITING.has(relative(server, f)));
+		const services = filesUnder(server).filter((f) => !isTest(f) && !f.startsWith(join(server, 'http') + '/'));
 		expect(offences(services, (s) => /^(@sveltejs\/kit|\$app\/)/.test(s))).toEqual([]);
+		// Services take the actor the guard resolved, never the request, and refuse in domain terms.
+		const requestShaped = services.filter((f) => /\bApp\.Locals\b|\bRequestEvent\b|\bnew Response\(|\bstatus: 4\d\d\b/.test(readFileSync(f, 'utf8')));
+		expect(requestShaped.map(rel)).toEqual([]);
 	});
 
 	it('no engine folder imports itself in a circle', () => {

@@ -7,7 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { count, eq } from 'drizzle-orm';
 import { openWorld, fakeEvent, type World } from './harness';
 import { applyChanges, loadGame } from '$lib/server/game-store';
-import { cutProof, releaseProof, withdrawProof, addComment, giveVerdict, snapshotOf, setMuted, ProofError } from '$lib/server/proofs';
+import { cutProof, releaseProof, withdrawProof, addComment, giveVerdict, snapshotOf, setMuted } from '$lib/server/proofs';
+import { Invalid } from '$lib/server/refusals';
 import { proofComments, proofVerdicts, proofs, caughtMail } from '$lib/server/db/schema';
 import { compareGames } from '$lib/game/compare';
 import * as proofFace from '../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/cards/[cardId]/face.svg/+server';
@@ -94,7 +95,7 @@ describe('bad input writes nothing', () => {
 		const card = snapshotOf(p).cards[0];
 		const before = await rows(proofComments);
 		await expect(addComment(w.db, p, designer(), { cardId: card.id, side: 'front', xMm: 500, yMm: 10, body: 'far away' })).rejects.toThrow(/outside the card/);
-		await expect(addComment(w.db, p, designer(), { cardId: 'no-such-card', side: 'front', xMm: 1, yMm: 1, body: 'x' })).rejects.toBeInstanceOf(ProofError);
+		await expect(addComment(w.db, p, designer(), { cardId: 'no-such-card', side: 'front', xMm: 1, yMm: 1, body: 'x' })).rejects.toBeInstanceOf(Invalid);
 		const { CommentSchema } = await import('$lib/server/proofs');
 		expect(CommentSchema.safeParse({ cardId: card.id, xMm: 1, yMm: 1, body: '   ' }).success).toBe(false);
 		expect(await rows(proofComments)).toBe(before);

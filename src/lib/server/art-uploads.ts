@@ -12,7 +12,8 @@ import { and, desc, eq, max } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Db } from './db';
 import { artFiles, artVersions, users } from './db/schema';
-import { applyChanges, loadGame, StoreError, type Change } from './game-store';
+import { applyChanges, loadGame, type Change } from './game-store';
+import { Busy, Invalid, NotFound } from './refusals';
 import { storeArtFile } from './art-files';
 import { StorageUnavailableError } from './storage';
 import { inspectArt, ArtRejected, type InspectedArt } from '$lib/art/inspect';
@@ -42,14 +43,14 @@ export interface UploadOutcome {
 	game: Game;
 }
 
-/** Inspects, checks and stores one upload; throws ArtRejected or StoreError (with a status) when refused. */
+/** Inspects, checks and stores one upload; throws ArtRejected or a refusal when refused. */
 export async function uploadArt(
 	d: Db,
 	gameId: string,
 	upload: UploadRequest,
 	by: { userId: string; teamId: string }
 ): Promise<UploadOutcome> {
-	if (upload.bytes.byteLength === 0) throw new StoreError(400, 'The upload is empty: choose an art file (PNG, JPEG or SVG).');
+	if (upload.bytes.byteLength === 0) throw new Invalid('The upload is empty: choose an art file (PNG, JPEG or SVG).');
 	const inspected = await inspectArt(upload.bytes, upload.fileName);
 	const fileName = cleanFileName(upload.fileName, inspected);
 	const before = await loadGame(d, gameId);
@@ -58,9 +59,9 @@ export async function uploadArt(
 	let displaced: ArtAsset[] = [];
 	if (upload.replaces) {
 		const current = before.art.find((a) => a.id === upload.replaces!.artId);
-		if (!current) throw new StoreError(404, `No art piece with id ${upload.replaces.artId} in this game`);
+		if (!current) throw new NotFound(`No art piece with id ${upload.replaces.artId} in this game`);
 		if (current.sha256 === inspected.sha256)
-			throw new StoreError(400, `This is the very file “${current.fileName}” already has; nothing was replaced.`);
+			throw new Invalid(`This is the very file “${current.fileName}” already has; nothing was replaced.`);
 		const { version: _v, dpiX: _x, dpiY: _y, ...kept } = current;
 		object = { ...kept, ...fileFacts(inspected), fileName, status: upload.status ?? current.status };
 	} else {
@@ -92,7 +93,7 @@ export async function uploadArt(
 			.where(and(eq(artVersions.gameId, gameId), eq(artVersions.artId, object.id)));
 		await storeArtFile(t, inspected).catch((e) => {
 			// The transaction rolls back: no row points at a file the store does not have.
-			if (e instanceof StorageUnavailableError) throw new StoreError(503, 'The file store cannot be reached right now, so nothing was stored. Try again in a moment.');
+			if (e instanceof StorageUnavailableError) throw new Busy('The file store cannot be reached right now, so nothing was stored. Try again in a moment.');
 			throw e;
 		});
 		const [version] = await tx
@@ -155,7 +156,7 @@ export async function placeArt(
 ): Promise<{ art: ArtAsset; displaced: ArtAsset[]; game: Game }> {
 	const before = await loadGame(d, gameId);
 	const current = before.art.find((a) => a.id === change.id);
-	if (!current) throw new StoreError(404, `No art piece with id ${change.id} in this game`);
+	if (!current) throw new NotFound(`No art piece with id ${change.id} in this game`);
 	const { version: _v, ...kept } = current;
 	const object: ArtAsset = { ...kept, status: change.status, assignment: change.assignment };
 	const displaced = holdersOf(before, object.assignment, object.id);

@@ -5,7 +5,8 @@ import { artVersions } from './db/schema';
 import { readBundle, writeBundle } from '$lib/game/bundle';
 import type { Game } from '$lib/game/model';
 import { createGame, type Game as GameRow } from './games';
-import { loadGame, writeGameContent, gameProblems, StoreError } from './game-store';
+import { loadGame, writeGameContent, gameProblems } from './game-store';
+import { Invalid } from './refusals';
 import { storeArtFile, readArtFile } from './art-files';
 import { logActivity } from './activity';
 import { inspectArt, ArtRejected, type InspectedArt } from '$lib/art/inspect';
@@ -16,9 +17,9 @@ export async function createGameFrom(
 	input: { teamId: string; userId: string; game: Game; art: Map<string, Uint8Array> }
 ): Promise<GameRow> {
 	const problems = gameProblems(input.game);
-	if (problems.length) throw new StoreError(400, `The game has problems: ${problems.slice(0, 5).join('; ')}`);
+	if (problems.length) throw new Invalid(`The game has problems: ${problems.slice(0, 5).join('; ')}`);
 	for (const asset of input.game.art) {
-		if (!input.art.has(asset.sha256)) throw new StoreError(400, `Art file ${asset.fileName} is missing`);
+		if (!input.art.has(asset.sha256)) throw new Invalid(`Art file ${asset.fileName} is missing`);
 	}
 	// The same inspection as an upload; the game keeps what the file is, not what the bundle says.
 	const inspected = new Map<string, InspectedArt>();
@@ -27,7 +28,7 @@ export async function createGameFrom(
 		try {
 			inspected.set(asset.sha256, await inspectArt(input.art.get(asset.sha256)!, asset.fileName));
 		} catch (e) {
-			if (e instanceof ArtRejected) throw new StoreError(400, `Art file ${asset.fileName} was refused: ${e.message}`);
+			if (e instanceof ArtRejected) throw new Invalid(`Art file ${asset.fileName} was refused: ${e.message}`);
 			throw e;
 		}
 	}

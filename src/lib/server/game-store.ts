@@ -25,6 +25,7 @@ import {
 } from '$lib/game/model';
 import { logActivity } from './activity';
 import type { ReadinessItem } from '$lib/game/readiness';
+import { NotFound, Conflict, Invalid } from './refusals';
 
 export const OBJECT_SCHEMAS = {
 	runner: RunnerSchema,
@@ -58,17 +59,6 @@ const NOUN: Record<Collection, string> = {
 export const SettingsSchema = z.strictObject({ rogueRunner: RogueRunnerSchema.optional(), raceRules: RaceRulesSchema.optional() });
 type Settings = z.infer<typeof SettingsSchema>;
 
-/** A refusal with an HTTP status and a message for people; `current` is the newer object on 409. */
-export class StoreError extends Error {
-	constructor(
-		readonly status: 400 | 404 | 409 | 503,
-		message: string,
-		readonly current?: unknown
-	) {
-		super(message);
-	}
-}
-
 /** One object of a game, by collection and id. */
 const objectWhere = (gameId: string, collection: Collection, id: string) =>
 	and(eq(gameObjects.gameId, gameId), eq(gameObjects.collection, collection), eq(gameObjects.id, id));
@@ -79,7 +69,7 @@ type Conn = Db | Tx;
 /** The whole game as one document, each object carrying its row version (`row`: the game row, when read already). */
 export async function loadGame(db: Conn, gameId: string, row?: typeof games.$inferSelect): Promise<Game> {
 	const [game] = row ? [row] : await db.select().from(games).where(eq(games.id, gameId));
-	if (!game) throw new StoreError(404, 'No such game');
+	if (!game) throw new NotFound('No such game');
 	const [settings] = await db.select().from(gameSettings).where(eq(gameSettings.gameId, gameId));
 	const rows = await db
 		.select()
@@ -147,9 +137,7 @@ function saveVerdict(game: Game, changes: Change[]): { refusals: string[]; warni
 function parseObject<C extends Collection>(collection: C, value: unknown): ObjectOf<C> {
 	const parsed = OBJECT_SCHEMAS[collection].safeParse(value);
 	if (!parsed.success) {
-		throw new StoreError(
-			400,
-			parsed.error.issues
+		throw new Invalid(parsed.error.issues
 				.slice(0, 5)
 				.map((i) => `${i.path.join('.') || collection}: ${i.message}`)
 				.join('; ')
@@ -203,18 +191,16 @@ export async function applyChanges(
 				.for('update');
 			if (change.baseVersion !== undefined) {
 				if (change.baseVersion === null && row) {
-					throw new StoreError(409, `A ${NOUN[change.collection]} with id ${change.id} exists already`, {
+					throw new Conflict(`A ${NOUN[change.collection]} with id ${change.id} exists already`, {
 						...row.data,
 						version: row.version
 					});
 				}
 				if (change.baseVersion !== null && !row) {
-					throw new StoreError(404, `No ${NOUN[change.collection]} with id ${change.id}`);
+					throw new NotFound(`No ${NOUN[change.collection]} with id ${change.id}`);
 				}
 				if (row && change.baseVersion !== null && row.version !== change.baseVersion) {
-					throw new StoreError(
-						409,
-						`Someone saved this ${NOUN[change.collection]} after you opened it (your version ${change.baseVersion}, now ${row.version}). Your changes were not saved; reload to see theirs.`,
+					throw new Conflict(`Someone saved this ${NOUN[change.collection]} after you opened it (your version ${change.baseVersion}, now ${row.version}). Your changes were not saved; reload to see theirs.`,
 						{ ...row.data, version: row.version }
 					);
 				}
@@ -231,7 +217,7 @@ export async function applyChanges(
 					changedBy: by.userId
 				});
 			if (change.remove) {
-				if (!row) throw new StoreError(404, `No ${NOUN[change.collection]} with id ${change.id}`);
+				if (!row) throw new NotFound(`No ${NOUN[change.collection]} with id ${change.id}`);
 				await tx
 					.delete(gameObjects)
 					.where(
@@ -242,7 +228,7 @@ export async function applyChanges(
 				continue;
 			}
 			const object = parseObject(change.collection, change.object);
-			if (object.id !== change.id) throw new StoreError(400, 'The id in the body differs from the id in the path');
+			if (object.id !== change.id) throw new Invalid('The id in the body differs from the id in the path');
 			const data = stripVersion(object) as Record<string, unknown>;
 			const action = change.restoredFrom !== undefined ? 'restored' : 'saved';
 			if (row) {
@@ -279,7 +265,7 @@ export async function applyChanges(
 		const game = await loadGame(tx, gameId);
 		const { refusals: problems, warnings } = saveVerdict(game, changes);
 		if (problems.length) {
-			throw new StoreError(400, problems.slice(0, 5).join('; ') + (problems.length > 5 ? ` (and ${problems.length - 5} more)` : ''));
+			throw new Invalid(problems.slice(0, 5).join('; ') + (problems.length > 5 ? ` (and ${problems.length - 5} more)` : ''));
 		}
 		await touchGame(tx, gameId);
 		await logActivity(tx as unknown as Db, {
@@ -315,7 +301,7 @@ export async function saveSettings(
 		const [row] = await tx.select().from(gameSettings).where(eq(gameSettings.gameId, gameId)).for('update');
 		const current = row?.version ?? 0;
 		if (baseVersion !== null && baseVersion !== current) {
-			throw new StoreError(409, 'Someone changed these settings after you opened them; reload to see theirs.');
+			throw new Conflict('Someone changed these settings after you opened them; reload to see theirs.');
 		}
 		const merged = storedSettings({ ...(row ? SettingsSchema.parse(row.data) : {}), ...settings });
 		if (row) {
@@ -325,7 +311,7 @@ export async function saveSettings(
 		}
 		const game = await loadGame(tx, gameId);
 		const problems = findReferenceProblems(game).map((p) => p.message);
-		if (problems.length) throw new StoreError(400, problems.slice(0, 5).join('; '));
+		if (problems.length) throw new Invalid(problems.slice(0, 5).join('; '));
 		await touchGame(tx, gameId);
 		await logActivity(tx as unknown as Db, { teamId: by.teamId, gameId, userId: by.userId, action: 'game.settings' });
 	});

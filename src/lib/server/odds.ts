@@ -9,7 +9,7 @@ import { z } from 'zod';
 import type { Db } from './db';
 import { oddsJobs, oddsScenarios } from './db/schema';
 import { jobQueue } from './job-queue';
-import { ApiError } from './api';
+import { Invalid, NotFound, Refusal } from './refusals';
 import { loadGame } from './game-store';
 import { logActivity } from './activity';
 import type { Game } from '$lib/game/model';
@@ -83,7 +83,7 @@ type Checked =
 
 function check(body: unknown): Checked {
 	const refuse = (issues: string[]) => {
-		throw new ApiError(400, issues.join('; '), 'invalid', issues);
+		throw new Invalid(issues.join('; '), issues, 'invalid');
 	};
 	if (typeof body !== 'object' || body === null || Array.isArray(body)) refuse(['Send one JSON object']);
 	const b = body as Record<string, unknown>;
@@ -118,7 +118,7 @@ export async function runOdds(db: Db, actor: OddsActor, body: unknown): Promise<
 	try {
 		setup = raceSetupFromGame(game, req.players);
 	} catch (e) {
-		if (e instanceof RaceSetupError) throw new ApiError(400, e.message);
+		if (e instanceof RaceSetupError) throw new Invalid(e.message);
 		throw e;
 	}
 	if (req.samples <= INLINE_RACES) {
@@ -172,7 +172,7 @@ async function startOddsJob(db: Db, owner: OddsActor, request: QueuedOdds): Prom
 		.select({ open: sql<number>`count(*)::int` })
 		.from(oddsJobs)
 		.where(and(eq(oddsJobs.userId, owner.userId), inArray(oddsJobs.state, OPEN)));
-	if (open >= MAX_OPEN_PER_USER) throw new ApiError(429, `You have ${open} odds runs going; wait for one or cancel it`);
+	if (open >= MAX_OPEN_PER_USER) throw new Refusal('too-many', `You have ${open} odds runs going; wait for one or cancel it`);
 	const total = request.kind === 'stage' ? request.samples : request.races;
 	const [row] = await db
 		.insert(oddsJobs)
@@ -187,7 +187,7 @@ async function findOddsJob(db: Db, userId: string, id: string): Promise<OddsJobR
 		.select()
 		.from(oddsJobs)
 		.where(and(eq(oddsJobs.id, id), eq(oddsJobs.userId, userId)));
-	if (!row) throw new ApiError(404, 'No such odds run (answers are kept for ten minutes)');
+	if (!row) throw new NotFound('No such odds run (answers are kept for ten minutes)');
 	return row;
 }
 
@@ -359,7 +359,7 @@ export async function listScenarios(db: Db, actor: OddsActor): Promise<SavedScen
 /** Saves a scenario under its name (a second save of the same name replaces it). */
 export async function saveScenario(db: Db, actor: OddsActor, input: unknown): Promise<SavedScenario> {
 	const parsed = SavedScenarioInputSchema.safeParse(input);
-	if (!parsed.success) throw new ApiError(400, describeIssues(parsed.error).join('; '), 'invalid', describeIssues(parsed.error));
+	if (!parsed.success) throw new Invalid(describeIssues(parsed.error).join('; '), describeIssues(parsed.error), 'invalid');
 	const { name, scenario, lastResult } = parsed.data;
 	return db.transaction(async (tx) => {
 		const [{ n }] = await tx
@@ -370,7 +370,7 @@ export async function saveScenario(db: Db, actor: OddsActor, input: unknown): Pr
 			.select()
 			.from(oddsScenarios)
 			.where(and(eq(oddsScenarios.gameId, actor.gameId), eq(oddsScenarios.name, name)));
-		if (!existing && n >= MAX_SAVED_SCENARIOS) throw new ApiError(400, `A game keeps at most ${MAX_SAVED_SCENARIOS} scenarios`);
+		if (!existing && n >= MAX_SAVED_SCENARIOS) throw new Invalid(`A game keeps at most ${MAX_SAVED_SCENARIOS} scenarios`);
 		const values = { scenario: scenario as unknown as Record<string, unknown>, lastResult: lastResult ?? null, updatedAt: new Date() };
 		const [row] = existing
 			? await tx.update(oddsScenarios).set(values).where(eq(oddsScenarios.id, existing.id)).returning()

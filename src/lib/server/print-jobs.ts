@@ -12,9 +12,9 @@ import { and, eq, lt, ne, sql } from 'drizzle-orm';
 import { createHash } from 'node:crypto';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
-import { ApiError } from './api';
+import { Busy, Conflict, NotFound, Refusal } from './refusals';
 import { artBytes, buildPngZip, sheetsName, pngZipName, runPrint, type PngJobOptions, type PrintSource } from './printing';
-import { storage, streamBody, StorageUnavailableError } from './storage';
+import { storage, StorageUnavailableError, type StoredFile } from './storage';
 import { jobQueue } from './job-queue';
 import { holdingJobFiles } from './job-sweep';
 import { printPool } from '$lib/print/pool';
@@ -59,7 +59,7 @@ export async function startPngJob(db: Db, source: PrintSource, options: PngJobOp
 async function queueJob(db: Db, source: PrintSource, request: SheetRequest | PngRequest, fileName: string): Promise<PrintJobRow> {
 	await db.delete(printJobs).where(lt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS)));
 	// A full local queue refuses now (503) rather than as a failed job later.
-	if (!jobQueue().shared && printPool().full) throw new ApiError(503, 'The print queue is full; try again in a minute', 'busy');
+	if (!jobQueue().shared && printPool().full) throw new Busy('The print queue is full; try again in a minute');
 	const [row] = await db
 		.insert(printJobs)
 		.values({ userId: source.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, fileName })
@@ -73,7 +73,7 @@ export async function jobFor(db: Db, userId: string, id: string): Promise<PrintJ
 		.select()
 		.from(printJobs)
 		.where(and(eq(printJobs.id, id), eq(printJobs.userId, userId)));
-	if (!job) throw new ApiError(404, 'No such print job (finished files are kept for ten minutes)');
+	if (!job) throw new NotFound('No such print job (finished files are kept for ten minutes)');
 	return job;
 }
 
@@ -92,20 +92,15 @@ export function jobState(job: PrintJobRow): ApiAnswer<typeof PrintJobSchema> {
 	};
 }
 
-/** The finished file, streamed from the store. */
-export async function jobFile(job: PrintJobRow): Promise<Response> {
-	if (job.state === 'failed') throw new ApiError(job.error?.status ?? 500, job.error?.message ?? 'The build failed');
-	if (job.state !== 'done' || !job.fileKey) throw new ApiError(409, 'The file is not ready yet');
-	const file = await storage().open(job.fileKey);
-	return new Response(streamBody(file), {
-		headers: {
-			'content-type': job.fileName.endsWith('.zip') ? 'application/zip' : 'application/pdf',
-			'content-length': String(file.bytes),
-			'content-disposition': `attachment; filename="${job.fileName}"`,
-			'x-paddock-warnings': String(job.result?.warnings.length ?? 0),
-			'cache-control': 'private, no-store'
-		}
-	});
+/** The finished file, opened in the store to be streamed. */
+export async function jobFile(job: PrintJobRow): Promise<{ file: StoredFile; fileName: string; warnings: string[] }> {
+	if (job.state === 'failed') {
+		const reason = job.error?.reason;
+		if (reason) throw new Refusal(reason, job.error?.message ?? 'The build failed');
+		throw new Error(job.error?.message ?? 'The build failed');
+	}
+	if (job.state !== 'done' || !job.fileKey) throw new Conflict('The file is not ready yet');
+	return { file: await storage().open(job.fileKey), fileName: job.fileName, warnings: job.result?.warnings ?? [] };
 }
 
 /**
@@ -164,10 +159,11 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		});
 	} catch (e) {
 		await writing;
-		if (e instanceof ApiError && e.status !== 503) {
+		// A refusal (bad options, a missing card) fails for good; a busy store is tried again.
+		if (e instanceof Refusal && e.reason !== 'busy') {
 			await db
 				.update(printJobs)
-				.set({ state: 'failed', error: { status: e.status, message: e.message }, finishedAt: new Date() })
+				.set({ state: 'failed', error: { reason: e.reason, message: e.message }, finishedAt: new Date() })
 				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
 			return;
 		}
@@ -180,6 +176,6 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 export async function failJob(db: Db, id: string, message = 'The build failed') {
 	await db
 		.update(printJobs)
-		.set({ state: 'failed', error: { status: 500, message }, finishedAt: new Date() })
+		.set({ state: 'failed', error: { message }, finishedAt: new Date() })
 		.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
 }

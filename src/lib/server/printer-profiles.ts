@@ -7,15 +7,7 @@ import { checkPressProfile } from '$lib/print/colour/icc';
 import { PressColour, type PressProfile } from '$lib/print/colour/cmm';
 import { BUILTIN_CONDITION, BUILTIN_PROFILE_NAME, builtinPressProfile } from '$lib/print/colour/press-profiles';
 import { logActivity } from './activity';
-
-export class ProfileError extends Error {
-	constructor(
-		readonly status: 400 | 404 | 409,
-		message: string
-	) {
-		super(message);
-	}
-}
+import { NotFound, Conflict, Invalid } from './refusals';
 
 const fields = (p: PrinterProfile) => ({
 	name: p.name,
@@ -89,7 +81,7 @@ export async function gamePressSummary(db: Db, teamId: string, pressProfileId: s
 /** The press profile a PDF/X file of this printer profile embeds: its uploaded ICC and condition, or the built-in ones. */
 export async function pressProfileOf(db: Db, teamId: string, id: string): Promise<PressProfile> {
 	const [row] = await db.select().from(printerProfiles).where(and(eq(printerProfiles.teamId, teamId), eq(printerProfiles.id, id)));
-	if (!row) throw new ProfileError(404, 'No such printer profile in this team');
+	if (!row) throw new NotFound('No such printer profile in this team');
 	if (!row.iccProfile) return builtinPressProfile();
 	return {
 		conditionIdentifier: row.pressCondition ?? 'Custom',
@@ -112,7 +104,7 @@ export async function setPressProfile(db: Db, teamId: string, id: string, icc: U
 		checkPressProfile(icc);
 		description = (await PressColour.open(icc)).description;
 	} catch (e) {
-		throw new ProfileError(400, (e as Error).message);
+		throw new Invalid((e as Error).message);
 	}
 	const [row] = await db
 		.update(printerProfiles)
@@ -149,7 +141,7 @@ export async function profilesOf(db: Db, teamId: string) {
 
 export async function findProfile(db: Db, teamId: string, id: string) {
 	const [row] = await db.select().from(printerProfiles).where(and(eq(printerProfiles.teamId, teamId), eq(printerProfiles.id, id)));
-	if (!row) throw new ProfileError(404, 'No such printer profile in this team');
+	if (!row) throw new NotFound('No such printer profile in this team');
 	return asProfile(row);
 }
 
@@ -162,21 +154,21 @@ export async function saveProfile(db: Db, teamId: string, p: PrinterProfile, use
 	}
 	const current = await findProfile(db, teamId, p.id);
 	if (p.version !== undefined && p.version !== current.version) {
-		throw new ProfileError(409, 'Someone saved this profile after you opened it; reload to see their changes.');
+		throw new Conflict('Someone saved this profile after you opened it; reload to see their changes.');
 	}
 	const [row] = await db
 		.update(printerProfiles)
 		.set({ ...fields(p), version: current.version + 1 })
 		.where(and(eq(printerProfiles.id, p.id), eq(printerProfiles.version, current.version)))
 		.returning();
-	if (!row) throw new ProfileError(409, 'Someone saved this profile after you opened it; reload to see their changes.');
+	if (!row) throw new Conflict('Someone saved this profile after you opened it; reload to see their changes.');
 	await logActivity(db, { teamId, userId, action: 'profile.saved', detail: { name: p.name } });
 	return asProfile(row);
 }
 
 export async function deleteProfile(db: Db, teamId: string, id: string, userId: string) {
 	const gone = await db.delete(printerProfiles).where(and(eq(printerProfiles.teamId, teamId), eq(printerProfiles.id, id))).returning();
-	if (!gone.length) throw new ProfileError(404, 'No such printer profile in this team');
+	if (!gone.length) throw new NotFound('No such printer profile in this team');
 	await logActivity(db, { teamId, userId, action: 'profile.deleted', detail: { name: gone[0].name } });
 }
 

@@ -4,13 +4,9 @@
  * engine's worker pool so the app stays responsive. Jobs started from the print page are in
  * ./print-jobs.ts.
  */
-import { requireGameRole, may } from './guard';
-import { ApiError } from './api';
-import { loadGame } from './game-store';
 import { readArtFile } from './art-files';
-import { requireProof } from './proof-access';
-import { snapshotOf } from './proofs';
-import { findProfile, pressProfileOf, ProfileError } from './printer-profiles';
+import { findProfile, pressProfileOf } from './printer-profiles';
+import { Busy, Invalid, NotFound } from './refusals';
 import { logActivity } from './activity';
 import type { Db } from './db';
 import type { Game } from '$lib/game/model';
@@ -41,34 +37,6 @@ export interface PrintSource {
 	pressProfileId?: string;
 }
 
-/** The working game (readers of the game) or a proof (printers: released proofs only). */
-export async function printSource(db: Db, locals: App.Locals, gameId: string, proofKey?: string): Promise<PrintSource> {
-	if (proofKey) {
-		const { proof, user, game } = await requireProof(db, locals, gameId, proofKey);
-		return {
-			game: snapshotOf(proof),
-			gameId,
-			teamId: game.teamId,
-			userId: user.id,
-			versionLabel: `proof ${proof.number}`,
-			proofNumber: proof.number,
-			date: proof.createdAt.toISOString().slice(0, 10),
-			pressProfileId: game.pressProfileId ?? undefined
-		};
-	}
-	const { user, game, role } = await requireGameRole(db, locals, gameId, 'release.read');
-	if (!may(role, 'game.read')) throw new ApiError(403, 'Printers print released proofs; open the proof to download its files');
-	return {
-		game: await loadGame(db, gameId),
-		gameId,
-		teamId: game.teamId,
-		userId: user.id,
-		versionLabel: `working copy v${game.version}`,
-		date: new Date().toISOString().slice(0, 10),
-		pressProfileId: game.pressProfileId ?? undefined
-	};
-}
-
 export async function artBytes(game: Game): Promise<Map<string, Uint8Array>> {
 	const art = new Map<string, Uint8Array>();
 	for (const a of game.art) if (!art.has(a.sha256)) art.set(a.sha256, await readArtFile(a.sha256));
@@ -82,7 +50,7 @@ export async function printOptions(db: Db, source: PrintSource, query: URLSearch
 	delete raw.profile;
 	let values = raw;
 	if (profileId) {
-		if (!isUuid(profileId)) throw new ApiError(404, 'No such printer profile in this team');
+		if (!isUuid(profileId)) throw new NotFound('No such printer profile in this team');
 		const profile = await findProfile(db, source.teamId, profileId);
 		// The profile's settings; a query may still choose sets, kinds and the kind of file.
 		const chosen = Object.fromEntries(['sets', 'kinds', 'output', 'intent'].flatMap((k) => (raw[k] ? [[k, raw[k]]] : [])));
@@ -92,7 +60,7 @@ export async function printOptions(db: Db, source: PrintSource, query: URLSearch
 	try {
 		options = parsePrintOptions(values);
 	} catch (e) {
-		if (e instanceof PrintOptionsError) throw new ApiError(400, e.message);
+		if (e instanceof PrintOptionsError) throw new Invalid(e.message);
 		throw e;
 	}
 	const pdfx = await pdfxTarget(db, source, options, profileId);
@@ -112,12 +80,7 @@ export async function pdfxTarget(
 	if (!options.output || options.output === 'plain') return undefined;
 	const pressId = profileId ?? source.pressProfileId;
 	let profile: PressProfile;
-	try {
-		profile = pressId ? await pressProfileOf(db, source.teamId, pressId) : await builtinPressProfile();
-	} catch (e) {
-		if (e instanceof ProfileError) throw new ApiError(e.status, e.message);
-		throw e;
-	}
+	profile = pressId ? await pressProfileOf(db, source.teamId, pressId) : await builtinPressProfile();
 	return { standard: options.output, profile, intent: options.intent ?? 'relative' };
 }
 
@@ -126,10 +89,11 @@ export async function runPrint(job: PrintJob, onProgress?: (done: number, total:
 	try {
 		return await printPool().run(job, { onProgress, affinity });
 	} catch (e) {
-		if (e instanceof PrintBusyError) throw new ApiError(503, e.message, 'busy');
+		if (e instanceof PrintBusyError) throw new Busy(e.message);
 		const status = (e as { status?: number }).status;
+		// Errors come back from the worker as data: its name and status say which refusal it was.
 		if ((e as Error).name === 'PrintOptionsError' || status === 400 || status === 404) {
-			throw new ApiError(status === 404 ? 404 : 400, (e as Error).message);
+			throw status === 404 ? new NotFound((e as Error).message) : new Invalid((e as Error).message);
 		}
 		throw e;
 	}
@@ -142,17 +106,6 @@ export async function logDownload(db: Db, source: PrintSource, what: string) {
 		userId: source.userId,
 		action: 'print.downloaded',
 		detail: { what, ...(source.proofNumber ? { proof: source.proofNumber } : {}) }
-	});
-}
-
-export function fileResponse(bytes: Uint8Array, type: string, name: string, warnings: string[] = []) {
-	return new Response(Buffer.from(bytes), {
-		headers: {
-			'content-type': type,
-			'content-disposition': `attachment; filename="${name}"`,
-			'x-paddock-warnings': String(warnings.length),
-			'cache-control': 'private, no-store'
-		}
 	});
 }
 
@@ -183,11 +136,11 @@ export async function previewFirstSheet(
 	try {
 		plan = planSheets({ faces: faces.cards, options: sheetOptions });
 	} catch (e) {
-		throw new ApiError(400, (e as Error).message);
+		throw new Invalid((e as Error).message);
 	}
 	const pages = countPages(plan, !!sheetOptions.cuttingGuide);
 	const group = plan.groups[0];
-	if (!group) throw new ApiError(400, 'Nothing to print: the chosen card kinds have no cards with copies');
+	if (!group) throw new Invalid('Nothing to print: the chosen card kinds have no cards with copies');
 	const page = group.pages[0];
 	const known = new Set(faces.images.keys());
 	const svg = sheetPreviewSvg(group, page, (id) => (known.has(id) ? artUrl(id) : undefined), options.marks);
@@ -214,7 +167,7 @@ export interface PngJobOptions {
 /** The resolution asked for a PNG zip (default 300), or 400. */
 export function pngDpi(value: string | null | undefined): number {
 	const dpi = Number(value ?? PNG_DPI_DEFAULT);
-	if (!Number.isInteger(dpi) || dpi < PNG_DPI_MIN || dpi > PNG_DPI_MAX) throw new ApiError(400, `dpi is a whole number from ${PNG_DPI_MIN} to ${PNG_DPI_MAX}`);
+	if (!Number.isInteger(dpi) || dpi < PNG_DPI_MIN || dpi > PNG_DPI_MAX) throw new Invalid(`dpi is a whole number from ${PNG_DPI_MIN} to ${PNG_DPI_MAX}`);
 	return dpi;
 }
 

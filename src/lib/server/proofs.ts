@@ -22,17 +22,9 @@ import { logActivity } from './activity';
 import { sendMail } from './mail';
 import { config } from './config';
 import { GameSchema, bleedMm, type Game } from '$lib/game/model';
+import { NotFound, Conflict, Invalid } from './refusals';
 
 export type Proof = typeof proofs.$inferSelect;
-
-export class ProofError extends Error {
-	constructor(
-		readonly status: 400 | 403 | 404 | 409,
-		message: string
-	) {
-		super(message);
-	}
-}
 
 export const CommentSchema = z.union([
 	z.strictObject({
@@ -137,7 +129,7 @@ export async function findProof(db: Db, gameId: string, key: { id?: string; numb
 		? and(eq(proofs.gameId, gameId), eq(proofs.id, key.id))
 		: and(eq(proofs.gameId, gameId), eq(proofs.number, key.number ?? -1));
 	const [proof] = await db.select().from(proofs).where(where);
-	if (!proof || (releasedOnly && !isReleased(proof))) throw new ProofError(404, 'No such proof');
+	if (!proof || (releasedOnly && !isReleased(proof))) throw new NotFound('No such proof');
 	return proof;
 }
 
@@ -148,7 +140,7 @@ export async function withdrawnRelease(db: Db, gameId: string, key: string): Pro
 		const proof = await findProof(db, gameId, { number: Number(key) }, false);
 		return proof.releasedAt && proof.withdrawnAt ? proof : null;
 	} catch (e) {
-		if (e instanceof ProofError) return null;
+		if (e instanceof NotFound) return null;
 		throw e;
 	}
 }
@@ -250,7 +242,7 @@ export async function addComment(
 	author: { id: string; name: string },
 	input: z.infer<typeof CommentSchema>
 ) {
-	if (proof.withdrawnAt) throw new ProofError(409, 'This proof is withdrawn; comment on a newer one.');
+	if (proof.withdrawnAt) throw new Conflict('This proof is withdrawn; comment on a newer one.');
 	const game = snapshotOf(proof);
 	let values: typeof proofComments.$inferInsert;
 	let thread: { id: string; cardId: string } | null = null;
@@ -259,19 +251,19 @@ export async function addComment(
 			.select()
 			.from(proofComments)
 			.where(and(eq(proofComments.id, input.replyTo), eq(proofComments.proofId, proof.id)));
-		if (!parent) throw new ProofError(404, 'No such comment to reply to');
+		if (!parent) throw new NotFound('No such comment to reply to');
 		const rootId = parent.threadId ?? parent.id;
 		thread = { id: rootId, cardId: parent.cardId };
 		values = { proofId: proof.id, threadId: rootId, cardId: parent.cardId, side: parent.side, xMm: parent.xMm, yMm: parent.yMm, body: input.body, authorId: author.id };
 	} else {
 		const card = game.cards.find((c) => c.id === input.cardId);
-		if (!card) throw new ProofError(400, 'That card is not in this proof');
+		if (!card) throw new Invalid('That card is not in this proof');
 		const kind = game.kinds.find((k) => k.id === card.kindId)!;
 		const bleed = bleedMm(kind.bleed);
 		const w = kind.size.widthMm + 2 * bleed;
 		const h = kind.size.heightMm + 2 * bleed;
 		if (input.xMm < 0 || input.yMm < 0 || input.xMm > w || input.yMm > h) {
-			throw new ProofError(400, `The pin is outside the card: the face is ${w.toFixed(2)} × ${h.toFixed(2)} mm with bleed.`);
+			throw new Invalid(`The pin is outside the card: the face is ${w.toFixed(2)} × ${h.toFixed(2)} mm with bleed.`);
 		}
 		values = { proofId: proof.id, cardId: card.id, side: input.side, xMm: input.xMm, yMm: input.yMm, body: input.body, authorId: author.id };
 	}
@@ -320,9 +312,9 @@ export async function resolveComment(db: Db, proof: Proof, commentId: string, us
 		.returning();
 	if (!row) {
 		const [any] = await db.select().from(proofComments).where(and(eq(proofComments.id, commentId), eq(proofComments.proofId, proof.id)));
-		if (!any) throw new ProofError(404, 'No such comment');
-		if (any.threadId) throw new ProofError(400, 'Resolve the thread from its first comment');
-		throw new ProofError(409, 'This comment is resolved already');
+		if (!any) throw new NotFound('No such comment');
+		if (any.threadId) throw new Invalid('Resolve the thread from its first comment');
+		throw new Conflict('This comment is resolved already');
 	}
 	const g = await gameRow(db, proof.gameId);
 	await logActivity(db, { teamId: g.teamId, gameId: proof.gameId, userId, action: 'comment.resolved', detail: { proof: proof.number, commentId } });
@@ -330,7 +322,7 @@ export async function resolveComment(db: Db, proof: Proof, commentId: string, us
 }
 
 export async function giveVerdict(db: Db, proof: Proof, reviewer: { id: string; name: string }, input: z.infer<typeof VerdictSchema>) {
-	if (proof.withdrawnAt) throw new ProofError(409, 'This proof is withdrawn; a verdict on it no longer counts.');
+	if (proof.withdrawnAt) throw new Conflict('This proof is withdrawn; a verdict on it no longer counts.');
 	const [row] = await db.insert(proofVerdicts).values({ proofId: proof.id, reviewerId: reviewer.id, verdict: input.verdict, note: input.note }).returning();
 	const g = await gameRow(db, proof.gameId);
 	await logActivity(db, { teamId: g.teamId, gameId: proof.gameId, userId: reviewer.id, action: 'proof.verdict', detail: { proof: proof.number, verdict: input.verdict } });
@@ -346,8 +338,8 @@ export async function giveVerdict(db: Db, proof: Proof, reviewer: { id: string; 
 }
 
 export async function releaseProof(db: Db, proof: Proof, by: { id: string; name: string }) {
-	if (proof.withdrawnAt) throw new ProofError(409, 'A withdrawn release cannot be released again; cut a new proof.');
-	if (proof.releasedAt) throw new ProofError(409, 'This proof is released already.');
+	if (proof.withdrawnAt) throw new Conflict('A withdrawn release cannot be released again; cut a new proof.');
+	if (proof.releasedAt) throw new Conflict('This proof is released already.');
 	const [row] = await db.update(proofs).set({ releasedAt: new Date(), releasedBy: by.id }).where(eq(proofs.id, proof.id)).returning();
 	const g = await gameRow(db, proof.gameId);
 	await logActivity(db, { teamId: g.teamId, gameId: proof.gameId, userId: by.id, action: 'proof.released', detail: { proof: proof.number } });
@@ -362,8 +354,8 @@ export async function releaseProof(db: Db, proof: Proof, by: { id: string; name:
 }
 
 export async function withdrawProof(db: Db, proof: Proof, by: { id: string; name: string }, note: string) {
-	if (!proof.releasedAt) throw new ProofError(409, 'Only a released proof can be withdrawn.');
-	if (proof.withdrawnAt) throw new ProofError(409, 'This release is withdrawn already.');
+	if (!proof.releasedAt) throw new Conflict('Only a released proof can be withdrawn.');
+	if (proof.withdrawnAt) throw new Conflict('This release is withdrawn already.');
 	const [row] = await db
 		.update(proofs)
 		.set({ withdrawnAt: new Date(), withdrawnBy: by.id, withdrawNote: note })

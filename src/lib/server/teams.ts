@@ -4,18 +4,9 @@ import type { Db } from './db';
 import { teams, memberships, invitations, users, type Role } from './db/schema';
 import { newToken, sha256 } from './auth/secrets';
 import { logActivity } from './activity';
+import { NotFound, Conflict, Invalid, Refusal } from './refusals';
 
 export const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
-
-/** A refusal a person can act on; routes answer it with its status and message. */
-export class TeamError extends Error {
-	constructor(
-		readonly status: 400 | 404 | 409 | 410,
-		message: string
-	) {
-		super(message);
-	}
-}
 
 export async function createTeam(db: Db, ownerId: string, name: string) {
 	return db.transaction(async (tx) => {
@@ -76,7 +67,7 @@ export async function invite(
 	const email = input.email.trim().toLowerCase();
 	const members = await membersOf(db, input.teamId);
 	if (members.some((m) => m.email.toLowerCase() === email)) {
-		throw new TeamError(409, `${email} is a member of this team already`);
+		throw new Conflict(`${email} is a member of this team already`);
 	}
 	const token = newToken('inv_');
 	const expiresAt = new Date(Date.now() + INVITATION_TTL_MS);
@@ -99,20 +90,18 @@ export async function findInvitation(db: Db, token: string) {
 		.from(invitations)
 		.innerJoin(teams, eq(teams.id, invitations.teamId))
 		.where(eq(invitations.tokenHash, sha256(token)));
-	if (!row) throw new TeamError(404, 'This invitation link is not valid. Ask for a new invitation.');
+	if (!row) throw new NotFound('This invitation link is not valid. Ask for a new invitation.');
 	const { invitation } = row;
-	if (invitation.acceptedAt) throw new TeamError(410, 'This invitation has been used already.');
+	if (invitation.acceptedAt) throw new Refusal('gone', 'This invitation has been used already.');
 	if (invitation.expiresAt <= new Date())
-		throw new TeamError(410, 'This invitation has expired. Ask the team owner for a new one.');
+		throw new Refusal('gone', 'This invitation has expired. Ask the team owner for a new one.');
 	return { ...invitation, teamName: row.teamName };
 }
 
 export async function acceptInvitation(db: Db, token: string, user: { id: string; email: string }) {
 	const invitation = await findInvitation(db, token);
 	if (invitation.email !== user.email.toLowerCase()) {
-		throw new TeamError(
-			400,
-			`This invitation was sent to ${invitation.email}. Sign in with that address to accept it.`
+		throw new Invalid(`This invitation was sent to ${invitation.email}. Sign in with that address to accept it.`
 		);
 	}
 	return db.transaction(async (tx) => {
@@ -121,7 +110,7 @@ export async function acceptInvitation(db: Db, token: string, user: { id: string
 			.set({ acceptedAt: new Date(), acceptedBy: user.id })
 			.where(and(eq(invitations.id, invitation.id)))
 			.returning();
-		if (!used) throw new TeamError(410, 'This invitation has been used already.');
+		if (!used) throw new Refusal('gone', 'This invitation has been used already.');
 		await tx
 			.insert(memberships)
 			.values({ teamId: invitation.teamId, userId: user.id, role: invitation.role })
@@ -152,14 +141,14 @@ async function memberRole(db: Db, teamId: string, userId: string) {
 		.select({ role: memberships.role })
 		.from(memberships)
 		.where(and(eq(memberships.teamId, teamId), eq(memberships.userId, userId)));
-	if (!row) throw new TeamError(404, 'No such member');
+	if (!row) throw new NotFound('No such member');
 	return row.role;
 }
 
 export async function changeRole(db: Db, teamId: string, userId: string, role: Role, by: string) {
 	const current = await memberRole(db, teamId, userId);
 	if (current === 'owner' && role !== 'owner' && (await ownerCount(db, teamId)) <= 1) {
-		throw new TeamError(409, 'A team needs at least one owner. Make someone else owner first.');
+		throw new Conflict('A team needs at least one owner. Make someone else owner first.');
 	}
 	await db
 		.update(memberships)
@@ -171,7 +160,7 @@ export async function changeRole(db: Db, teamId: string, userId: string, role: R
 export async function removeMember(db: Db, teamId: string, userId: string, by: string) {
 	const current = await memberRole(db, teamId, userId);
 	if (current === 'owner' && (await ownerCount(db, teamId)) <= 1) {
-		throw new TeamError(409, 'The last owner cannot be removed. Make someone else owner first.');
+		throw new Conflict('The last owner cannot be removed. Make someone else owner first.');
 	}
 	await db
 		.delete(memberships)

@@ -2,6 +2,7 @@
  * The database schema. Plain PostgreSQL types only, so the same schema and migrations run on
  * embedded PGlite (default) and on a PostgreSQL server (DATABASE_URL).
  */
+import type { RefusalReason } from '../refusals';
 import { sql } from 'drizzle-orm';
 import {
 	pgTable,
@@ -470,7 +471,8 @@ export const printJobs = pgTable(
 		fileKey: text('file_key'),
 		/** Sheets, pages, bytes and warnings of the finished file. */
 		result: jsonb('result').$type<{ sheets?: number; pages?: number; guidePages?: number; bytes: number; warnings: string[] }>(),
-		error: jsonb('error').$type<{ status: number; message: string }>(),
+		/** Why a build failed: a refusal's reason (failed for good), none for a fault. */
+		error: jsonb('error').$type<{ reason?: RefusalReason; message: string }>(),
 		attempts: integer('attempts').notNull().default(0),
 		createdAt: createdAt(),
 		finishedAt: timestamp('finished_at', { withTimezone: true })

@@ -6,9 +6,8 @@
 import { fail, redirect, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { ApiError, readBody } from '../api';
-import { requireGameRole } from '../guard';
-import { StoreError } from '../game-store';
+import { readBody } from './api';
+import { requireGameRole } from './guard';
 import { db } from '../runtime';
 import { placeArt, uploadArt, type UploadOutcome, type UploadRequest } from '../art-uploads';
 import { checkedForm } from './form-text';
@@ -16,6 +15,8 @@ import { ArtPlacementSchema, ReplaceFormSchema, UploadFieldsSchema, UploadFormSc
 import { ArtRejected, MAX_ART_BYTES } from '$lib/art/inspect';
 import { describeAssignment, parsePlaceKey } from '$lib/art/placement';
 import { ArtAssignmentSchema, type ArtAsset, type ArtAssignment } from '$lib/game/model';
+import { answerFor } from './answers';
+import { Invalid, Refusal } from '../refusals';
 
 /** Room for a multipart body's boundaries and small fields around the file (our own allowance). */
 export const FORM_ROOM_BYTES = 64 * 1024;
@@ -32,7 +33,7 @@ async function readCapped(request: Request, limit: number): Promise<Uint8Array> 
 	try {
 		return await readBody(request, limit);
 	} catch (e) {
-		if (e instanceof ApiError && e.status === 413) throw tooLarge();
+		if (e instanceof Refusal && e.reason === 'too-large') throw tooLarge();
 		throw e;
 	}
 }
@@ -44,7 +45,7 @@ export async function readArtForm(request: Request): Promise<FormData> {
 	try {
 		form = await new Response(new Uint8Array(bytes), { headers: { 'content-type': request.headers.get('content-type') ?? '' } }).formData();
 	} catch {
-		throw new StoreError(400, 'The form could not be read; send the art as multipart/form-data.');
+		throw new Invalid('The form could not be read; send the art as multipart/form-data.');
 	}
 	return checkedForm(form);
 }
@@ -61,7 +62,7 @@ export async function readApiUpload(request: Request, url: URL): Promise<UploadR
 	if (type.startsWith('multipart/form-data')) {
 		const form = await readArtForm(request);
 		const file = form.get('file');
-		if (!(file instanceof File)) throw new ApiError(400, 'Send the art as the multipart field “file” (or as the raw body with an x-file-name header)');
+		if (!(file instanceof File)) throw new Invalid('Send the art as the multipart field “file” (or as the raw body with an x-file-name header)');
 		bytes = new Uint8Array(await file.arrayBuffer());
 		fileName = file.name;
 		field = (name) => {
@@ -70,7 +71,7 @@ export async function readApiUpload(request: Request, url: URL): Promise<UploadR
 		};
 	} else {
 		const header = request.headers.get('x-file-name');
-		if (!header) throw new ApiError(400, 'Name the file with the x-file-name header (or send a multipart form with the field “file”)');
+		if (!header) throw new Invalid('Name the file with the x-file-name header (or send a multipart form with the field “file”)');
 		fileName = decodeHeaderName(header);
 		bytes = await readCapped(request, MAX_ART_BYTES);
 		field = (name) => url.searchParams.get(name) || undefined;
@@ -80,7 +81,7 @@ export async function readApiUpload(request: Request, url: URL): Promise<UploadR
 	);
 	if (!parsed.success) {
 		const issues = parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
-		throw new ApiError(400, issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)).join('; '), 'invalid', issues);
+		throw new Invalid(issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)).join('; '), issues, 'invalid');
 	}
 	const f = parsed.data;
 	return {
@@ -120,7 +121,8 @@ export async function uploadAction(event: ArtEvent) {
 	try {
 		body = await readArtForm(event.request);
 	} catch (e) {
-		if (e instanceof ArtRejected || e instanceof StoreError) return message(empty, e.message, { status: e.status });
+		const refused = answerFor(e);
+		if (refused) return message(empty, refused.message, { status: refused.status });
 		throw e;
 	}
 	const form = await superValidate(body, zod4(UploadFormSchema), { id: 'upload' });
@@ -141,7 +143,8 @@ export async function uploadAction(event: ArtEvent) {
 			{ userId: user.id, teamId: game.teamId }
 		);
 	} catch (e) {
-		if (e instanceof ArtRejected || e instanceof StoreError) return message(form, `Nothing was stored. ${e.message}`, { status: e.status });
+		const refused = answerFor(e);
+		if (refused) return message(form, `Nothing was stored. ${refused.message}`, { status: refused.status });
 		throw e;
 	}
 	// The page opens the new art and says what happened, displaced slot holders included.
@@ -158,7 +161,8 @@ export async function replaceAction(event: ArtEvent) {
 	try {
 		body = await readArtForm(event.request);
 	} catch (e) {
-		if (e instanceof ArtRejected || e instanceof StoreError) return message(empty, e.message, { status: e.status });
+		const refused = answerFor(e);
+		if (refused) return message(empty, refused.message, { status: refused.status });
 		throw e;
 	}
 	const form = await superValidate(body, zod4(ReplaceFormSchema), { id: 'replace' });
@@ -183,7 +187,8 @@ export async function replaceAction(event: ArtEvent) {
 			`Replaced. “${outcome.art.fileName}” is version ${outcome.version.number}; the earlier files stay in the history below.`
 		);
 	} catch (e) {
-		if (e instanceof ArtRejected || e instanceof StoreError) return message(form, `Nothing was replaced. ${e.message}`, { status: e.status });
+		const refused = answerFor(e);
+		if (refused) return message(form, `Nothing was replaced. ${refused.message}`, { status: refused.status });
 		throw e;
 	}
 }
@@ -199,7 +204,8 @@ export async function placeAction(event: ArtEvent) {
 		const where = art.assignment ? `It prints on ${describeAssignment(after, art.assignment)}.` : 'It is not assigned to a slot.';
 		return message(form, `Saved. ${where}${displacedNote(displaced)}`);
 	} catch (e) {
-		if (e instanceof StoreError) return message(form, e.message, { status: e.status });
+		const refused = answerFor(e);
+		if (refused) return message(form, refused.message, { status: refused.status });
 		throw e;
 	}
 }

@@ -4,13 +4,13 @@
  * repeat request revalidates to 304, and an unchanged game is not even read again.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { ApiError } from '../api';
-import { requireGameRole } from '../guard';
+import { requireGameRole } from './guard';
 import { loadGame } from '../game-store';
 import { renderFace, parseGuides } from '../faces';
 import { db } from '../runtime';
 import { etagOf, faceContentKey, keepFace, keptFace, knownKey, notModified, rememberKey, type KeptFace } from '../face-cache';
 import type { Side } from '$lib/print/layout';
+import { NotFound } from '../refusals';
 
 export async function cardFaceSvg(event: RequestEvent<{ gameId: string; cardId: string }>, side: Side) {
 	const d = await db();
@@ -25,7 +25,7 @@ export async function cardFaceSvg(event: RequestEvent<{ gameId: string; cardId: 
 	if (!key || !face) {
 		const game = await loadGame(d, event.params.gameId);
 		const card = game.cards.find((c) => c.id === event.params.cardId);
-		if (!card) throw new ApiError(404, 'No such card');
+		if (!card) throw new NotFound('No such card');
 		const kind = game.kinds.find((k) => k.id === card.kindId)!;
 		key = faceContentKey(game, kind, card, side, variant);
 		rememberKey(versionKey, key);

@@ -6,13 +6,14 @@
 import { fail, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { keepSavedGame, requireGameRole } from '../guard';
-import { applyChanges, loadGame, OBJECT_SCHEMAS, StoreError } from '../game-store';
-import { editPermission } from '../game-access';
+import { keepSavedGame, requireGameRole } from './guard';
+import { applyChanges, loadGame, OBJECT_SCHEMAS } from '../game-store';
+import { editPermission } from './game-access';
 import type { Collection } from '$lib/schemas/collections';
 import { db } from '../runtime';
 import { objectPath, usersOf, type ReadinessItem } from '$lib/game/readiness';
 import type { FormNote } from '$lib/schemas/messages';
+import { answerFor } from './answers';
 
 /** "Saved.", or "Saved, but …" with a link to each object that now needs a look. */
 export function savedNote(gameId: string, warnings: ReadinessItem[], what = 'Saved.'): FormNote {
@@ -42,7 +43,8 @@ export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, 
 		const { saveWarnings: _warnings, ...savedGame } = saved;
 		keepSavedGame(event.locals, access, savedGame);
 	} catch (e) {
-		if (e instanceof StoreError) return message(form, { text: e.message, tone: 'error' } satisfies FormNote, { status: e.status });
+		const refused = answerFor(e);
+		if (refused) return message(form, { text: refused.message, tone: 'error' } satisfies FormNote, { status: refused.status });
 		throw e;
 	}
 	return message(form, savedNote(game.id, saved.saveWarnings));
@@ -67,7 +69,8 @@ export async function deleteObjectAction(event: RequestEvent<{ gameId: string }>
 			action: `${collection}.deleted`
 		});
 	} catch (e) {
-		if (e instanceof StoreError) return fail(e.status, { deleteError: e.message });
+		const refused = answerFor(e);
+		if (refused) return fail(refused.status, { deleteError: refused.message });
 		throw e;
 	}
 	return { deleted: id };

@@ -3,14 +3,36 @@
  * one card's press PDF and the PNG zip. A proof's files are built from its snapshot only.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { printSource, printOptions, artBytes, runPrint, logDownload, fileResponse, sheetsName, pressName, pdfxTarget, buildPngZip, pngDpi, pngZipName } from '../printing';
+import { printOptions, artBytes, runPrint, logDownload, sheetsName, pressName, pdfxTarget, buildPngZip, pngDpi, pngZipName } from '../printing';
 import { PrintQuerySchema } from '$lib/print/options';
 import { isUuid } from '$lib/schemas/ids';
+import { printSource } from './print-source';
+import { Invalid, NotFound } from '../refusals';
+import { db } from '../runtime';
+import { jobFile, type PrintJobRow } from '../print-jobs';
+import { streamBody } from '../storage';
 
 /** A press file's own choices: plain or PDF/X, and the rendering intent. */
 const PressQuerySchema = PrintQuerySchema.pick({ output: true, intent: true });
-import { ApiError } from '../api';
-import { db } from '../runtime';
+
+/** A print file as a download; the header counts the build's warnings for the print page. */
+export function fileResponse(bytes: Uint8Array | ReadableStream, type: string, name: string, warnings: string[] = [], length?: number) {
+	return new Response(bytes instanceof ReadableStream ? bytes : Buffer.from(bytes), {
+		headers: {
+			'content-type': type,
+			...(length !== undefined ? { 'content-length': String(length) } : {}),
+			'content-disposition': `attachment; filename="${name}"`,
+			'x-paddock-warnings': String(warnings.length),
+			'cache-control': 'private, no-store'
+		}
+	});
+}
+
+/** A finished print job's file, streamed from the store. */
+export async function jobFileResponse(job: PrintJobRow) {
+	const { file, fileName, warnings } = await jobFile(job);
+	return fileResponse(streamBody(file), fileName.endsWith('.zip') ? 'application/zip' : 'application/pdf', fileName, warnings, file.bytes);
+}
 
 type Ev = RequestEvent<{ gameId: string; proofId?: string; cardId?: string }>;
 
@@ -28,14 +50,14 @@ export async function pressPdf(event: Ev) {
 	const d = await db();
 	const source = await printSource(d, event.locals, event.params.gameId, event.params.proofId);
 	const cardId = event.params.cardId!;
-	if (!source.game.cards.some((c) => c.id === cardId)) throw new ApiError(404, 'No such card');
+	if (!source.game.cards.some((c) => c.id === cardId)) throw new NotFound('No such card');
 	const query = event.url.searchParams;
 	const colour = query.get('colour') === 'rgb' ? 'rgb' : 'cmyk';
 	const marks = query.get('marks') === '1';
 	const press = PressQuerySchema.safeParse({ output: query.get('output') ?? undefined, intent: query.get('intent') ?? undefined });
-	if (!press.success) throw new ApiError(400, press.error.issues.map((i) => i.message).join('; '));
+	if (!press.success) throw new Invalid(press.error.issues.map((i) => i.message).join('; '));
 	const profileId = query.get('profile') ?? undefined;
-	if (profileId !== undefined && !isUuid(profileId)) throw new ApiError(404, 'No such printer profile in this team');
+	if (profileId !== undefined && !isUuid(profileId)) throw new NotFound('No such printer profile in this team');
 	const pdfx = await pdfxTarget(d, source, press.data, profileId);
 	const result = await runPrint({
 		type: 'press',

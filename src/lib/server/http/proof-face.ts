@@ -4,14 +4,14 @@
  * (./face-cache.ts) by proof, card, side and guides.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { ApiError } from '../api';
-import { requireProof } from '../proof-access';
+import { requireProof } from './proof-access';
 import { snapshotOf } from '../proofs';
 import { renderFace, parseGuides } from '../faces';
 import { db } from '../runtime';
 import { etagOf, keepFace, keptFace, notModified } from '../face-cache';
 import { ENGINE_SALT, hashOf } from '$lib/print/cache';
 import type { Side } from '$lib/print/layout';
+import { NotFound } from '../refusals';
 
 const IMMUTABLE = 'private, max-age=31536000, immutable';
 
@@ -26,7 +26,7 @@ export async function proofFaceSvg(event: RequestEvent<{ gameId: string; proofId
 	if (!face) {
 		const game = snapshotOf(proof);
 		const card = game.cards.find((c) => c.id === event.params.cardId);
-		if (!card) throw new ApiError(404, 'No such card in this proof');
+		if (!card) throw new NotFound('No such card in this proof');
 		const kind = game.kinds.find((k) => k.id === card.kindId)!;
 		const { svg, layout } = await renderFace({ game, kind, card, side, guides });
 		face = keepFace(key, { svg, warnings: layout.warnings.length });

@@ -2,20 +2,18 @@
  * What the proof pages share on the server: finding a proof for the caller as a page (refusals
  * become the page's 403 or 404) and the face box of each of its cards, in mm, from the snapshot.
  */
-import { error } from '@sveltejs/kit';
-import { ApiError } from '$lib/server/api';
-import { requireProof, ProofError } from '$lib/server/proof-access';
-import type { Permission } from '$lib/server/guard';
+import { requireProof } from './proof-access';
+import type { Permission } from './guard';
 import type { Db } from '$lib/server/db';
 import { bleedMm, safeMm, type Game } from '$lib/game/model';
 import type { ProofCard } from '$lib/components/proofs/types';
+import { refusedPage } from './answers';
 
 export async function proofForPage(db: Db, locals: App.Locals, gameId: string, key: string, permission: Permission = 'release.read') {
 	try {
 		return await requireProof(db, locals, gameId, key, permission);
 	} catch (e) {
-		if (e instanceof ProofError || e instanceof ApiError) error(e.status, e.message);
-		throw e;
+		refusedPage(e);
 	}
 }
 

@@ -24,12 +24,8 @@ export interface Storage {
 	ping: () => Promise<void>;
 }
 
-export class StorageMissingError extends Error {
-	readonly status = 404;
-}
+export class StorageMissingError extends Error {}
 
 /** The store cannot be reached: the request should be answered 503 and may be tried again. */
-export class StorageUnavailableError extends Error {
-	readonly status = 503;
-}
+export class StorageUnavailableError extends Error {}
 

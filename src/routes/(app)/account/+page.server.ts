@@ -2,7 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { superValidate, message, setError } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { passwordChangeSchema, tokenSchema } from '$lib/schemas/account';
-import { requireUser } from '$lib/server/guard';
+import { requireUser } from '$lib/server/http/guard';
 import { createApiToken, revokeApiToken, tokensOf } from '$lib/server/api-tokens';
 import { endSession, endSessions, openSessions } from '$lib/server/auth/sessions';
 import { changePassword } from '$lib/server/users';

@@ -1,5 +1,5 @@
 import { error } from '@sveltejs/kit';
-import { requireUser } from '$lib/server/guard';
+import { requireUser } from '$lib/server/http/guard';
 import { db, mailIsCaught } from '$lib/server/runtime';
 import { mailFor } from '$lib/server/mail/inbox';
 

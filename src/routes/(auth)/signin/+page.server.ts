@@ -2,7 +2,7 @@ import { fail, redirect } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { signInSchema } from '$lib/schemas/account';
-import { CredentialsSignin, SignInLimited, SIGN_IN_LIMITED_MESSAGE, safeNext, signInWithPassword } from '$lib/server/auth/authjs';
+import { CredentialsSignin, SignInLimited, SIGN_IN_LIMITED_MESSAGE, safeNext, signInWithPassword } from '$lib/server/http/authjs';
 import { config } from '$lib/server/config';
 
 export const load = async ({ locals, url }) => {

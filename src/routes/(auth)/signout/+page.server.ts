@@ -1,5 +1,5 @@
 import { redirect } from '@sveltejs/kit';
-import { signOut } from '$lib/server/auth/authjs';
+import { signOut } from '$lib/server/http/authjs';
 
 export const load = () => redirect(303, '/');
 

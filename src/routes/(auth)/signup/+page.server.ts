@@ -2,7 +2,7 @@ import { fail, redirect } from '@sveltejs/kit';
 import { superValidate, setError, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { signUpSchema } from '$lib/schemas/account';
-import { CredentialsSignin, safeNext, signInWithPassword } from '$lib/server/auth/authjs';
+import { CredentialsSignin, safeNext, signInWithPassword } from '$lib/server/http/authjs';
 import { currentClient } from '$lib/server/auth/client-address';
 import { recordSignUpClash, signUpRefused } from '$lib/server/auth/throttle';
 import { createUser, EmailTakenError } from '$lib/server/users';

@@ -1,4 +1,4 @@
-import { apiError } from '$lib/server/api';
+import { apiError } from '$lib/server/http/api';
 
 /** Anything under /api/ that no route takes answers a JSON 404. */
 const notFound = () => apiError(404, 'No such API route');

@@ -1,13 +1,15 @@
 import { error, fail, redirect } from '@sveltejs/kit';
 import { db } from '$lib/server/runtime';
-import { acceptInvitation, findInvitation, TeamError } from '$lib/server/teams';
-import { requireUser } from '$lib/server/guard';
+import { acceptInvitation, findInvitation } from '$lib/server/teams';
+import { requireUser } from '$lib/server/http/guard';
+import { answerFor } from '$lib/server/http/answers';
 
 async function lookUp(token: string) {
 	try {
 		return await findInvitation(await db(), token);
 	} catch (e) {
-		if (e instanceof TeamError) error(e.status, e.message);
+		const refused = answerFor(e);
+		if (refused) error(refused.status, refused.message);
 		throw e;
 	}
 }
@@ -29,7 +31,8 @@ export const actions = {
 			const invitation = await acceptInvitation(await db(), params.token, user);
 			redirect(303, `/teams/${invitation.teamId}`);
 		} catch (e) {
-			if (e instanceof TeamError) return fail(e.status, { error: e.message });
+			const refused = answerFor(e);
+			if (refused) return fail(refused.status, { error: refused.message });
 			throw e;
 		}
 	}

@@ -1,4 +1,4 @@
-import { requireGameRole, may } from '$lib/server/guard';
+import { requireGameRole, may } from '$lib/server/http/guard';
 import { db } from '$lib/server/runtime';
 
 /** Every game page: who you are in this game's team and what you may do. */

@@ -1,5 +1,5 @@
 import { redirect } from '@sveltejs/kit';
-import { requireGame, requireGameRole, may } from '$lib/server/guard';
+import { requireGame, requireGameRole, may } from '$lib/server/http/guard';
 import { duplicateGame } from '$lib/server/game-lifecycle';
 import { checkDeck } from '$lib/game/deck-check';
 import { gameReadiness } from '$lib/server/readiness';

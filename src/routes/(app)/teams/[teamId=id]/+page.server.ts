@@ -2,13 +2,13 @@ import { fail, redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { gameCreateSchema } from '$lib/schemas/account';
-import { requireRole, may } from '$lib/server/guard';
+import { requireRole, may } from '$lib/server/http/guard';
 import { createGame, gamesOf } from '$lib/server/games';
 import { findTeam } from '$lib/server/teams';
 import { db } from '$lib/server/runtime';
 import { importBundle } from '$lib/server/game-io';
-import { StoreError } from '$lib/server/game-store';
 import { BundleError, MAX_BUNDLE_UNCOMPRESSED_BYTES } from '$lib/game/bundle';
+import { Refusal } from '$lib/server/refusals';
 
 export const load = async ({ locals, params }) => {
 	const d = await db();
@@ -44,7 +44,7 @@ export const actions = {
 		try {
 			gameId = (await importBundle(d, { teamId: params.teamId, userId: user.id, zip: new Uint8Array(await file.arrayBuffer()) })).id;
 		} catch (e) {
-			if (e instanceof BundleError || e instanceof StoreError) return fail(400, { importError: `Nothing was imported: ${e.message}` });
+			if (e instanceof BundleError || e instanceof Refusal) return fail(400, { importError: `Nothing was imported: ${e.message}` });
 			throw e;
 		}
 		redirect(303, `/games/${gameId}`);

@@ -2,7 +2,7 @@ import { fail, redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { teamSchema } from '$lib/schemas/account';
-import { requireUser } from '$lib/server/guard';
+import { requireUser } from '$lib/server/http/guard';
 import { createTeam } from '$lib/server/teams';
 import { db } from '$lib/server/runtime';
 

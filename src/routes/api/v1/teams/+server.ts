@@ -1,7 +1,7 @@
 import type { RequestHandler } from './$types';
 import { json } from '@sveltejs/kit';
-import { api, readJson } from '$lib/server/api';
-import { requireUser } from '$lib/server/guard';
+import { api, readJson } from '$lib/server/http/api';
+import { requireUser } from '$lib/server/http/guard';
 import { db } from '$lib/server/runtime';
 import { createTeam, membershipsOf } from '$lib/server/teams';
 import { teamSchema } from '$lib/schemas/account';

@@ -1,4 +1,4 @@
-import { requireGame } from '$lib/server/guard';
+import { requireGame } from '$lib/server/http/guard';
 import { activityOf } from '$lib/server/activity';
 import { db } from '$lib/server/runtime';
 

@@ -1,6 +1,6 @@
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGame } from '$lib/server/guard';
+import { requireGame } from '$lib/server/http/guard';
 import { artVersionsByArt } from '$lib/server/art-uploads';
 import { placeAction, replaceAction, uploadAction } from '$lib/server/http/art-uploads';
 import { ArtPlacementSchema, ReplaceFormSchema, UploadFormSchema } from '$lib/schemas/art';

@@ -1,13 +1,14 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGame, requireGameRole } from '$lib/server/guard';
-import { applyChanges, StoreError } from '$lib/server/game-store';
+import { requireGame, requireGameRole } from '$lib/server/http/guard';
+import { applyChanges } from '$lib/server/game-store';
 import { db } from '$lib/server/runtime';
 import { cardCount } from '$lib/game/deck-check';
 import { bleedMm, newId } from '$lib/game/model';
 import { newKind } from '$lib/game/kind-defaults';
 import { NewKindSchema, type NewKind } from '$lib/schemas/kinds';
+import { answerFor } from '$lib/server/http/answers';
 
 /** The game's card kinds with their sizes and card counts, and the new-kind form. */
 export const load = async ({ locals, params }) => {
@@ -57,7 +58,8 @@ export const actions = {
 				action: 'kind.created'
 			});
 		} catch (e) {
-			if (e instanceof StoreError) return message(form, e.message, { status: e.status });
+			const refused = answerFor(e);
+			if (refused) return message(form, refused.message, { status: refused.status });
 			throw e;
 		}
 		redirect(303, `/games/${game.id}/kinds/${kind.id}`);

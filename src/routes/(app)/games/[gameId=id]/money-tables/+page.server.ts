@@ -1,6 +1,6 @@
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGame } from '$lib/server/guard';
+import { requireGame } from '$lib/server/http/guard';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/http/object-actions';
 import { db } from '$lib/server/runtime';
 import { MoneyTableSchema, newId, type MoneyTable } from '$lib/game/model';

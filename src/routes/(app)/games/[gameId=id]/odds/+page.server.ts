@@ -1,12 +1,13 @@
 import { fail } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGameRole } from '$lib/server/guard';
-import { loadGame, saveSettings, StoreError } from '$lib/server/game-store';
+import { requireGameRole } from '$lib/server/http/guard';
+import { loadGame, saveSettings } from '$lib/server/game-store';
 import { listScenarios, playerCounts } from '$lib/server/odds';
 import { db } from '$lib/server/runtime';
 import { DEFAULT_RACE_RULES, RaceRulesSchema } from '$lib/game/model';
 import { raceSetupFromGame, RaceSetupError } from '$lib/odds/race';
+import { answerFor } from '$lib/server/http/answers';
 
 /** The Odds tab: what the track editor, the deck picker and the wager table need. */
 export const load = async ({ locals, params }) => {
@@ -53,7 +54,8 @@ export const actions = {
 			// Three numbers saved whole: the last save wins (no version to go stale).
 			await saveSettings(d, game.id, { raceRules: form.data }, null, { userId: user.id, teamId: game.teamId });
 		} catch (e) {
-			if (e instanceof StoreError) return message(form, e.message, { status: e.status });
+			const refused = answerFor(e);
+			if (refused) return message(form, refused.message, { status: refused.status });
 			throw e;
 		}
 		return message(form, 'Rules saved.');

@@ -1,4 +1,4 @@
-import { requireGame, requireGameRole, may } from '$lib/server/guard';
+import { requireGame, requireGameRole, may } from '$lib/server/http/guard';
 import { profilesOf, gamePressSummary } from '$lib/server/printer-profiles';
 import { proofsOf, isReleased, snapshotOf } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';

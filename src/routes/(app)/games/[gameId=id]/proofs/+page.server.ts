@@ -1,4 +1,4 @@
-import { requireGame, requireGameRole, may } from '$lib/server/guard';
+import { requireGame, requireGameRole, may } from '$lib/server/http/guard';
 import { proofList } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
 import { gameReadiness } from '$lib/server/readiness';

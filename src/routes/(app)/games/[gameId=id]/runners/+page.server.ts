@@ -1,14 +1,15 @@
 import { fail } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGame, requireGameRole } from '$lib/server/guard';
-import { saveSettings, StoreError } from '$lib/server/game-store';
+import { requireGame, requireGameRole } from '$lib/server/http/guard';
+import { saveSettings } from '$lib/server/game-store';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/http/object-actions';
 import { db } from '$lib/server/runtime';
 import { RunnerSchema, RogueRunnerSchema, newId, type Runner, type RogueRunner } from '$lib/game/model';
 import { newRunnerDefaults } from '$lib/game/runner-defaults';
 import { usersOf } from '$lib/game/readiness';
 import { pressCmykOf, PRESS_COLOUR_NOTE } from '$lib/server/press-colour';
+import { answerFor } from '$lib/server/http/answers';
 
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
@@ -49,7 +50,8 @@ export const actions = {
 		try {
 			await saveSettings(d, game.id, { rogueRunner }, version ?? 0, { userId: user.id, teamId: game.teamId });
 		} catch (e) {
-			if (e instanceof StoreError) return message(form, e.message, { status: e.status });
+			const refused = answerFor(e);
+			if (refused) return message(form, refused.message, { status: refused.status });
 			throw e;
 		}
 		return message(form, { text: 'Saved.', tone: 'success' as const });

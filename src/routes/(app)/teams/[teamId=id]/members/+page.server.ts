@@ -1,4 +1,4 @@
-import { requireRole } from '$lib/server/guard';
+import { requireRole } from '$lib/server/http/guard';
 import { findTeam } from '$lib/server/teams';
 import { db } from '$lib/server/runtime';
 

@@ -1,13 +1,14 @@
 import { fail } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireRole, may } from '$lib/server/guard';
-import { profilesOf, saveProfile, deleteProfile, ProfileError, setPressProfile, clearPressProfile } from '$lib/server/printer-profiles';
+import { requireRole, may } from '$lib/server/http/guard';
+import { profilesOf, saveProfile, deleteProfile, setPressProfile, clearPressProfile } from '$lib/server/printer-profiles';
 import { findTeam } from '$lib/server/teams';
 import { PrinterProfileSchema, DEFAULT_PROFILE, PressConditionSchema } from '$lib/schemas/printing';
 import { ICC_MAX_BYTES } from '$lib/print/colour/icc';
 import { db } from '$lib/server/runtime';
 import { isUuid } from '$lib/schemas/ids';
+import { answerFor } from '$lib/server/http/answers';
 
 export const load = async ({ locals, params, url }) => {
 	const d = await db();
@@ -33,7 +34,8 @@ export const actions = {
 			const saved = await saveProfile(d, params.teamId, form.data, user.id);
 			form.data = saved;
 		} catch (e) {
-			if (e instanceof ProfileError) return message(form, e.message, { status: e.status });
+			const refused = answerFor(e);
+			if (refused) return message(form, refused.message, { status: refused.status });
 			throw e;
 		}
 		return message(form, 'Saved.');
@@ -57,7 +59,8 @@ export const actions = {
 		try {
 			await setPressProfile(d, params.teamId, id, new Uint8Array(await file.arrayBuffer()), condition.data, user.id);
 		} catch (e) {
-			if (e instanceof ProfileError) return fail(e.status, { iccError: e.message });
+			const refused = answerFor(e);
+			if (refused) return fail(refused.status, { iccError: refused.message });
 			throw e;
 		}
 		return { iccSaved: id };
@@ -70,7 +73,8 @@ export const actions = {
 		try {
 			await clearPressProfile(d, params.teamId, id, user.id);
 		} catch (e) {
-			if (e instanceof ProfileError) return fail(e.status, { iccError: e.message });
+			const refused = answerFor(e);
+			if (refused) return fail(refused.status, { iccError: refused.message });
 			throw e;
 		}
 		return { iccSaved: id };
@@ -83,7 +87,8 @@ export const actions = {
 		try {
 			await deleteProfile(d, params.teamId, id, user.id);
 		} catch (e) {
-			if (e instanceof ProfileError) return fail(e.status, { deleteError: e.message });
+			const refused = answerFor(e);
+			if (refused) return fail(refused.status, { deleteError: refused.message });
 			throw e;
 		}
 		return { deleted: id };

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api } from '$lib/server/api';
-import { requireUser } from '$lib/server/guard';
+import { api } from '$lib/server/http/api';
+import { requireUser } from '$lib/server/http/guard';
 import { cancelOddsJob, oddsJobView } from '$lib/server/odds';
 import { db } from '$lib/server/runtime';
 

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api } from '$lib/server/api';
-import { requireUser } from '$lib/server/guard';
+import { api } from '$lib/server/http/api';
+import { requireUser } from '$lib/server/http/guard';
 import { jobFor, jobState } from '$lib/server/print-jobs';
 import { db } from '$lib/server/runtime';
 

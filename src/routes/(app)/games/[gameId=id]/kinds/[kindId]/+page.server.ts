@@ -1,8 +1,8 @@
 import { error, fail, redirect, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGame, requireGameRole } from '$lib/server/guard';
-import { applyChanges, loadGame, StoreError, type Change } from '$lib/server/game-store';
+import { requireGame, requireGameRole } from '$lib/server/http/guard';
+import { applyChanges, loadGame, type Change } from '$lib/server/game-store';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/http/object-actions';
 import { db } from '$lib/server/runtime';
 import { cardCount } from '$lib/game/deck-check';
@@ -15,6 +15,7 @@ import {
 	runCards,
 	RUN_SCHEMAS
 } from '$lib/game/generator';
+import { answerFor } from '$lib/server/http/answers';
 
 const VIEWS = ['cards', 'settings', 'generate'] as const;
 type View = (typeof VIEWS)[number];
@@ -94,7 +95,8 @@ export const actions = {
 		try {
 			await applyChanges(d, row.id, changes, { userId: user.id, teamId: row.teamId, action: 'kind.deleted' });
 		} catch (e) {
-			if (e instanceof StoreError) return fail(e.status, { deleteError: e.message });
+			const refused = answerFor(e);
+			if (refused) return fail(refused.status, { deleteError: refused.message });
 			throw e;
 		}
 		redirect(303, `/games/${row.id}/kinds`);
@@ -123,7 +125,8 @@ export const actions = {
 				{ userId: user.id, teamId: row.teamId, action: 'cards.generated' }
 			);
 		} catch (e) {
-			if (e instanceof StoreError) return message(form, `Nothing was changed: ${e.message}`, { status: e.status });
+			const refused = answerFor(e);
+			if (refused) return message(form, `Nothing was changed: ${refused.message}`, { status: refused.status });
 			throw e;
 		}
 		return message(

@@ -1,4 +1,4 @@
-import { requireGameRole, may } from '$lib/server/guard';
+import { requireGameRole, may } from '$lib/server/http/guard';
 import { isMuted, snapshotOf, isReleased, withdrawnRelease } from '$lib/server/proofs';
 import { userName } from '$lib/server/users';
 import { db } from '$lib/server/runtime';

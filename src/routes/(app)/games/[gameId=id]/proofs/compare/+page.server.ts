@@ -1,5 +1,5 @@
 import { error } from '@sveltejs/kit';
-import { requireGameRole } from '$lib/server/guard';
+import { requireGameRole } from '$lib/server/http/guard';
 import { proofsOf, snapshotOf } from '$lib/server/proofs';
 import { compareGames } from '$lib/game/compare';
 import { db } from '$lib/server/runtime';

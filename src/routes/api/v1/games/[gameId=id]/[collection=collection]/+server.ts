@@ -1,11 +1,11 @@
-import { json } from '@sveltejs/kit';
+import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { z } from 'zod';
-import { api, ApiError, readJson } from '$lib/server/api';
-import { requireGameRole } from '$lib/server/guard';
+import { api, readJson } from '$lib/server/http/api';
+import { requireGameRole } from '$lib/server/http/guard';
 import { applyChanges, loadGame, COLLECTION_FIELD } from '$lib/server/game-store';
 import type { Collection } from '$lib/schemas/collections';
-import { collectionOf, requireGameEdit } from '$lib/server/game-access';
+import { collectionOf, requireGameEdit } from '$lib/server/http/game-access';
 import { db } from '$lib/server/runtime';
 import { newId } from '$lib/game/model';
 
@@ -29,7 +29,7 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const collection = collectionOf(params.collection);
 	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
 	// An art piece is made by uploading its file, which checks the file and records its version.
-	if (collection === 'art') throw new ApiError(405, 'Upload art with POST /api/v1/games/{gameId}/art/upload');
+	if (collection === 'art') error(405, 'Upload art with POST /api/v1/games/{gameId}/art/upload');
 	const body = await readJson(request, z.looseObject({ id: z.string().optional() }));
 	const id = body.id ?? newId();
 	const after = await applyChanges(

@@ -1,6 +1,6 @@
 import type { RequestHandler } from './$types';
-import { api } from '$lib/server/api';
-import { requireGameRole } from '$lib/server/guard';
+import { api } from '$lib/server/http/api';
+import { requireGameRole } from '$lib/server/http/guard';
 import { exportBundle } from '$lib/server/game-io';
 import { logActivity } from '$lib/server/activity';
 import { db } from '$lib/server/runtime';

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api, readJson } from '$lib/server/api';
-import { requireGameRole } from '$lib/server/guard';
+import { api, readJson } from '$lib/server/http/api';
+import { requireGameRole } from '$lib/server/http/guard';
 import { setMuted, isMuted } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
 import { MuteSchema, type ApiAnswer } from '$lib/schemas/api';

@@ -1,8 +1,8 @@
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { RequestHandler } from './$types';
-import { api, readJson } from '$lib/server/api';
-import { requireGameRole } from '$lib/server/guard';
+import { api, readJson } from '$lib/server/http/api';
+import { requireGameRole } from '$lib/server/http/guard';
 import { runOdds } from '$lib/server/odds';
 import { db } from '$lib/server/runtime';
 

@@ -1,13 +1,14 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { z } from 'zod';
-import { api, ApiError, readJson } from '$lib/server/api';
-import { requireGameRole } from '$lib/server/guard';
+import { api, readJson } from '$lib/server/http/api';
+import { requireGameRole } from '$lib/server/http/guard';
 import { loadGame } from '$lib/server/game-store';
 import { renderFace } from '$lib/server/faces';
 import { db } from '$lib/server/runtime';
 import { CardKindSchema, CardSchema } from '$lib/game/model';
 import type { ApiAnswer, CardPreviewSchema } from '$lib/schemas/api';
+import { Invalid } from '$lib/server/refusals';
 
 const PreviewSchema = z.strictObject({
 	/** The kind and card as they stand in the editor, saved or not. */
@@ -23,7 +24,7 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	await requireGameRole(d, locals, params.gameId, 'game.read');
 	const input = await readJson(request, PreviewSchema);
 	if (input.card && input.card.data.type !== input.kind.type) {
-		throw new ApiError(400, `A ${input.kind.type} card kind cannot show ${input.card.data.type} data`);
+		throw new Invalid(`A ${input.kind.type} card kind cannot show ${input.card.data.type} data`);
 	}
 	const game = await loadGame(d, params.gameId);
 	const { svg, layout } = await renderFace({

@@ -1,8 +1,9 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { z } from 'zod';
-import { api, readJson } from '$lib/server/api';
-import { printSource, printOptions, logDownload, pngDpi } from '$lib/server/printing';
+import { api, readJson } from '$lib/server/http/api';
+import { printOptions, logDownload, pngDpi } from '$lib/server/printing';
+import { printSource } from '$lib/server/http/print-source';
 import { startSheetJob, startPngJob, jobState } from '$lib/server/print-jobs';
 import { db } from '$lib/server/runtime';
 

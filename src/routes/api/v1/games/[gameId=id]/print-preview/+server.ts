@@ -1,7 +1,8 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api } from '$lib/server/api';
-import { printSource, printOptions, previewFirstSheet } from '$lib/server/printing';
+import { api } from '$lib/server/http/api';
+import { printOptions, previewFirstSheet } from '$lib/server/printing';
+import { printSource } from '$lib/server/http/print-source';
 import { db } from '$lib/server/runtime';
 
 /** The first sheet of a build (same parameters as print.pdf, plus `proof=`) as SVG, with the plan's figures. */

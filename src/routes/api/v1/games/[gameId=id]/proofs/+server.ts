@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api, readJson } from '$lib/server/api';
-import { requireGameRole, may } from '$lib/server/guard';
+import { api, readJson } from '$lib/server/http/api';
+import { requireGameRole, may } from '$lib/server/http/guard';
 import { cutProof, proofsOf, CutSchema, isReleased } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
 import type { ApiAnswer, ProofCutSchema } from '$lib/schemas/api';

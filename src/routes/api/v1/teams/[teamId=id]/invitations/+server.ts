@@ -1,7 +1,7 @@
 import type { RequestHandler } from './$types';
 import { json } from '@sveltejs/kit';
-import { api, readJson } from '$lib/server/api';
-import { requireRole } from '$lib/server/guard';
+import { api, readJson } from '$lib/server/http/api';
+import { requireRole } from '$lib/server/http/guard';
 import { db } from '$lib/server/runtime';
 import { findTeam, invite } from '$lib/server/teams';
 import { mailInvitation } from '$lib/server/notify';

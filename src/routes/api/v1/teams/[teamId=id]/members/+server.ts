@@ -1,7 +1,7 @@
 import type { RequestHandler } from './$types';
 import { json } from '@sveltejs/kit';
-import { api } from '$lib/server/api';
-import { requireRole, may } from '$lib/server/guard';
+import { api } from '$lib/server/http/api';
+import { requireRole, may } from '$lib/server/http/guard';
 import { db } from '$lib/server/runtime';
 import { membersOf, pendingInvitations } from '$lib/server/teams';
 import type { ApiAnswer, MembersSchema } from '$lib/schemas/api';

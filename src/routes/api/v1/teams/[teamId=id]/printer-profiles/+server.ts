@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api, readJson } from '$lib/server/api';
-import { requireRole } from '$lib/server/guard';
+import { api, readJson } from '$lib/server/http/api';
+import { requireRole } from '$lib/server/http/guard';
 import { profilesOf, saveProfile } from '$lib/server/printer-profiles';
 import { PrinterProfileSchema } from '$lib/schemas/printing';
 import { db } from '$lib/server/runtime';

@@ -1,5 +1,5 @@
 import { error } from '@sveltejs/kit';
-import { requireGameRole } from '$lib/server/guard';
+import { requireGameRole } from '$lib/server/http/guard';
 import { loadGame } from '$lib/server/game-store';
 import { db } from '$lib/server/runtime';
 import { exportCardsCsv } from '$lib/game/csv';

@@ -1,11 +1,12 @@
 import { error, fail, type RequestEvent } from '@sveltejs/kit';
 import { createHash } from 'node:crypto';
-import { requireGame, requireGameRole } from '$lib/server/guard';
-import { applyChanges, loadGame, StoreError, type Change } from '$lib/server/game-store';
+import { requireGame, requireGameRole } from '$lib/server/http/guard';
+import { applyChanges, loadGame, type Change } from '$lib/server/game-store';
 import { db } from '$lib/server/runtime';
 import { csvColumns } from '$lib/game/csv';
 import type { Game } from '$lib/game/model';
 import { importBasis, planImport } from './import-plan';
+import { answerFor } from '$lib/server/http/answers';
 
 const removals = (n: number) => `${n} ${n === 1 ? 'card' : 'cards'}`;
 
@@ -98,7 +99,8 @@ export const actions = {
 				{ userId: user.id, teamId: row.teamId, action: 'cards.imported' }
 			);
 		} catch (e) {
-			if (e instanceof StoreError) return fail(e.status, { ...again, problem: `Nothing was imported: ${e.message}` });
+			const refused = answerFor(e);
+			if (refused) return fail(refused.status, { ...again, problem: `Nothing was imported: ${refused.message}` });
 			throw e;
 		}
 		return {

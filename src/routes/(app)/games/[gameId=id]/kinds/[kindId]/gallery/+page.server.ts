@@ -1,5 +1,5 @@
 import { error } from '@sveltejs/kit';
-import { requireGame } from '$lib/server/guard';
+import { requireGame } from '$lib/server/http/guard';
 import { db } from '$lib/server/runtime';
 import { cardSummary } from '$lib/game/card-rows';
 

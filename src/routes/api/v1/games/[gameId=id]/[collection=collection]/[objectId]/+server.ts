@@ -1,18 +1,19 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { z } from 'zod';
-import { api, ApiError, readJson } from '$lib/server/api';
-import { requireGameRole } from '$lib/server/guard';
+import { api, readJson } from '$lib/server/http/api';
+import { requireGameRole } from '$lib/server/http/guard';
 import { applyChanges, loadGame, COLLECTION_FIELD } from '$lib/server/game-store';
 import type { Collection } from '$lib/schemas/collections';
-import { collectionOf, objectIdParam, requireGameEdit } from '$lib/server/game-access';
+import { collectionOf, objectIdParam, requireGameEdit } from '$lib/server/http/game-access';
 import { db } from '$lib/server/runtime';
 import { ArtAssetSchema } from '$lib/game/model';
+import { NotFound, Invalid } from '$lib/server/refusals';
 
 async function findObject(gameId: string, collection: Collection, id: string) {
 	const game = await loadGame(await db(), gameId);
 	const found = (game[COLLECTION_FIELD[collection]] as { id: string }[]).find((o) => o.id === id);
-	if (!found) throw new ApiError(404, `No such ${collection}`);
+	if (!found) throw new NotFound(`No such ${collection}`);
 	return found;
 }
 
@@ -53,7 +54,7 @@ export const DELETE: RequestHandler = api(async ({ locals, params, url }) => {
 	const id = objectIdParam(params.objectId);
 	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
 	const version = Number(url.searchParams.get('version'));
-	if (!Number.isInteger(version) || version < 1) throw new ApiError(400, 'Say which version you are deleting: ?version=N');
+	if (!Number.isInteger(version) || version < 1) throw new Invalid('Say which version you are deleting: ?version=N');
 	await applyChanges(d, params.gameId, [{ collection, id, baseVersion: version, remove: true }], {
 		userId: user.id,
 		teamId: game.teamId,

@@ -7,8 +7,8 @@
  */
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api } from '$lib/server/api';
-import { requireGameRole } from '$lib/server/guard';
+import { api } from '$lib/server/http/api';
+import { requireGameRole } from '$lib/server/http/guard';
 import { uploadArt } from '$lib/server/art-uploads';
 import { readApiUpload } from '$lib/server/http/art-uploads';
 import { artPrintChecks } from '$lib/art/placement';

@@ -1,10 +1,11 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api, ApiError, readBody } from '$lib/server/api';
-import { requireRole } from '$lib/server/guard';
+import { api, readBody } from '$lib/server/http/api';
+import { requireRole } from '$lib/server/http/guard';
 import { importBundle } from '$lib/server/game-io';
 import { BundleError, MAX_BUNDLE_UNCOMPRESSED_BYTES } from '$lib/game/bundle';
 import { db } from '$lib/server/runtime';
+import { Invalid, Refusal } from '$lib/server/refusals';
 
 /** A game bundle as the request body (application/zip) or as the `file` of a multipart form. */
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
@@ -13,19 +14,19 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	let zip: Uint8Array;
 	if ((request.headers.get('content-type') ?? '').startsWith('multipart/form-data')) {
 		const declared = Number(request.headers.get('content-length') ?? 0);
-		if (declared > MAX_BUNDLE_UNCOMPRESSED_BYTES) throw new ApiError(413, 'The bundle is too large');
+		if (declared > MAX_BUNDLE_UNCOMPRESSED_BYTES) throw new Refusal('too-large', 'The bundle is too large');
 		const file = (await request.formData()).get('file');
-		if (!(file instanceof File)) throw new ApiError(400, 'Send the bundle as the form field "file"');
+		if (!(file instanceof File)) throw new Invalid('Send the bundle as the form field "file"');
 		zip = new Uint8Array(await file.arrayBuffer());
 	} else {
 		zip = await readBody(request, MAX_BUNDLE_UNCOMPRESSED_BYTES);
 	}
-	if (zip.byteLength === 0) throw new ApiError(400, 'The request has no bundle in it');
+	if (zip.byteLength === 0) throw new Invalid('The request has no bundle in it');
 	try {
 		const game = await importBundle(d, { teamId: params.teamId, userId: user.id, zip });
 		return json({ id: game.id, name: game.name, slug: game.slug }, { status: 201 });
 	} catch (e) {
-		if (e instanceof BundleError) throw new ApiError(400, e.message, 'bad_bundle');
+		if (e instanceof BundleError) throw new Invalid(e.message, undefined, 'bad_bundle');
 		throw e;
 	}
 });

@@ -1,5 +1,5 @@
 import type { RequestHandler } from './$types';
-import { api } from '$lib/server/api';
+import { api } from '$lib/server/http/api';
 import { cardFaceSvg } from '$lib/server/http/card-face';
 
 export const GET: RequestHandler = api((event) => cardFaceSvg(event, 'back'));

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api, readJson } from '$lib/server/api';
-import { requireProof } from '$lib/server/proof-access';
+import { api, readJson } from '$lib/server/http/api';
+import { requireProof } from '$lib/server/http/proof-access';
 import { addComment, commentsOf, CommentSchema } from '$lib/server/proofs';
 import { db } from '$lib/server/runtime';
 

@@ -6,6 +6,8 @@ import { json, isHttpError, isRedirect, type RequestHandler } from '@sveltejs/ki
 import type { z } from 'zod';
 import type { $ZodIssue } from 'zod/v4/core';
 import { controlCharacterIn, controlCharacterMessage } from './text-input';
+import { Invalid, Refusal } from '../refusals';
+import { answerFor } from './answers';
 
 const CODES: Record<number, string> = {
 	400: 'bad_request',
@@ -26,17 +28,6 @@ const CODES: Record<number, string> = {
 /** Seconds a client should wait after a 503 (a full print queue, a file store out of reach). */
 export const RETRY_AFTER_S = 30;
 
-export class ApiError extends Error {
-	constructor(
-		readonly status: number,
-		message: string,
-		readonly code = CODES[status] ?? 'error',
-		readonly details?: unknown
-	) {
-		super(message);
-	}
-}
-
 export function apiError(status: number, message: string, code?: string, details?: unknown) {
 	return json(
 		{ error: { code: code ?? CODES[status] ?? 'error', message, ...(details ? { details } : {}) } },
@@ -46,23 +37,17 @@ export function apiError(status: number, message: string, code?: string, details
 	);
 }
 
-/** Wraps a handler so every failure answers as JSON. */
+/** Wraps a handler so every failure answers as JSON: refusals with their status, faults as 500. */
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export function api<H extends RequestHandler<any, any>>(handler: H): H {
 	return (async (event: Parameters<H>[0]) => {
 		try {
 			return await handler(event);
 		} catch (e) {
-			if (e instanceof ApiError) return apiError(e.status, e.message, e.code, e.details);
+			const answer = answerFor(e);
+			if (answer) return apiError(answer.status, answer.message, answer.code, answer.details);
 			if (isHttpError(e)) return apiError(e.status, e.body.message);
 			if (isRedirect(e)) throw e;
-			// Domain refusals (TeamError and the like) carry a 4xx status and a message for people;
-			// 503 says a store is out of reach and the request may be tried again.
-			if (e instanceof Error && 'status' in e && typeof e.status === 'number' && (e.status < 500 || e.status === 503)) {
-				// A refused stale save carries the newer object, so the client can show it.
-				const current = 'current' in e && e.current !== undefined ? { current: e.current } : undefined;
-				return apiError(e.status, e.message, undefined, current);
-			}
 			console.error(e);
 			return apiError(500, 'Something went wrong on our side');
 		}
@@ -74,7 +59,7 @@ export const JSON_LIMIT_BYTES = 1024 * 1024;
 /** Reads at most `limit` bytes of the body, refusing larger ones with 413 before reading them all. */
 export async function readBody(request: Request, limit: number): Promise<Uint8Array> {
 	const declared = Number(request.headers.get('content-length') ?? 'NaN');
-	if (declared > limit) throw new ApiError(413, `The body is larger than ${limit} bytes`);
+	if (declared > limit) throw new Refusal('too-large', `The body is larger than ${limit} bytes`);
 	if (!request.body) return new Uint8Array();
 	const reader = request.body.getReader();
 	const chunks: Uint8Array[] = [];
@@ -85,7 +70,7 @@ export async function readBody(request: Request, limit: number): Promise<Uint8Ar
 		size += value.byteLength;
 		if (size > limit) {
 			await reader.cancel();
-			throw new ApiError(413, `The body is larger than ${limit} bytes`);
+			throw new Refusal('too-large', `The body is larger than ${limit} bytes`);
 		}
 		chunks.push(value);
 	}
@@ -102,26 +87,21 @@ export async function readBody(request: Request, limit: number): Promise<Uint8Ar
 export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
 	const type = request.headers.get('content-type') ?? '';
 	if (!type.includes('application/json')) {
-		throw new ApiError(415, 'Send the body as application/json');
+		throw new Refusal('unreadable', 'Send the body as application/json');
 	}
 	const bytes = await readBody(request, JSON_LIMIT_BYTES);
 	let value: unknown;
 	try {
 		value = JSON.parse(new TextDecoder().decode(bytes));
 	} catch {
-		throw new ApiError(400, 'The body is not valid JSON', 'malformed_json');
+		throw new Invalid('The body is not valid JSON', undefined, 'malformed_json');
 	}
 	const control = controlCharacterIn(value);
-	if (control) throw new ApiError(400, controlCharacterMessage(control), 'invalid');
+	if (control) throw new Invalid(controlCharacterMessage(control), undefined, 'invalid');
 	const parsed = schema.safeParse(value);
 	if (!parsed.success) {
 		const issues = closestIssues(parsed.error.issues).map((i) => ({ path: i.path.join('.'), message: i.message }));
-		throw new ApiError(
-			400,
-			issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)).join('; '),
-			'invalid',
-			issues
-		);
+		throw new Invalid(issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)).join('; '), issues, 'invalid');
 	}
 	return parsed.data;
 }

@@ -3,10 +3,10 @@
  * them), everyone else in the team sees all; then the action's own permission.
  */
 import { requireGameRole, may, type Permission } from './guard';
-import { ApiError } from './api';
-import { findProof, ProofError } from './proofs';
-import type { Db } from './db';
+import { findProof } from '../proofs';
+import type { Db } from '../db';
 import { isUuid } from '$lib/schemas/ids';
+import { NotFound, NotAllowed } from '../refusals';
 
 
 export async function requireProof(
@@ -19,10 +19,8 @@ export async function requireProof(
 	const { user, role, game } = await requireGameRole(db, locals, gameId, 'release.read');
 	const releasedOnly = !may(role, 'game.read');
 	const byNumber = /^\d{1,6}$/.test(key);
-	if (!byNumber && !isUuid(key)) throw new ApiError(404, 'No such proof');
+	if (!byNumber && !isUuid(key)) throw new NotFound('No such proof');
 	const proof = await findProof(db, gameId, byNumber ? { number: Number(key) } : { id: key }, releasedOnly);
-	if (!may(role, permission)) throw new ApiError(403, `A ${role} may not do this`);
+	if (!may(role, permission)) throw new NotAllowed(`A ${role} may not do this`);
 	return { user, role, game, proof };
 }
-
-export { ProofError };

@@ -1,14 +1,14 @@
 /** Shared steps of the game API: who may touch which collection, and reading one object. */
-import { ApiError } from './api';
 import { requireGameRole } from './guard';
-import type { Db } from './db';
-import type { Collection } from './db/schema';
+import type { Db } from '../db';
+import type { Collection } from '../db/schema';
 import { COLLECTION_SEGMENTS, type CollectionSegment } from '$lib/schemas/collections';
 import { IdSchema } from '$lib/game/model';
+import { NotFound } from '../refusals';
 
 export function collectionOf(segment: string): Collection {
 	const c = COLLECTION_SEGMENTS[segment as CollectionSegment];
-	if (!c) throw new ApiError(404, 'No such collection');
+	if (!c) throw new NotFound('No such collection');
 	return c;
 }
 
@@ -16,7 +16,7 @@ export function collectionOf(segment: string): Collection {
 export const editPermission = (c: Collection): 'art.edit' | 'game.edit' => (c === 'art' ? 'art.edit' : 'game.edit');
 
 export function objectIdParam(value: string): string {
-	if (!IdSchema.safeParse(value).success) throw new ApiError(404, 'No such object');
+	if (!IdSchema.safeParse(value).success) throw new NotFound('No such object');
 	return value;
 }
 

@@ -4,9 +4,9 @@
  */
 import type { Handle } from '@sveltejs/kit';
 import { config, secureCookies } from '../config';
-import { addressFrom, withClient } from './client-address';
+import { addressFrom, withClient } from '../auth/client-address';
 import { SIGN_IN_LIMITED_MESSAGE } from './authjs';
-import { WINDOW_MS } from './throttle';
+import { WINDOW_MS } from '../auth/throttle';
 
 export const knowClient: Handle = ({ event, resolve }) =>
 	withClient(

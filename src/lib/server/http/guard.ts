@@ -1,58 +1,21 @@
 /**
  * Authorisation in one place. Every load, action and API handler asks `requireRole` (or
- * `requireUser`) before it reads or writes; what each role may do is the table below.
+ * `requireUser`) before it reads or writes; what each role may do is the table in ../access.ts.
  * A person who is not a member of the team gets 404, so other teams' ids reveal nothing.
  */
-import { error } from '@sveltejs/kit';
-import { and, eq } from 'drizzle-orm';
-import type { Db } from './db';
-import { memberships, games, type Role } from './db/schema';
-import { loadGame } from './game-store';
+import type { Db } from '../db';
+import type { Role } from '../db/schema';
+import { loadGame } from '../game-store';
+import { gameAccess, may, roleIn, type GameActor, type GameRow, type Permission, type SignedIn } from '../access';
+import { NotAllowed, NotFound, SignInFirst } from '../refusals';
+import { refusedPage } from './answers';
 import type { Game } from '$lib/game/model';
 
-export const PERMISSIONS = {
-	/** See the team, its members and its game list. */
-	'team.read': ['owner', 'designer', 'artist', 'printer', 'reviewer'],
-	'members.manage': ['owner'],
-	'game.create': ['owner', 'designer'],
-	'game.delete': ['owner'],
-	/** Read a game's working data, art and unreleased proofs. */
-	'game.read': ['owner', 'designer', 'artist', 'reviewer'],
-	/** Change runners, card kinds, money tables, tiles, setup tables. */
-	'game.edit': ['owner', 'designer'],
-	'art.edit': ['owner', 'designer', 'artist'],
-	'proof.cut': ['owner', 'designer'],
-	'proof.comment': ['owner', 'designer', 'artist', 'reviewer'],
-	'proof.verdict': ['owner', 'reviewer'],
-	'proof.release': ['owner', 'designer'],
-	/** Released proofs and their files. */
-	'release.read': ['owner', 'designer', 'artist', 'printer', 'reviewer'],
-	/** Add, change and delete the team's printer profiles: printers keep them, whoever made one. */
-	'profile.edit': ['owner', 'designer', 'printer']
-} as const satisfies Record<string, readonly Role[]>;
-
-export type Permission = keyof typeof PERMISSIONS;
-
-export const may = (role: Role, permission: Permission) =>
-	(PERMISSIONS[permission] as readonly Role[]).includes(role);
-
-export interface SignedIn {
-	id: string;
-	email: string;
-	name: string;
-}
+export { PERMISSIONS, may, type Permission, type SignedIn, type GameActor } from '../access';
 
 export function requireUser(locals: App.Locals): SignedIn {
-	if (!locals.user) error(401, 'Sign in first');
+	if (!locals.user) refusedPage(new SignInFirst());
 	return locals.user;
-}
-
-export async function roleIn(db: Db, userId: string, teamId: string): Promise<Role | null> {
-	const [row] = await db
-		.select({ role: memberships.role })
-		.from(memberships)
-		.where(and(eq(memberships.teamId, teamId), eq(memberships.userId, userId)));
-	return row?.role ?? null;
 }
 
 /** The caller's role in the team, if it allows `permission`; 401, 403 or 404 otherwise. */
@@ -64,18 +27,13 @@ export async function requireRole(
 ): Promise<{ user: SignedIn; role: Role }> {
 	const user = requireUser(locals);
 	const role = await roleIn(db, user.id, teamId);
-	if (!role) error(404, 'No such team');
-	if (!may(role, permission)) error(403, `A ${role} may not do this`);
+	if (!role) refusedPage(new NotFound('No such team'));
+	if (!may(role, permission)) refusedPage(new NotAllowed(`A ${role} may not do this`));
 	return { user, role };
 }
 
-type GameRow = typeof games.$inferSelect;
-
-export interface GameAccess {
-	user: SignedIn;
-	role: Role;
-	game: GameRow;
-}
+/** What a game request knows of its caller (the actor a game service takes). */
+export type GameAccess = GameActor;
 
 /**
  * What one request knows about a game: the caller's role and the game row (one query), and the
@@ -93,20 +51,10 @@ function requestGame(db: Db, locals: App.Locals, user: SignedIn, gameId: string)
 	if (!games_) perRequest.set(locals, (games_ = new Map()));
 	let entry = games_.get(gameId);
 	if (!entry) {
-		entry = { access: readAccess(db, user.id, gameId) };
+		entry = { access: gameAccess(db, user.id, gameId) };
 		games_.set(gameId, entry);
 	}
 	return entry;
-}
-
-/** The game row and the caller's role in its team, in one query. */
-async function readAccess(db: Db, userId: string, gameId: string) {
-	const [row] = await db
-		.select({ game: games, role: memberships.role })
-		.from(games)
-		.leftJoin(memberships, and(eq(memberships.teamId, games.teamId), eq(memberships.userId, userId)))
-		.where(eq(games.id, gameId));
-	return row ? { game: row.game, role: row.role } : null;
 }
 
 /** Permissions that only read: a request holding one of these writes nothing to the game. */
@@ -122,9 +70,9 @@ export async function requireGameRole(db: Db, locals: App.Locals, gameId: string
 	const user = requireUser(locals);
 	const entry = requestGame(db, locals, user, gameId);
 	const found = await entry.access;
-	if (!found?.role) error(404, 'No such game');
+	if (!found?.role) refusedPage(new NotFound('No such game'));
 	const role = found.role;
-	if (!may(role, permission)) error(403, `A ${role} may not do this`);
+	if (!may(role, permission)) refusedPage(new NotAllowed(`A ${role} may not do this`));
 	if (!READS.has(permission)) perRequest.get(locals)?.delete(gameId);
 	return { user, role, game: found.game };
 }

@@ -11,10 +11,10 @@ import { z } from 'zod';
 import { authSecret, secureCookies } from '../config';
 import { db } from '../runtime';
 import { findUserByEmail } from '../users';
-import { checkPassword } from './passwords';
-import { signInRefused, recordFailure, WINDOW_MS } from './throttle';
-import { currentClient } from './client-address';
-import { SESSION_MAX_AGE_S, endSession, sessionIsOpen, startSession } from './sessions';
+import { checkPassword } from '../auth/passwords';
+import { signInRefused, recordFailure, WINDOW_MS } from '../auth/throttle';
+import { currentClient } from '../auth/client-address';
+import { SESSION_MAX_AGE_S, endSession, sessionIsOpen, startSession } from '../auth/sessions';
 
 const credentials = z.object({ email: z.string().trim().email(), password: z.string().min(1).max(200) });
 
