@@ -4,9 +4,9 @@
  * built-in one). The drawing and the colour work are the print engine's (./print/soft-proof.ts).
  */
 import type { Db } from './db';
-import { ApiError } from './api';
 import { artBytes, type PrintSource } from './printing';
-import { findProfile, gamePressSummary, pressProfileOf, ProfileError } from './printer-profiles';
+import { findProfile, gamePressSummary, pressProfileOf } from './printer-profiles';
+import { NotFound } from './refusals';
 import type { Card, CardKind } from '$lib/game/model';
 import { PressColour, type PressProfile } from '$lib/print/colour/cmm';
 import { builtinPressProfile } from '$lib/print/colour/press-profiles';
@@ -23,18 +23,13 @@ export interface CardSoftProof extends SoftProof {
 
 /** The press profile a soft proof uses, with its name for people. */
 async function pressFor(db: Db, source: PrintSource, profileId: string | undefined): Promise<{ profile: PressProfile; name: string; condition: string }> {
-	try {
-		if (profileId) {
-			const chosen = await findProfile(db, source.teamId, profileId);
-			return { profile: await pressProfileOf(db, source.teamId, profileId), name: chosen.press.profileName, condition: chosen.press.conditionIdentifier };
-		}
-		const summary = await gamePressSummary(db, source.teamId, source.pressProfileId ?? null);
-		const profile = source.pressProfileId && summary.printerProfile ? await pressProfileOf(db, source.teamId, source.pressProfileId) : await builtinPressProfile();
-		return { profile, name: summary.profileName, condition: summary.conditionIdentifier };
-	} catch (e) {
-		if (e instanceof ProfileError) throw new ApiError(e.status, e.message);
-		throw e;
+	if (profileId) {
+		const chosen = await findProfile(db, source.teamId, profileId);
+		return { profile: await pressProfileOf(db, source.teamId, profileId), name: chosen.press.profileName, condition: chosen.press.conditionIdentifier };
 	}
+	const summary = await gamePressSummary(db, source.teamId, source.pressProfileId ?? null);
+	const profile = source.pressProfileId && summary.printerProfile ? await pressProfileOf(db, source.teamId, source.pressProfileId) : await builtinPressProfile();
+	return { profile, name: summary.profileName, condition: summary.conditionIdentifier };
 }
 
 /** One face of a card (saved, in a proof, or unsaved with its kind) soft-proofed. */
@@ -51,6 +46,6 @@ export async function softProofCard(db: Db, source: PrintSource, target: { kind:
 export function cardOf(source: PrintSource, cardId: string): { kind: CardKind; card: Card } {
 	const card = source.game.cards.find((c) => c.id === cardId);
 	const kind = card && source.game.kinds.find((k) => k.id === card.kindId);
-	if (!card || !kind) throw new ApiError(404, 'No such card');
+	if (!card || !kind) throw new NotFound('No such card');
 	return { kind, card };
 }

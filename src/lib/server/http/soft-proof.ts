@@ -4,8 +4,9 @@
  */
 import type { RequestEvent } from '@sveltejs/kit';
 import { z } from 'zod';
-import { ApiError, readJson } from '../api';
-import { printSource } from '../printing';
+import { readJson } from './api';
+import { Invalid } from '../refusals';
+import { printSource } from './print-source';
 import { cardOf, softProofCard, type CardSoftProof } from '../soft-proof';
 import { db } from '../runtime';
 import { CardKindSchema, CardSchema } from '$lib/game/model';
@@ -16,7 +17,7 @@ type Ev = RequestEvent<{ gameId: string; proofId?: string; cardId?: string }>;
 
 function choiceOf(query: URLSearchParams) {
 	const parsed = SoftProofChoiceSchema.safeParse(Object.fromEntries(query));
-	if (!parsed.success) throw new ApiError(400, parsed.error.issues.map((i) => i.message).join('; '));
+	if (!parsed.success) throw new Invalid( parsed.error.issues.map((i) => i.message).join('; '));
 	return parsed.data;
 }
 
@@ -65,7 +66,7 @@ export async function previewSoftProof(event: Ev) {
 	const source = await printSource(d, event.locals, event.params.gameId);
 	const input = await readJson(event.request, PreviewSoftProofSchema);
 	if (input.card && input.card.data.type !== input.kind.type) {
-		throw new ApiError(400, `A ${input.kind.type} card kind cannot show ${input.card.data.type} data`);
+		throw new Invalid( `A ${input.kind.type} card kind cannot show ${input.card.data.type} data`);
 	}
 	const { kind, card, ...choice } = input;
 	return answerOf(await softProofCard(d, source, { kind, card }, choice));

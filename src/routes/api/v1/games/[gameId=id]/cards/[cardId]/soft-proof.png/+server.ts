@@ -1,5 +1,5 @@
 import type { RequestHandler } from './$types';
-import { api } from '$lib/server/api';
+import { api } from '$lib/server/http/api';
 import { softProofPng } from '$lib/server/http/soft-proof';
 
 export const GET: RequestHandler = api(softProofPng);
