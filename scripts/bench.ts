@@ -27,7 +27,7 @@ import type { BetType, Card, Game } from '../src/lib/game/model';
 import { PrintCache } from '../src/lib/print/cache';
 import { forgetSharedFonts } from '../src/lib/print/pdf-fontkit';
 import { loadFonts } from '../src/lib/print/fonts';
-import { buildGamePdf, type GamePdfOptions } from '../src/lib/print/job';
+import { buildGamePdf, type GamePdfOptions } from '../src/lib/print/sheet-job';
 import { PrintPool } from '../src/lib/print/pool';
 import { CHROMIUM, CHROMIUM_ARGS } from '../tests/e2e/env';
 import { benchOdds } from './bench/odds';

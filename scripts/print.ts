@@ -18,7 +18,9 @@ import { demoGame } from '../src/lib/demo/demo';
 import { hashOf } from '../src/lib/print/cache';
 import type { Game } from '../src/lib/game/model';
 import { buildCalibrationPdf } from '../src/lib/print/calibration';
-import { buildCardPressPdf, buildCardsPngZip, buildGamePdf, PNG_DPI_DEFAULT } from '../src/lib/print/job';
+import { buildCardPressPdf } from '../src/lib/print/press-job';
+import { buildCardsPngZip, PNG_DPI_DEFAULT } from '../src/lib/print/png-job';
+import { buildGamePdf } from '../src/lib/print/sheet-job';
 import { parsePrintOptions, PrintOptionsError } from '../src/lib/print/options';
 
 const USAGE = `Usage: npm run print -- (--demo | --bundle game.zip) [options] --out file.pdf

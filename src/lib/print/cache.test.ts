@@ -3,7 +3,8 @@ import { demoGameWithArt } from '../demo/demo-art';
 import type { Game } from '../game/model';
 import { faceScope, PrintCache, canonicalJson } from './cache';
 import { loadFonts, type FontSet } from './fonts';
-import { buildGamePdf, loadGameImages, type GamePdfOptions } from './job';
+import { buildGamePdf, type GamePdfOptions } from './sheet-job';
+import { loadGameImages } from './job';
 import { layoutFace } from './layout/index';
 
 let demo: { game: Game; art: Map<string, Uint8Array> };

@@ -10,14 +10,10 @@ import { demoGameWithArt } from '../demo/demo-art';
 import { cardSize, type Game } from '../game/model';
 import { PrintCache } from './cache';
 import type { TextItem } from './display-list';
-import {
-	buildCardPressPdf,
-	buildCardsPngZip,
-	buildGamePdf,
-	loadGameImages,
-	renderGameFaces,
-	type GamePdfOptions
-} from './job';
+import { buildCardPressPdf } from './press-job';
+import { buildCardsPngZip } from './png-job';
+import { buildGamePdf, type GamePdfOptions } from './sheet-job';
+import { loadGameImages, renderGameFaces } from './job';
 import { parsePrintOptions, PrintOptionsError, PrintOptionsSchema } from './options';
 import { pdfinfoBoxes, pdftotext, qpdfCheck, qpdfJson, rasterGrey } from './testing/poppler';
 

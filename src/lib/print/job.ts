@@ -1,50 +1,27 @@
 /**
- * Print jobs: a whole game (data + art bytes) → the files a designer, playtester or print shop
- * downloads. The HTTP routes, the CLI (scripts/print.ts) and the worker pool (./pool.ts) all call
- * these functions, and all parse their options with the same schema (./options.ts).
+ * A whole game's faces for the print jobs: every card's front and back laid out (./layout) with
+ * its pictures decoded once, cached by content, and a face's SVG and PNG. The jobs that turn them
+ * into files are one module each:
  *
- * - `renderGameFaces`: every card's front and back laid out (./layout), cached by content.
- * - `buildGamePdf`: the imposed sheet PDF (./sheets.ts), with options checked first.
- * - `buildCardPressPdf`: one card's press file with TrimBox and BleedBox (./press.ts).
- * - `buildCardsPngZip`: one PNG per card face at 300 dpi with bleed, in a zip.
+ * - ./sheet-job.ts `buildGamePdf`: the imposed sheet PDF (./sheets.ts), with options checked first.
+ * - ./press-job.ts `buildCardPressPdf`: one card's press file with TrimBox and BleedBox (./press.ts).
+ * - ./png-job.ts `buildCardsPngZip`: one PNG per card face with bleed, in a zip.
  *
- * Plain TypeScript with relative imports only: it runs in the app, in `tsx` scripts and in
- * worker threads alike.
+ * The HTTP routes, the CLI (scripts/print.ts) and the worker pool (./pool.ts) all call them, and all
+ * parse their options with the same schema (./options.ts). Plain TypeScript with relative imports
+ * only: it runs in the app, in `tsx` scripts and in worker threads alike.
  */
-import { strToU8, zipSync, type Zippable } from 'fflate';
 import { imageSize } from 'image-size';
-import Papa from 'papaparse';
 import { checkArtResolution, faceWithBleedMm, MIN_PRINT_DPI, shownDpi } from '../game/art-check';
 import type { ArtAsset, Card, CardKind, Game } from '../game/model';
 import { faceBytes, faceKey, printCache, type PrintCache } from './cache';
-import { PRINT_SHOP_NOTE } from './cutting-guide';
-import { faceHeightMm, faceWidthMm, type FaceLayout, type ImageAsset } from './display-list';
+import { faceWidthMm, type FaceLayout, type ImageAsset } from './display-list';
 import { loadFonts } from './fonts';
-import { impose } from './impose';
-import { checkPrintOptions, DEFAULT_MARGIN_MM, PrintOptionsError, SETS_MAX, toSheetOptions, type PrintOptions } from './options';
+import { PrintOptionsError, SETS_MAX } from './options';
 import { layoutFace, TEMPLATES } from './layout/index';
-import { paperSize, type PaperSpec } from './paper';
-import type { ColourMode } from './pdf';
-import { mmToPx, svgToPng } from './png';
-import { buildPressPdf } from './press';
-import { countPages, planSheets, type SheetFace } from './sheet-plan';
-import { fileSlug, uniqueFileParts } from './file-names';
-import { buildSheetPdf } from './sheets';
-import { PressImageError } from './pdf-image';
-import type { PdfxTarget } from './pdfx';
+import { svgToPng } from './png';
+import type { SheetFace } from './sheet-plan';
 import { renderSvg } from './svg';
-
-/** A sheet PDF request: what to print and how (./options.ts), and how this run reports. */
-export interface GamePdfOptions extends PrintOptions {
-	title?: string;
-	versionLabel?: string;
-	/** As the sheet label should read it; today (UTC) when absent. */
-	date?: string;
-	/** PDF/X for a press profile (colour is then the profile's CMYK). */
-	pdfx?: PdfxTarget;
-	onProgress?: (done: number, total: number) => void;
-	cache?: PrintCache;
-}
 
 export interface RenderFacesOptions {
 	kinds?: string[];
@@ -142,7 +119,7 @@ export interface GameFaces {
 	laidOut: number;
 }
 
-function selectKinds(game: Game, kindIds: string[] | undefined): CardKind[] {
+export function selectKinds(game: Game, kindIds: string[] | undefined): CardKind[] {
 	if (!kindIds?.length) return game.kinds;
 	const byId = new Map(game.kinds.map((k) => [k.id, k]));
 	return [...new Set(kindIds)].map((id) => {
@@ -157,7 +134,7 @@ function backIsShared(kind: CardKind): boolean {
 	return kind.back.mode === 'shared' && (TEMPLATES.get(kind.back.template)?.face ?? 'back') === 'back';
 }
 
-const sizeKey = (f: FaceLayout) => `${f.trimWidthMm}×${f.trimHeightMm}+${f.bleedMm}`;
+export const sizeKey = (f: FaceLayout) => `${f.trimWidthMm}×${f.trimHeightMm}+${f.bleedMm}`;
 
 /**
  * Every printable card of the chosen kinds with both faces laid out, copies multiplied by
@@ -260,199 +237,8 @@ function artResolutionWarnings(game: Game, cards: RenderedCard[], images: Map<st
 	return out;
 }
 
-/* ------------------------------------------------------------ sheet PDF */
-
-export interface GamePdf {
-	pdf: Uint8Array;
-	/** Physical sheets of paper (a duplex sheet has two pages). */
-	sheets: number;
-	/** Every page of the document, the cutting guide's included (`guidePages` of them). */
-	pages: number;
-	guidePages: number;
-	warnings: string[];
-}
-
-const fmtMm = (v: number) => String(Math.round(v * 100) / 100);
-
-function paperWords(spec: PaperSpec): string {
-	const p = paperSize(spec);
-	return typeof spec === 'string' ? p.label : `a ${p.label} sheet`;
-}
-
-/** Refuse sizes that cannot be imposed, naming the kinds and their size with bleed. */
-function checkFit(cards: RenderedCard[], o: Required<Pick<GamePdfOptions, 'paper' | 'marginMm' | 'layout'>>): void {
-	const sheet = paperSize(o.paper);
-	if (o.marginMm * 2 >= sheet.widthMm)
-		throw new PrintOptionsError(`A ${fmtMm(o.marginMm)} mm margin leaves no printable area on ${paperWords(o.paper)}`);
-	const groups = new Map<string, { face: FaceLayout; kinds: Set<string> }>();
-	for (const c of cards) {
-		const k = sizeKey(c.front);
-		if (!groups.has(k)) groups.set(k, { face: c.front, kinds: new Set() });
-		groups.get(k)!.kinds.add(c.kindKey);
-	}
-	for (const { face, kinds } of groups.values()) {
-		const fit = impose({
-			sheet,
-			marginMm: o.marginMm,
-			trimWidthMm: face.trimWidthMm,
-			trimHeightMm: face.trimHeightMm,
-			bleedMm: face.bleedMm,
-			layout: o.layout
-		});
-		if (fit.ok) continue;
-		const w = faceWidthMm(face);
-		const h = faceHeightMm(face);
-		const size =
-			o.layout === 'fold'
-				? `${fmtMm(2 * face.trimWidthMm + 2 * face.bleedMm)} × ${fmtMm(h)} mm with bleed, front and back side by side`
-				: `${fmtMm(w)} × ${fmtMm(h)} mm with bleed`;
-		throw new PrintOptionsError(
-			`${[...kinds].join(', ')} (${size}) do not fit inside ${paperWords(o.paper)}’s printable area with a ${fmtMm(o.marginMm)} mm margin`
-		);
-	}
-}
-
-/** The imposed sheet PDF of a game. Progress counts faces laid out, then pages drawn. */
-export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Array>, options: GamePdfOptions): Promise<GamePdf> {
-	checkPrintOptions(options);
-	const cache = options.cache ?? printCache;
-	const marginMm = options.marginMm ?? DEFAULT_MARGIN_MM;
-	const kinds = selectKinds(game, options.kinds);
-	// Face progress is the first part of the whole; pages (known once planned) the rest.
-	let faceTotal = 0;
-	let faceDone = 0;
-	let pageTotal = 0;
-	const report = (pagesDone: number) => options.onProgress?.(faceDone + pagesDone, faceTotal + pageTotal);
-	const faces = await renderGameFaces(game, art, {
-		kinds: kinds.map((k) => k.id),
-		cache,
-		onProgress: (d, t) => {
-			faceDone = d;
-			faceTotal = t;
-			report(0);
-		}
-	});
-	if (!faces.cards.length) throw new PrintOptionsError('Nothing to print: the chosen card kinds have no cards with copies');
-	checkFit(faces.cards, { paper: options.paper, marginMm, layout: options.layout });
-
-	const sheetOptions = toSheetOptions(options);
-	const plan = planSheets({ faces: faces.cards, options: sheetOptions });
-	const count = countPages(plan, !!sheetOptions.cuttingGuide);
-	pageTotal = count.total;
-	const ink: string[] = [];
-	const pdf = await pressBuild(async () =>
-		buildSheetPdf({
-			title: options.title ?? game.name,
-			versionLabel: options.versionLabel ?? 'draft',
-			date: options.date ?? new Date().toISOString().slice(0, 10),
-			faces: faces.cards,
-			images: faces.images,
-			options: sheetOptions,
-			fonts: await loadFonts(),
-			imageStore: cache,
-			onPage: (d) => report(d),
-			pdfx: options.pdfx,
-			onInkOver: (what, pct, imageId) => ink.push(inkWarning(imageId ? pictureWords(game, imageId, faces.cards) : what, pct, options.pdfx!))
-		})
-	);
-	return { pdf, sheets: plan.sheetCount, pages: pageTotal, guidePages: count.guidePages, warnings: [...faces.warnings, ...plan.warnings, ...ink] };
-}
-
-/* ------------------------------------------------------------ press PDF */
-
-export interface CardPressOptions {
-	colour?: ColourMode;
-	/** PDF/X for a press profile (colour is then the profile's CMYK). */
-	pdfx?: PdfxTarget;
-	cropMarks?: boolean;
-	/** YYYY-MM-DD, the document's date (a proof's date keeps its press files the same bytes). */
-	date?: string;
-	cache?: PrintCache;
-}
-
-function findCard(game: Game, cardId: string): { card: Card; kind: CardKind } {
-	const card = game.cards.find((c) => c.id === cardId);
-	if (!card) throw new PrintOptionsError(`This game has no card “${cardId}”`, 404);
-	const kind = game.kinds.find((k) => k.id === card.kindId);
-	if (!kind) throw new PrintOptionsError(`Card “${card.name}” belongs to a missing card kind`);
-	return { card, kind };
-}
-
-/** One card's press file: front on page 1, back on page 2, TrimBox and BleedBox set (CMYK unless asked). */
-export async function buildCardPressPdf(
-	game: Game,
-	art: ReadonlyMap<string, Uint8Array>,
-	cardId: string,
-	options: CardPressOptions = {}
-): Promise<{ pdf: Uint8Array; warnings: string[] }> {
-	const { card, kind } = findCard(game, cardId);
-	const cache = options.cache ?? printCache;
-	const [fonts, { images, warnings }] = await Promise.all([loadFonts(), loadGameImages(game, art, cache)]);
-	const layout = (side: 'front' | 'back') =>
-		cache.getOrMake('layout', faceKey(game, kind, card, side, images), () => layoutFace({ game, kind, card, side, images, fonts }), faceBytes);
-	const front = await layout('front');
-	const back = await layout('back');
-	const ink: string[] = [];
-	const pdf = await pressBuild(() =>
-		buildPressPdf({
-			title: `${game.name} — ${card.name}`,
-			front,
-			back,
-			images,
-			colour: options.colour ?? 'cmyk',
-			cropMarks: options.cropMarks ?? false,
-			fonts,
-			imageStore: cache,
-			date: options.date,
-			pdfx: options.pdfx,
-			onInkOver: (what, pct, imageId) =>
-				ink.push(inkWarning(imageId ? pictureWords(game, imageId, [{ cardName: card.name, front, back }]) : what, pct, options.pdfx!))
-		})
-	);
-	return { pdf, warnings: [...warnings, ...front.warnings, ...back.warnings, ...ink] };
-}
-
-/** A press standard's refusal (transparency in PDF/X-1a) is a refusal of the request, not a failure. */
-async function pressBuild<T>(build: () => Promise<T>): Promise<T> {
-	try {
-		return await build();
-	} catch (e) {
-		if (e instanceof PressImageError) throw new PrintOptionsError(`This game cannot be PDF/X-1a: ${e.message}`);
-		throw e;
-	}
-}
-
-/** A picture in a warning: its file name and the cards it is on (a few by name, then a count). */
-function pictureWords(game: Game, imageId: string, cards: { cardName: string; front: FaceLayout; back?: FaceLayout }[]): string {
-	const file = game.art.find((a) => a.sha256 === imageId)?.fileName ?? imageId.slice(0, 12);
-	const uses = (f?: FaceLayout) => !!f?.items.some((i) => i.type === 'image' && i.imageId === imageId);
-	const names = [...new Set(cards.filter((c) => uses(c.front) || uses(c.back)).map((c) => `“${c.cardName}”`))];
-	const shown = names.slice(0, 3).join(', ') + (names.length > 3 ? ` and ${names.length - 3} more` : '');
-	return `the picture “${file}”${names.length ? ` on ${names.length === 1 ? 'card' : 'cards'} ${shown}` : ''}`;
-}
-
-/** The total-ink warning: what, how much, the limit and where the limit comes from. */
-function inkWarning(what: string, pct: number, pdfx: PdfxTarget): string {
-	const p = pdfx.profile;
-	return (
-		`${what} prints with ${Math.round(pct)} % total ink, over the ${p.totalInkLimitPct} % limit of ${p.conditionIdentifier}; ` +
-		`the press may smear or set off there (lighten the rich black or the colour)`
-	);
-}
-
-/* -------------------------------------------------------------- PNG zip */
-
-export interface PngZipOptions {
-	dpi?: number;
-	kinds?: string[];
-	onProgress?: (done: number, total: number) => void;
-	cache?: PrintCache;
-}
-
-/** Per-card raster files: 300 dpi is common practice for card printing. */
-export const PNG_DPI_DEFAULT = 300;
-export const PNG_DPI_MIN = 72;
-export const PNG_DPI_MAX = 600;
+/** Millimetres for people: at most two decimals. */
+export const fmtMm = (v: number) => String(Math.round(v * 100) / 100);
 
 /** A face's SVG with its images inlined, cached by the face's content key. */
 export function cachedFaceSvg(face: FaceLayout, key: string, images: Map<string, ImageAsset>, cache: PrintCache = printCache): Promise<string> {
@@ -473,120 +259,4 @@ export async function cachedFacePng(
 		async () => (await svgToPng(await cachedFaceSvg(face, key, images, cache), { widthMm: faceWidthMm(face), dpi })).png,
 		(b) => b.length
 	);
-}
-
-/** A fixed date keeps the zip's bytes the same for the same game (no clock in the output). */
-const ZIP_MTIME = new Date(2000, 0, 1);
-
-/** One share of a PNG zip's work: `index` of `count` (faces i with i % count === index). */
-export interface PngShard {
-	index: number;
-	count: number;
-}
-
-/** A part of a PNG zip: its faces' files and, from the first share, cards.csv and about.txt. */
-export interface PngPart {
-	files: [path: string, bytes: Uint8Array][];
-	warnings: string[];
-	/** Distinct face files in the whole zip. */
-	total: number;
-}
-
-/**
- * One PNG per card face with its bleed: `<kind>/<card>-front.png`, `<card>-back.png` for a
- * per-card back, `<kind>/back.png` for a kind's shared back; `cards.csv` lists which files make
- * each card and how many copies; `about.txt` gives size, resolution and the print-shop caution.
- */
-export async function buildCardsPngZip(
-	game: Game,
-	art: ReadonlyMap<string, Uint8Array>,
-	options: PngZipOptions = {}
-): Promise<{ zip: Uint8Array; files: number; warnings: string[] }> {
-	return zipPngParts([await renderPngPart(game, art, options)]);
-}
-
-/** The zip of every part's files (PNG is compressed already: stored as it is). */
-export function zipPngParts(parts: PngPart[]): { zip: Uint8Array; files: number; warnings: string[] } {
-	const files: Zippable = {};
-	const entries = parts.flatMap((p) => p.files).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
-	for (const [path, bytes] of entries) files[path] = [bytes, { level: path.endsWith('.png') ? 0 : 6, mtime: ZIP_MTIME }];
-	const pngs = entries.filter(([path]) => path.endsWith('.png')).length;
-	return { zip: zipSync(files), files: pngs, warnings: parts[0]?.warnings ?? [] };
-}
-
-/**
- * The files of a PNG zip, or one share of them (`shard`), so several workers can draw the faces
- * of one zip at once. Every share lays out the whole game (cheap, and cached); the first share
- * also writes cards.csv and about.txt.
- */
-export async function renderPngPart(
-	game: Game,
-	art: ReadonlyMap<string, Uint8Array>,
-	options: PngZipOptions & { shard?: PngShard } = {}
-): Promise<PngPart> {
-	const dpi = options.dpi ?? PNG_DPI_DEFAULT;
-	if (!Number.isInteger(dpi) || dpi < PNG_DPI_MIN || dpi > PNG_DPI_MAX)
-		throw new PrintOptionsError(`dpi is a whole number from ${PNG_DPI_MIN} to ${PNG_DPI_MAX}`);
-	const shard = options.shard ?? { index: 0, count: 1 };
-	const cache = options.cache ?? printCache;
-	const faces = await renderGameFaces(game, art, { kinds: options.kinds, cache });
-	if (!faces.cards.length) throw new PrintOptionsError('Nothing to export: the chosen card kinds have no cards with copies');
-
-	const rows: Record<string, string | number>[] = [];
-	const written = new Set<string>();
-	// Folders by kind name, files by card name (from the whole game, so every share names alike).
-	const kindDirs = uniqueFileParts(game.kinds, 'cards');
-	const cardFiles = new Map(game.kinds.flatMap((k) => [...uniqueFileParts(game.cards.filter((c) => c.kindId === k.id), 'card')]));
-	const jobs: { path: string; face: FaceLayout; key: string }[] = [];
-	for (const c of faces.cards) {
-		const dir = kindDirs.get(c.kindId)!;
-		const file = cardFiles.get(c.cardId) ?? fileSlug(c.cardName, 'card');
-		const front = `${dir}/${file}-front.png`;
-		const back = c.back ? (c.sharedBack ? `${dir}/back.png` : `${dir}/${file}-back.png`) : '';
-		jobs.push({ path: front, face: c.front, key: c.frontKey });
-		if (c.back && c.backKey) jobs.push({ path: back, face: c.back, key: c.backKey });
-		rows.push({
-			kind: c.kindKey,
-			card: c.cardName,
-			id: c.cardId,
-			copies: c.copies,
-			front,
-			back,
-			widthMm: c.front.trimWidthMm,
-			heightMm: c.front.trimHeightMm,
-			bleedMm: c.front.bleedMm
-		});
-	}
-	const unique = jobs.filter((j) => !written.has(j.path) && written.add(j.path));
-	const mine = unique.filter((_, i) => i % shard.count === shard.index);
-	const files: PngPart['files'] = [];
-	let done = 0;
-	for (const j of mine) {
-		files.push([j.path, await cachedFacePng(j.face, j.key, faces.images, dpi, cache)]);
-		options.onProgress?.(++done, mine.length);
-	}
-	if (shard.index === 0) {
-		files.push(['cards.csv', strToU8(Papa.unparse(rows))]);
-		const sizes = new Map<string, string>();
-		for (const c of faces.cards) {
-			const f = c.front;
-			// The rasteriser rounds each side on its own (./png.ts).
-			const px = `${mmToPx(faceWidthMm(f), dpi)} × ${mmToPx(faceHeightMm(f), dpi)} px`;
-			sizes.set(
-				c.kindId,
-				`${c.kindKey}: ${fmtMm(f.trimWidthMm)} × ${fmtMm(f.trimHeightMm)} mm trim + ${fmtMm(f.bleedMm)} mm bleed each side, ` +
-					`${fmtMm(faceWidthMm(f))} × ${fmtMm(faceHeightMm(f))} mm = ${px}`
-			);
-		}
-		const about = [
-			`${game.name}: card faces as PNG at ${dpi} dpi, each with its bleed on every side.`,
-			...sizes.values(),
-			'cards.csv lists the front and back file of every card and how many copies to print.',
-			'',
-			PRINT_SHOP_NOTE,
-			''
-		].join('\n');
-		files.push(['about.txt', strToU8(about)]);
-	}
-	return { files, warnings: faces.warnings, total: unique.length };
 }

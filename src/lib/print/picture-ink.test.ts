@@ -13,7 +13,8 @@ import type { Game } from '../game/model';
 import { BUILTIN_PRESS_PROFILE_FILE, builtinPressProfile } from './colour/press-profiles';
 import type { PressProfile } from './colour/cmm';
 import { PrintCache } from './cache';
-import { buildCardPressPdf, buildGamePdf } from './job';
+import { buildCardPressPdf } from './press-job';
+import { buildGamePdf } from './sheet-job';
 import { parsePrintOptions } from './options';
 
 /** A deep screen black: through the built-in profile it prints near 300 % (transicc below). */

@@ -1,7 +1,8 @@
 import { beforeAll, afterAll, describe, expect, it } from 'vitest';
 import { demoGameWithArt } from '../demo/demo-art';
 import type { Game } from '../game/model';
-import { zipPngParts, type GamePdfOptions } from './job';
+import { zipPngParts } from './png-job';
+import type { GamePdfOptions } from './sheet-job';
 import { PrintOptionsError } from './options';
 import { PrintBusyError, PrintPool } from './pool';
 import { pdfinfoBoxes, qpdfCheck } from './testing/poppler';

@@ -21,7 +21,9 @@ import { MessageChannel, type MessagePort } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { Game } from '../game/model';
 import type { CacheArea, CacheStats } from './cache';
-import type { CardPressOptions, GamePdfOptions, PngPart, PngShard, PngZipOptions } from './job';
+import type { CardPressOptions } from './press-job';
+import type { GamePdfOptions } from './sheet-job';
+import type { PngPart, PngShard, PngZipOptions } from './png-job';
 import { PrintOptionsError } from './options';
 import { resolveCompiledWorker, tsxEsmApi, type TsWorkerData } from '../threads/ts-worker';
 

@@ -9,7 +9,9 @@ import { parentPort, threadId, type MessagePort } from 'node:worker_threads';
 import { Piscina, workerData } from 'piscina';
 import { CACHE_AREAS, printCache, PrintCache, type CacheStats } from './cache';
 import { loadFonts } from './fonts';
-import { buildCardPressPdf, buildCardsPngZip, buildGamePdf, renderPngPart } from './job';
+import { buildCardPressPdf } from './press-job';
+import { buildCardsPngZip, renderPngPart } from './png-job';
+import { buildGamePdf } from './sheet-job';
 import { resvgReady } from './png';
 import type { PrintJob, PrintJobResult, ProgressMessage, WorkerData, WorkerFailure, WorkerTask } from './pool';
 

@@ -19,7 +19,7 @@ import { jobQueue } from './job-queue';
 import { holdingJobFiles } from './job-sweep';
 import { printPool } from '$lib/print/pool';
 import type { Game } from '$lib/game/model';
-import type { GamePdfOptions } from '$lib/print/job';
+import type { GamePdfOptions } from '$lib/print/sheet-job';
 import type { ApiAnswer, PrintJobSchema } from '$lib/schemas/api';
 
 export type PrintJobRow = typeof printJobs.$inferSelect;

@@ -3,13 +3,12 @@
  * (the editor's unsaved card): a face as it will print, with its figures in the answer.
  */
 import type { RequestEvent } from '@sveltejs/kit';
-import { z } from 'zod';
 import { readJson } from './api';
 import { Invalid } from '../refusals';
 import { printSource } from './print-source';
 import { cardOf, softProofCard, type CardSoftProof } from '../soft-proof';
 import { db } from '../runtime';
-import { CardKindSchema, CardSchema } from '$lib/game/model';
+import { PreviewSoftProofRequestSchema } from './requests';
 import { SoftProofChoiceSchema } from '$lib/schemas/printing';
 import type { ApiAnswer, SoftProofSchema } from '$lib/schemas/api';
 
@@ -53,18 +52,12 @@ export const answerOf = (proof: CardSoftProof): ApiAnswer<typeof SoftProofSchema
 	conditionIdentifier: proof.conditionIdentifier
 });
 
-const PreviewSoftProofSchema = z.strictObject({
-	...SoftProofChoiceSchema.shape,
-	/** The kind and card as they stand in the editor, saved or not. */
-	kind: CardKindSchema,
-	card: CardSchema.optional()
-});
 
 /** The editor's card, unsaved, soft-proofed against the saved game. Writes nothing. */
 export async function previewSoftProof(event: Ev) {
 	const d = await db();
 	const source = await printSource(d, event.locals, event.params.gameId);
-	const input = await readJson(event.request, PreviewSoftProofSchema);
+	const input = await readJson(event.request, PreviewSoftProofRequestSchema);
 	if (input.card && input.card.data.type !== input.kind.type) {
 		throw new Invalid( `A ${input.kind.type} card kind cannot show ${input.card.data.type} data`);
 	}

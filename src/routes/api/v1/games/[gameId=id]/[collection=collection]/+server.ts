@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { z } from 'zod';
+import { ObjectCreateSchema } from '$lib/server/http/requests';
 import { api, readJson } from '$lib/server/http/api';
 import { requireGameRole } from '$lib/server/http/guard';
 import { applyChanges, loadGame, COLLECTION_FIELD } from '$lib/server/game-store';
@@ -30,7 +30,7 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
 	// An art piece is made by uploading its file, which checks the file and records its version.
 	if (collection === 'art') error(405, 'Upload art with POST /api/v1/games/{gameId}/art/upload');
-	const body = await readJson(request, z.looseObject({ id: z.string().optional() }));
+	const body = await readJson(request, ObjectCreateSchema);
 	const id = body.id ?? newId();
 	const after = await applyChanges(
 		d,

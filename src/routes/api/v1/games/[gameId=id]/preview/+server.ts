@@ -1,28 +1,20 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { z } from 'zod';
 import { api, readJson } from '$lib/server/http/api';
 import { requireGameRole } from '$lib/server/http/guard';
 import { loadGame } from '$lib/server/game-store';
 import { renderFace } from '$lib/server/faces';
 import { db } from '$lib/server/runtime';
-import { CardKindSchema, CardSchema } from '$lib/game/model';
+import { PreviewRequestSchema } from '$lib/server/http/requests';
 import type { ApiAnswer, CardPreviewSchema } from '$lib/schemas/api';
 import { Invalid } from '$lib/server/refusals';
 
-const PreviewSchema = z.strictObject({
-	/** The kind and card as they stand in the editor, saved or not. */
-	kind: CardKindSchema,
-	card: CardSchema.optional(),
-	side: z.enum(['front', 'back']),
-	guides: z.strictObject({ trim: z.boolean(), bleed: z.boolean(), safe: z.boolean() }).optional()
-});
 
 /** Live preview: lays out the editor's unsaved kind and card against the saved game. Writes nothing. */
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
 	await requireGameRole(d, locals, params.gameId, 'game.read');
-	const input = await readJson(request, PreviewSchema);
+	const input = await readJson(request, PreviewRequestSchema);
 	if (input.card && input.card.data.type !== input.kind.type) {
 		throw new Invalid(`A ${input.kind.type} card kind cannot show ${input.card.data.type} data`);
 	}

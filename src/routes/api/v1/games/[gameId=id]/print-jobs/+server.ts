@@ -1,25 +1,16 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { z } from 'zod';
+import { PrintJobRequestSchema } from '$lib/server/http/requests';
 import { api, readJson } from '$lib/server/http/api';
 import { printOptions, logDownload, pngDpi } from '$lib/server/printing';
 import { printSource } from '$lib/server/http/print-source';
 import { startSheetJob, startPngJob, jobState } from '$lib/server/print-jobs';
 import { db } from '$lib/server/runtime';
 
-const JobSchema = z.strictObject({
-	/** A proof id or number; the working game when absent. */
-	proof: z.string().max(40).optional(),
-	/** What to build: the sheet PDF, or the zip of one PNG per face. */
-	kind: z.enum(['sheets', 'pngs']).default('sheets'),
-	/** The print route's query parameters (or `profile`); for PNGs, `dpi` and `kinds`. */
-	query: z.record(z.string(), z.string().max(200)).default({})
-});
-
 /** Starts a sheet build or a PNG zip and answers at once with the job to follow. */
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const input = await readJson(request, JobSchema);
+	const input = await readJson(request, PrintJobRequestSchema);
 	const source = await printSource(d, locals, params.gameId, input.proof);
 	if (input.kind === 'pngs') {
 		const kinds = input.query.kinds ? input.query.kinds.split(',').filter(Boolean) : undefined;

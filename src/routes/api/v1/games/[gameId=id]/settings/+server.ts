@@ -1,16 +1,16 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { z } from 'zod';
+import { SettingsRequestSchema } from '$lib/server/http/requests';
 import { api, readJson } from '$lib/server/http/api';
 import { requireGameRole } from '$lib/server/http/guard';
-import { saveSettings, SettingsSchema } from '$lib/server/game-store';
+import { saveSettings } from '$lib/server/game-store';
 import { db } from '$lib/server/runtime';
 
 /** Game-wide settings: the rogue runner. `version` is the settings version the editor saw (0 if none). */
 export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
 	const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.edit');
-	const body = await readJson(request, SettingsSchema.extend({ version: z.int().min(0) }));
+	const body = await readJson(request, SettingsRequestSchema);
 	const { version, ...settings } = body;
 	await saveSettings(d, params.gameId, settings, version, { userId: user.id, teamId: game.teamId });
 	return json({ ok: true });

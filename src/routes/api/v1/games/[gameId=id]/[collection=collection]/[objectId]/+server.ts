@@ -1,13 +1,12 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { z } from 'zod';
+import { ArtSaveSchema, ObjectSaveSchema } from '$lib/server/http/requests';
 import { api, readJson } from '$lib/server/http/api';
 import { requireGameRole } from '$lib/server/http/guard';
 import { applyChanges, loadGame, COLLECTION_FIELD } from '$lib/server/game-store';
 import type { Collection } from '$lib/schemas/collections';
 import { collectionOf, objectIdParam, requireGameEdit } from '$lib/server/http/game-access';
 import { db } from '$lib/server/runtime';
-import { ArtAssetSchema } from '$lib/game/model';
 import { NotFound, Invalid } from '$lib/server/refusals';
 
 async function findObject(gameId: string, collection: Collection, id: string) {
@@ -33,7 +32,7 @@ export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	// Art's own fields are checked here (its file changes only by uploading); other objects in full when saved.
 	const body = await readJson(
 		request,
-		collection === 'art' ? ArtAssetSchema.partial().extend({ version: z.int().min(0) }) : z.looseObject({ version: z.int().min(0) })
+		collection === 'art' ? ArtSaveSchema : ObjectSaveSchema
 	);
 	const { version, ...sent } = body;
 	// The file behind an art piece changes only by uploading; here only its status and slot.

@@ -1,3 +1,5 @@
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { dirname, join, relative, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { openApiDocument } from './openapi';
 import { PrintJobSchema } from '$lib/schemas/api';
@@ -24,5 +26,24 @@ describe('the OpenAPI document', () => {
 		expect(doc.paths['/api/v1/print-jobs/{jobId}'].get.responses[200]).toMatchObject({
 			content: { 'application/json': { schema: { $ref: '#/components/schemas/PrintJob' } } }
 		});
+	});
+
+	it('describes every operation under /api/v1', () => {
+		const ROUTES = resolve(__dirname, '../../../routes');
+		const servers = (dir: string): string[] =>
+			readdirSync(dir).flatMap((n) => {
+				const p = join(dir, n);
+				return statSync(p).isDirectory() ? servers(p) : n === '+server.ts' ? [p] : [];
+			});
+		const operations = servers(join(ROUTES, 'api/v1')).flatMap((f) => {
+			// [gameId=id] → {gameId}: the folder names are the document's path parameters.
+			const path = '/' + relative(ROUTES, dirname(f)).replace(/\[(\w+)(=\w+)?\]/g, '{$1}');
+			const methods = [...readFileSync(f, 'utf8').matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g)].map((m) => m[1].toLowerCase());
+			return methods.map((m) => `${m.toUpperCase()} ${path}`);
+		});
+		expect(operations.length).toBeGreaterThan(50);
+		const described = new Set(Object.entries(doc.paths).flatMap(([path, ops]) => Object.keys(ops).map((m) => `${m.toUpperCase()} ${path}`)));
+		expect(operations.filter((o) => !described.has(o))).toEqual([]);
+		expect([...described].filter((o) => !operations.includes(o))).toEqual([]);
 	});
 });
