@@ -8,7 +8,8 @@ import { and, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Db } from './db';
 import { artFiles, artVersions, games, gameObjects, memberships, printJobs, proofs, users, type Role } from './db/schema';
-import { loadGame, StoreError } from './game-store';
+import { loadGame } from './game-store';
+import { Invalid, NotFound } from './refusals';
 import { createGameFrom } from './game-io';
 import { readArtFile } from './art-files';
 import { logActivity } from './activity';
@@ -51,9 +52,9 @@ async function artStillUsed(db: Db, sha256: string): Promise<boolean> {
  */
 export async function deleteGame(db: Db, actor: GameActor, input: z.infer<typeof DeleteGameSchema>) {
 	const [game] = await db.select().from(games).where(eq(games.id, actor.gameId));
-	if (!game) throw new StoreError(404, 'No such game');
+	if (!game) throw new NotFound('No such game');
 	if (!sameName(input.confirm, game.name)) {
-		throw new StoreError(400, `Type the game's name exactly (${game.name}) to delete it. Nothing was deleted.`);
+		throw new Invalid(`Type the game's name exactly (${game.name}) to delete it. Nothing was deleted.`);
 	}
 	const shas = (await db.selectDistinct({ sha256: artVersions.sha256 }).from(artVersions).where(eq(artVersions.gameId, game.id))).map((r) => r.sha256);
 	const printKeys = (

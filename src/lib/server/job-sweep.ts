@@ -59,7 +59,7 @@ export async function sweepFinishedJobs(db: Db, now = new Date()): Promise<Sweep
 		const lostBefore = new Date(now.getTime() - JOB_LOST_MS);
 		const lostPrints = await tx
 			.update(printJobs)
-			.set({ state: 'failed', error: { status: 500, message: 'The build was lost; start it again' }, finishedAt: now })
+			.set({ state: 'failed', error: { message: 'The build was lost; start it again' }, finishedAt: now })
 			.where(and(inArray(printJobs.state, ['queued', 'running']), lt(printJobs.createdAt, lostBefore)))
 			.returning({ id: printJobs.id });
 		const lostOdds = await tx

@@ -184,7 +184,7 @@ export async function setGamePressProfile(db: Db, actor: { userId: string; teamI
 		.set({ pressProfileId: profile?.id ?? null, updatedAt: new Date() })
 		.where(and(eq(games.id, gameId), eq(games.teamId, actor.teamId)))
 		.returning({ id: games.id });
-	if (!row) throw new ProfileError(404, 'No such game in this team');
+	if (!row) throw new NotFound('No such game in this team');
 	const summary = await gamePressSummary(db, actor.teamId, profile?.id ?? null);
 	await logActivity(db, {
 		teamId: actor.teamId,

@@ -5,7 +5,7 @@
 import { json, isHttpError, isRedirect, type RequestHandler } from '@sveltejs/kit';
 import type { z } from 'zod';
 import type { $ZodIssue } from 'zod/v4/core';
-import { controlCharacterIn, controlCharacterMessage } from './text-input';
+import { controlCharacterIn, controlCharacterMessage } from '../text-input';
 import { Invalid, Refusal } from '../refusals';
 import { answerFor } from './answers';
 

@@ -8,7 +8,7 @@
  */
 import { error, json, type Handle } from '@sveltejs/kit';
 import { controlCharacterInForm, controlCharacterMessage } from '../text-input';
-import { apiError } from '../api';
+import { apiError } from './api';
 
 /** Forms up to this size are read whole for the check; larger ones are uploads. */
 const TEXT_FORM_BYTES = 1024 * 1024;

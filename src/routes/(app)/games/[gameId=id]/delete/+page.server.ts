@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
-import { requireGameRole } from '$lib/server/guard';
+import { requireGameRole } from '$lib/server/http/guard';
 import { deleteGame, DeleteGameSchema, whatGoes } from '$lib/server/game-lifecycle';
-import { StoreError } from '$lib/server/game-store';
+import { Invalid } from '$lib/server/refusals';
 import { db } from '$lib/server/runtime';
 
 /** The owner's page for deleting the game: what goes with it, and the name typed to confirm. */
@@ -21,7 +21,7 @@ export const actions = {
 		try {
 			await deleteGame(d, { userId: user.id, name: user.name, teamId: game.teamId, gameId: game.id }, parsed.data);
 		} catch (e) {
-			if (e instanceof StoreError && e.status === 400) return fail(400, { message: e.message, confirm: parsed.data.confirm });
+			if (e instanceof Invalid) return fail(400, { message: e.message, confirm: parsed.data.confirm });
 			throw e;
 		}
 		redirect(303, `/teams/${game.teamId}?deleted=${encodeURIComponent(game.name)}`);

@@ -1,7 +1,8 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { requireGameRole, may } from '$lib/server/guard';
-import { gamePressSummary, profilesOf, setGamePressProfile, ProfileError } from '$lib/server/printer-profiles';
+import { requireGameRole, may } from '$lib/server/http/guard';
+import { gamePressSummary, profilesOf, setGamePressProfile } from '$lib/server/printer-profiles';
+import { answerFor } from '$lib/server/http/answers';
 import { db } from '$lib/server/runtime';
 
 /** Game settings: the default press profile (readers see it; designers and owners change it). */
@@ -29,7 +30,8 @@ export const actions = {
 			const press = await setGamePressProfile(d, { userId: user.id, teamId: game.teamId }, game.id, parsed.data.profile || null);
 			return { saved: `The game prints PDF/X for ${press.conditionIdentifier} (${press.profileName}) unless a printer profile is chosen.` };
 		} catch (e) {
-			if (e instanceof ProfileError) return fail(e.status, { error: e.message });
+			const refused = answerFor(e);
+			if (refused) return fail(refused.status, { error: refused.message });
 			throw e;
 		}
 	}

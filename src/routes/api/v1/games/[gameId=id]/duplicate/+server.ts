@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api } from '$lib/server/api';
-import { requireGameRole } from '$lib/server/guard';
+import { api } from '$lib/server/http/api';
+import { requireGameRole } from '$lib/server/http/guard';
 import { duplicateGame } from '$lib/server/game-lifecycle';
 import { db } from '$lib/server/runtime';
 
