@@ -8,7 +8,8 @@ import { z } from 'zod';
 import type { Db } from './db';
 import { objectVersions, users, type Collection } from './db/schema';
 import { COLLECTION_SEGMENTS, type CollectionSegment } from '$lib/schemas/collections';
-import { applyChanges, COLLECTION_FIELD, loadGame, StoreError } from './game-store';
+import { applyChanges, COLLECTION_FIELD, loadGame } from './game-store';
+import { NotFound } from './refusals';
 import { fieldChanges, objectLabel, type FieldChange } from '$lib/game/history';
 
 export interface HistoryActor {
@@ -105,7 +106,7 @@ export async function versionOf(db: Db, gameId: string, versionId: string): Prom
 		.select()
 		.from(objectVersions)
 		.where(and(eq(objectVersions.id, versionId), eq(objectVersions.gameId, gameId)));
-	if (!row) throw new StoreError(404, 'No such version of anything in this game');
+	if (!row) throw new NotFound('No such version of anything in this game');
 	return row;
 }
 

@@ -20,6 +20,7 @@ import { PrinterProfileSchema } from '$lib/schemas/printing';
 import { GameSchema } from '$lib/game/model';
 import { CommentSchema, CutSchema, VerdictSchema, WithdrawSchema } from '../proofs';
 import { DeleteGameSchema } from '../game-lifecycle';
+import { RestoreSchema } from '../history';
 import { RaceRequestSchema, SavedScenarioInputSchema } from '../odds';
 import { OddsRequestSchema } from '$lib/odds/report';
 import {
@@ -118,6 +119,8 @@ const PATHS: Record<string, Record<string, Operation>> = {
 		put: op('Save an object read at `version` (art: its status and slot only)', { 200: answer('The object, with its new version') }, ObjectSaveSchema.or(ArtSaveSchema)),
 		delete: op('Delete an object (?version=N)', { 200: answer('Deleted') })
 	},
+	'/api/v1/games/{gameId}/history': { get: op("An object's saved versions (?collection=&id=&limit=)", { 200: answer('The versions') }) },
+	'/api/v1/games/{gameId}/history/{versionId}/restore': { post: op('Restore a version as a new version (stale restores refused like stale saves)', { 201: answer('The restored object') }, RestoreSchema) },
 	'/api/v1/games/{gameId}/settings': { put: op('Save the game settings read at `version`', { 200: answer('The settings') }, SettingsRequestSchema) },
 	'/api/v1/games/{gameId}/art/upload': {
 		post: op('Upload an art file (multipart field "file", or the raw body with x-file-name)', { 201: answer('The art piece') })

@@ -1,8 +1,8 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { requireGameRole, may } from '$lib/server/guard';
+import { requireGameRole, may } from '$lib/server/http/guard';
 import { editPermission } from '$lib/server/game-access';
 import { historyOf, currentOf, versionOf, restoreVersion } from '$lib/server/history';
-import { StoreError } from '$lib/server/game-store';
+import { answerFor } from '$lib/server/http/answers';
 import { COLLECTION_SEGMENTS, type Collection } from '$lib/schemas/collections';
 import { fieldChanges, flattenFields, objectLabel } from '$lib/game/history';
 import { isUuid } from '$lib/schemas/ids';
@@ -72,7 +72,8 @@ export const actions = {
 		try {
 			row = await versionOf(d, params.gameId, versionId);
 		} catch (e) {
-			if (e instanceof StoreError) return fail(e.status, { message: e.message });
+			const refused = answerFor(e);
+			if (refused) return fail(refused.status, { message: refused.message });
 			throw e;
 		}
 		const { user, game } = await requireGameRole(d, locals, params.gameId, editPermission(row.collection));
@@ -80,12 +81,13 @@ export const actions = {
 		try {
 			restored = await restoreVersion(d, { userId: user.id, teamId: game.teamId, gameId: game.id }, versionId, { version: seen === '' ? null : Number(seen) });
 		} catch (e) {
-			if (e instanceof StoreError) {
+			const refused = answerFor(e);
+			if (refused) {
 				const message =
-					e.status === 409
+					refused.status === 409
 						? 'It changed after you opened this page. Nothing was restored: look at the newest version, then restore again if you still want to.'
-						: e.message;
-				return fail(e.status, { message });
+						: refused.message;
+				return fail(refused.status, { message });
 			}
 			throw e;
 		}

@@ -1,7 +1,8 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
-import { api, ApiError } from '$lib/server/api';
-import { requireGameRole } from '$lib/server/guard';
+import { api } from '$lib/server/http/api';
+import { Invalid } from '$lib/server/refusals';
+import { requireGameRole } from '$lib/server/http/guard';
 import { historyOf, HistoryQuerySchema } from '$lib/server/history';
 import { db } from '$lib/server/runtime';
 
@@ -10,6 +11,6 @@ export const GET: RequestHandler = api(async ({ locals, params, url }) => {
 	const d = await db();
 	await requireGameRole(d, locals, params.gameId, 'game.read');
 	const query = HistoryQuerySchema.safeParse(Object.fromEntries(url.searchParams));
-	if (!query.success) throw new ApiError(400, 'Name a collection (runners, money-tables, kinds, cards, art), an object id and a limit up to 500');
+	if (!query.success) throw new Invalid('Name a collection (runners, money-tables, kinds, cards, art), an object id and a limit up to 500');
 	return json({ history: await historyOf(d, params.gameId, query.data) });
 });
