@@ -1,6 +1,6 @@
 import { error, fail, redirect } from '@sveltejs/kit';
 import { requireGameRole, may } from '$lib/server/http/guard';
-import { editPermission } from '$lib/server/game-access';
+import { editPermission } from '$lib/server/http/game-access';
 import { historyOf, currentOf, versionOf, restoreVersion } from '$lib/server/history';
 import { answerFor } from '$lib/server/http/answers';
 import { COLLECTION_SEGMENTS, type Collection } from '$lib/schemas/collections';

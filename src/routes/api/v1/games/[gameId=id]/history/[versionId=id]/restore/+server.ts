@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { api, readJson } from '$lib/server/http/api';
 import { requireGameRole } from '$lib/server/http/guard';
-import { requireGameEdit } from '$lib/server/game-access';
+import { requireGameEdit } from '$lib/server/http/game-access';
 import { restoreVersion, RestoreSchema, versionOf } from '$lib/server/history';
 import { db } from '$lib/server/runtime';
 
