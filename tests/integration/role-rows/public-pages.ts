@@ -3,6 +3,7 @@ import type { Row } from '../role-table';
 import { as } from '../role-table';
 import { statusOf } from '../harness';
 import * as appLayout from '../../../src/routes/(app)/+layout.server';
+import * as rootLayout from '../../../src/routes/+layout.server';
 import * as newTeamPage from '../../../src/routes/(app)/teams/new/+page.server';
 import * as signinPage from '../../../src/routes/(auth)/signin/+page.server';
 import * as signupPage from '../../../src/routes/(auth)/signup/+page.server';
@@ -21,6 +22,8 @@ const unknownToken = 'no-such-token-0000000000000000000000';
 export const rows: Row[] = [
 	// The API's description holds no data: anyone may read it.
 	{ route: 'GET /api/v1/openapi.json', run: (w, who) => statusOf(() => openApi.GET(as(w, who))), expect: { default: 200 } },
+	// Every page's outer layout says only whether someone is signed in and their language for dates.
+	{ route: 'load / (layout of every page)', run: (w, who) => statusOf(() => rootLayout.load(as(w, who))), expect: { default: 200 } },
 	{ route: 'load / (layout of every signed-in page)', run: (w, who) => statusOf(() => appLayout.load(as(w, who))), expect: { default: 200, anonymous: 303 } },
 	{
 		route: 'load /teams/new (behind the signed-in layout)',
