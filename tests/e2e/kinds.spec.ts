@@ -76,3 +76,37 @@ test('a reviewer opens a card kind and cannot change it', async ({ page }) => {
 	await expect(page.getByRole('link', { name: /Download the CSV/ })).toBeVisible();
 	await expect(page.getByRole('button', { name: 'Preview the import' })).toHaveCount(0);
 });
+
+test('a designer’s card and kind previews draw from the editors’ state, and “As printed” shows the soft proof', async ({ page }) => {
+	test.setTimeout(120_000);
+	await signIn(page, 'designer@paddock.test');
+	const gameId = await demoGameId(page);
+	await page.goto(`/games/${gameId}/kinds`);
+	await page.getByRole('link', { name: 'Movement cards' }).click();
+	await expect(page).toHaveURL(new RegExp(`/games/${gameId}/kinds/[^/?]+$`));
+	await hydrated(page);
+	const cardsUrl = page.url();
+	const preview = page.getByTestId('card-preview');
+	await expect(preview.locator('svg').first()).toBeVisible();
+	await expect(page.getByText('is not complete yet')).toHaveCount(0);
+
+	// The kind's own form (its back is a union of shapes) previews too.
+	await page.getByRole('link', { name: 'Settings and layout' }).click();
+	await hydrated(page);
+	await expect(page.getByTestId('card-preview').locator('svg').first()).toBeVisible();
+	await expect(page.getByText('is not complete yet')).toHaveCount(0);
+
+	await page.goto(cardsUrl);
+	await hydrated(page);
+	// An edit redraws: the new name reaches the face.
+	await page.getByLabel('Card name', { exact: false }).fill('Preview check');
+	await expect(page.getByRole('heading', { name: 'Preview of “Preview check”' })).toBeVisible();
+	await expect(preview.locator('svg').first()).toBeVisible();
+	await expect(page.getByText('Up to date')).toBeVisible();
+	await expect(page.getByText('is not complete yet')).toHaveCount(0);
+	await page.getByTestId('as-printed').check();
+	const soft = preview.getByTestId('soft-proof').first();
+	await expect(soft).toBeVisible({ timeout: 60_000 });
+	await expect.poll(() => soft.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0)).toBe(true);
+	await page.screenshot({ path: 'test-results/card-preview-as-printed.png', fullPage: true });
+});
