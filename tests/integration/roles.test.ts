@@ -25,8 +25,9 @@ import * as softProofRows from './role-rows/soft-proof';
 import * as lifecycleRows from './role-rows/lifecycle';
 import * as pressDefaultRows from './role-rows/press-default';
 import * as historyRows from './role-rows/history';
+import * as proofCompareRows from './role-rows/proof-compare';
 
-const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...proofPages.rows, ...printRows.rows, ...printRows.pageRows, ...artRows.rows, ...kindRows.rows, ...dailyRows.rows, ...publicRows.rows, ...coverageRows.rows, ...oddsRows.rows, ...healthRows.rows, ...pressRows.rows, ...softProofRows.rows, ...lifecycleRows.rows, ...pressDefaultRows.rows, ...historyRows.rows, ...foundation.lastRows];
+const ROWS: Row[] = [...foundation.rows, ...gameData.rows, ...gamePages.rows, ...proofRows.rows, ...proofPages.rows, ...printRows.rows, ...printRows.pageRows, ...artRows.rows, ...kindRows.rows, ...dailyRows.rows, ...publicRows.rows, ...coverageRows.rows, ...oddsRows.rows, ...healthRows.rows, ...pressRows.rows, ...softProofRows.rows, ...lifecycleRows.rows, ...pressDefaultRows.rows, ...historyRows.rows, ...proofCompareRows.rows, ...foundation.lastRows];
 
 let world: World;
 beforeAll(async () => {

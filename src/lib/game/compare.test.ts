@@ -30,6 +30,14 @@ describe('comparing two snapshots', () => {
 		const changedIds = new Set(diff.changed.map((c) => c.cardId));
 		expect(changedIds).toEqual(new Set([after.cards[0].id, ...printing.map((c) => c.id)]));
 		expect(diff.changed.every((c) => c.parts.includes('data'))).toBe(true);
+		// The fields say what changed inside each card.
+		expect(diff.changed.find((c) => c.cardId === after.cards[0].id)!.fields).toContainEqual({
+			field: 'card.copies',
+			before: before.cards[0].copies,
+			after: before.cards[0].copies + 1
+		});
+		const wager = diff.changed.find((c) => c.cardId === printing[0].id)!;
+		expect(wager.fields.map((f) => f.field)).toEqual(table.rows.map((_, i) => `moneyTable.rows.${i + 1}.coins`));
 	});
 
 	it('tells art changes from data changes', () => {

@@ -4,6 +4,7 @@
  * changed when anything its faces are drawn from changed.
  */
 import type { ArtAsset, Card, Game } from './model';
+import { fieldChanges, type FieldChange } from './history';
 
 export type ChangePart = 'data' | 'layout' | 'art';
 
@@ -12,6 +13,8 @@ export interface CardChange {
 	name: string;
 	kindName: string;
 	parts: ChangePart[];
+	/** Which fields changed: `card.…` its own, `runner.…`, `moneyTable.…`, `kind.…`, `rogue.…`, `art.<slot>`. */
+	fields: FieldChange[];
 }
 
 export interface ProofComparison {
@@ -36,6 +39,25 @@ function artOf(game: Game, card: Card): ArtAsset[] {
 			(as.scope === 'runner' && (as.targetId === runnerId || as.targetId === rogueId))
 		);
 	});
+}
+
+/** Everything a card's faces are drawn from, as one object whose fields can be compared. */
+function drawnFrom(game: Game, card: Card) {
+	const d = card.data;
+	const strip = (o: object | undefined) => (o ? JSON.parse(withoutVersion(o)) : undefined);
+	return {
+		card: strip(card),
+		runner: strip(d.type === 'movement' || d.type === 'wager' ? game.runners.find((r) => r.id === d.runnerId) : undefined),
+		moneyTable: strip(d.type === 'wager' ? game.moneyTables.find((t) => t.id === d.moneyTableId) : undefined),
+		rogue: strip(d.type === 'rogue' ? game.rogueRunner : undefined),
+		kind: strip(game.kinds.find((k) => k.id === card.kindId)),
+		art: Object.fromEntries(artOf(game, card).map((a) => [a.assignment!.slot, a.fileName + (a.status === 'final' ? '' : ` (${a.status})`) + ` ${a.sha256.slice(0, 8)}`]))
+	};
+}
+
+/** The fields of everything a card is drawn from that differ between two snapshots. */
+export function cardFieldChanges(before: Game, was: Card, after: Game, card: Card): FieldChange[] {
+	return fieldChanges(drawnFrom(before, was), drawnFrom(after, card));
 }
 
 /** What a card's faces are drawn from, in three parts. */
@@ -70,7 +92,7 @@ export function compareGames(before: Game, after: Game): ProofComparison {
 		const a = cardInputs(before, was);
 		const b = cardInputs(after, card);
 		const parts = (['data', 'layout', 'art'] as const).filter((p) => a[p] !== b[p]);
-		if (parts.length) result.changed.push({ cardId: id, name: card.name, kindName: kindName(after, card), parts: [...parts] });
+		if (parts.length) result.changed.push({ cardId: id, name: card.name, kindName: kindName(after, card), parts: [...parts], fields: cardFieldChanges(before, was, after, card) });
 		else result.unchanged++;
 	}
 	for (const [id, card] of old) {
