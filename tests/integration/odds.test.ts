@@ -101,8 +101,8 @@ describe('POST /api/v1/games/{gameId}/odds', () => {
 		const { body } = await post({ race: { players: 4 }, samples: 1_000_000, seed: 5 });
 		const id = body.job.id;
 		const designer = w.callers.designer!.id;
-		await expect(oddsJobView(w.db, w.callers.reviewer!.id, id)).rejects.toMatchObject({ status: 404 });
-		await expect(cancelOddsJob(w.db, w.callers.owner!.id, id)).rejects.toMatchObject({ status: 404 });
+		await expect(oddsJobView(w.db, w.callers.reviewer!.id, id)).rejects.toMatchObject({ reason: 'not-found' });
+		await expect(cancelOddsJob(w.db, w.callers.owner!.id, id)).rejects.toMatchObject({ reason: 'not-found' });
 		const cancelled = await cancelOddsJob(w.db, designer, id);
 		expect(cancelled.state).toBe('cancelled');
 		// It stays cancelled: the worker notices and never writes an answer.

@@ -12,6 +12,7 @@ import { loadGame } from '$lib/server/game-store';
 import { DEFAULT_PROFILE } from '$lib/schemas/printing';
 import { cutProof } from '$lib/server/proofs';
 import { saveProfile } from '$lib/server/printer-profiles';
+import { historyOf } from '$lib/server/history';
 
 const API = join(process.cwd(), 'src/routes/api/v1');
 
@@ -41,6 +42,7 @@ interface Row {
 let w: World;
 let proofId = '';
 let profileId = '';
+let versionId = '';
 let game: Awaited<ReturnType<typeof loadGame>>;
 
 beforeAll(async () => {
@@ -49,6 +51,7 @@ beforeAll(async () => {
 	const owner = w.callers.owner!;
 	proofId = (await cutProof(w.db, { gameId: w.gameId, userId: owner.id, userName: owner.name, description: 'Strict bodies' })).id;
 	profileId = (await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'Strict shop' }, owner.id)).id;
+	versionId = (await historyOf(w.db, w.gameId, { collection: 'runner', objectId: game.runners[0].id, limit: 1 }))[0].id;
 });
 afterAll(async () => w?.close());
 
@@ -89,6 +92,13 @@ const ROWS: Row[] = [
 	{ file: 'games/[gameId=id]/odds/+server.ts', method: 'POST', who: 'owner', params: gameP, body: () => ({ ...scenario, exact: true }) },
 	{ file: 'games/[gameId=id]/odds/+server.ts', method: 'POST', who: 'owner', params: gameP, body: () => ({ race: { players: 3 }, samples: 10 }) },
 	{ file: 'games/[gameId=id]/odds/scenarios/+server.ts', method: 'POST', who: 'owner', params: gameP, body: () => ({ name: 'Strict', scenario }) },
+	{
+		file: 'games/[gameId=id]/history/[versionId=id]/restore/+server.ts',
+		method: 'POST',
+		who: 'owner',
+		params: () => ({ gameId: w.gameId, versionId }),
+		body: () => ({ version: game.runners[0].version })
+	},
 	{ file: 'games/[gameId=id]/proofs/+server.ts', method: 'POST', who: 'owner', params: gameP, body: () => ({ description: 'Strict proof' }) },
 	{
 		file: 'games/[gameId=id]/proofs/[proofId]/comments/+server.ts',

@@ -1,4 +1,4 @@
-import type { z } from 'zod';
+import { z } from 'zod';
 
 /**
  * A form's value cut down to the keys its schema knows. A form over a union (a card's data, a
@@ -48,4 +48,12 @@ export function knownKeysOnly(schema: z.ZodType, value: unknown): unknown {
 
 function isPlainObject(v: unknown): v is Record<string, unknown> {
 	return typeof v === 'object' && v !== null && !Array.isArray(v);
+}
+
+/**
+ * The schema a form over `schema` validates with, on the server and in the browser: the form's extra
+ * union fields are cut first, then the strict check runs as for the API.
+ */
+export function formSchema<S extends z.ZodType>(schema: S) {
+	return z.preprocess((value) => knownKeysOnly(schema, value), schema);
 }

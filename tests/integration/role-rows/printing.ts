@@ -107,7 +107,7 @@ export const rows: Row[] = [
 		run: async (w, who) => {
 			const p = await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'scratch' }, designer(w).id);
 			return statusOf(() =>
-				profileApi.PUT(as(w, who, { method: 'PUT', params: { teamId: w.teamId, profileId: p.id }, json: { ...p, marginMm: 6 } }))
+				profileApi.PUT(as(w, who, { method: 'PUT', params: { teamId: w.teamId, profileId: p.id }, json: { ...DEFAULT_PROFILE, name: 'scratch', version: p.version, marginMm: 6 } }))
 			);
 		},
 		expect: { ...profileEditors, owner: 200, designer: 200, printer: 200, default: 403 }

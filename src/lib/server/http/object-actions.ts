@@ -8,6 +8,7 @@ import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { keepSavedGame, requireGameRole } from './guard';
 import { applyChanges, loadGame, OBJECT_SCHEMAS } from '../game-store';
+import { formSchema } from '$lib/schemas/known-keys';
 import { editPermission } from './game-access';
 import type { Collection } from '$lib/schemas/collections';
 import { db } from '../runtime';
@@ -29,7 +30,7 @@ export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, 
 	const d = await db();
 	const access = await requireGameRole(d, event.locals, event.params.gameId, editPermission(collection));
 	const { user, game } = access;
-	const form = await superValidate(event.request, zod4(OBJECT_SCHEMAS[collection]));
+	const form = await superValidate(event.request, zod4(formSchema(OBJECT_SCHEMAS[collection])));
 	if (!form.valid) return fail(400, { form });
 	const { version, ...object } = form.data as { id: string; version?: number };
 	let saved;
