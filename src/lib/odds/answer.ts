@@ -3,20 +3,10 @@
  * game's wager cards priced, and the job view of a large run.
  */
 import type { StageReport } from './report';
+import type { WagerPrice } from './wagers';
 
-export interface WagerLine {
-	cardId: string;
-	expectedCoins: number;
-	cardName: string;
-	betType: string;
-	runnerId: string;
-	tier: number;
-	moneyTableId: string;
-	moneyTableName: string;
-	generous: boolean;
-	topRowPlace?: number;
-	topRowSuggestion?: number;
-}
+/** A wager card priced: the engine's own shape, also as the API answers it. */
+export type WagerLine = WagerPrice;
 
 export type StageAnswer = StageReport & { kind: 'stage'; target: number; wagers: WagerLine[] };
 export interface RaceAnswer {
