@@ -168,6 +168,9 @@ const PATHS: Record<string, Record<string, Operation>> = {
 		post: op('Cut a proof', { 201: answer('The proof', 'ProofCut') }, CutSchema)
 	},
 	'/api/v1/games/{gameId}/proofs/compare': { get: op('What changed between two proofs (?a=&b=)', { 200: answer('The changes') }) },
+	'/api/v1/games/{gameId}/proofs/compare/diff.png': {
+		get: op("The pixel difference of one card's face between two proofs (?a=&b=&card=&side=)", { 200: file('image/png', 'The difference') })
+	},
 	'/api/v1/games/{gameId}/proofs/{proofId}': { get: op('One proof: its snapshot, comments and verdicts', { 200: answer('The proof') }) },
 	'/api/v1/games/{gameId}/proofs/{proofId}/release': { post: op('Release a proof to the printers', { 200: answer('Released') }) },
 	'/api/v1/games/{gameId}/proofs/{proofId}/comments/{commentId}/resolve': { post: op('Resolve a comment thread', { 200: answer('Resolved') }) },
