@@ -14,9 +14,11 @@ import { inspectArt, ArtRejected, type InspectedArt } from '$lib/art/inspect';
 /** Creates a game in the team from a whole document and its art bytes (by SHA-256). */
 export async function createGameFrom(
 	db: Db,
-	input: { teamId: string; userId: string; game: Game; art: Map<string, Uint8Array> }
+	input: { teamId: string; userId: string; game: Game; art: Map<string, Uint8Array> },
+	/** A copy of a stored game keeps its problems, as its saves did (they warn, not refuse); an import must be whole. */
+	options: { keepProblems?: boolean } = {}
 ): Promise<GameRow> {
-	const problems = gameProblems(input.game);
+	const problems = options.keepProblems ? [] : gameProblems(input.game);
 	if (problems.length) throw new Invalid(`The game has problems: ${problems.slice(0, 5).join('; ')}`);
 	for (const asset of input.game.art) {
 		if (!input.art.has(asset.sha256)) throw new Invalid(`Art file ${asset.fileName} is missing`);

@@ -116,7 +116,7 @@ export async function duplicateGame(db: Db, actor: GameActor): Promise<GameRow> 
 	const game = await loadGame(db, actor.gameId);
 	const art = new Map<string, Uint8Array>();
 	for (const asset of game.art) if (!art.has(asset.sha256)) art.set(asset.sha256, await readArtFile(asset.sha256));
-	const row = await createGameFrom(db, { teamId: actor.teamId, userId: actor.userId, game: { ...game, name: copyName(game.name) }, art });
+	const row = await createGameFrom(db, { teamId: actor.teamId, userId: actor.userId, game: { ...game, name: copyName(game.name) }, art }, { keepProblems: true });
 	await logActivity(db, { teamId: actor.teamId, gameId: row.id, userId: actor.userId, action: 'game.duplicated', detail: { from: game.name } });
 	return row;
 }
