@@ -64,6 +64,22 @@ describe('duplicating a game', () => {
 		expect((await loadGame(w.db, w.gameId)).runners[0].name).toBe(original.runners[0].name);
 	});
 
+	it('copies a game whose saves left a problem (a save warns of it, so the copy keeps it)', async () => {
+		const { body } = await duplicate('designer');
+		const source = await loadGame(w.db, body.game.id);
+		// One more runner: a money table without a row for the new last place now has a problem; the
+		// runner's save warns of it and is kept.
+		const { version: _v, ...runner } = source.runners[0];
+		await applyChanges(w.db, body.game.id, [{ collection: 'runner', id: 'rn-extra', baseVersion: null, object: { ...runner, id: 'rn-extra', name: 'Extra', sortOrder: 99 } }], {
+			userId: w.callers.designer!.id,
+			teamId: w.teamId,
+			action: 'test'
+		});
+		const again = await duplicate('designer', body.game.id);
+		expect(again.status).toBe(201);
+		expect((await loadGame(w.db, again.body.game.id)).runners.map((r) => r.id)).toContain('rn-extra');
+	});
+
 	it('answers 404 to another team and makes nothing', async () => {
 		const before = (await w.db.select().from(games)).length;
 		expect((await duplicate('outsider')).status).toBe(404);
