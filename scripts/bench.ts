@@ -14,7 +14,8 @@
  * (g) the built server under HTTP load: memory, first sheet, faces, /me under builds, the PNG
  *     zip (./bench/server.ts; port BENCH_PORT, default 4431).
  *
- * Writes bench-results.json. Flags: --repeats N, --no-chromium, --no-server.
+ * Writes bench-results.json. Flags: --repeats N, --no-chromium, --no-server; `--only cli` runs section (f)
+ * alone and prints it (no file written).
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -40,7 +41,7 @@ import { benchCliRace } from './bench/cli-race';
 import { benchServer } from './bench/server';
 
 const { values: flags } = parseArgs({
-	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'no-server': { type: 'boolean' }, 'memory-child': { type: 'boolean' } }
+	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'no-server': { type: 'boolean' }, only: { type: 'string' }, 'memory-child': { type: 'boolean' } }
 });
 const REPEATS = Math.max(1, Number(flags.repeats ?? 5));
 /** The job every scenario runs: A4, spaced, long-edge duplex, crop marks, cutting guide. */
@@ -300,6 +301,12 @@ function measureMemoryInChild(): { baselineRssMb: number; baselineHeapMb: number
 /* ------------------------------------------------------------------ main */
 
 async function main() {
+	if (flags.only !== undefined) {
+		if (flags.only !== 'cli') throw new Error(`--only takes cli (the print CLI against chromium), not ${flags.only}`);
+		const { game, art } = await demoGameWithArt();
+		await benchCliRace(game, art, JOB);
+		return;
+	}
 	const loadBefore = loadavg()[0];
 	console.log(
 		`Paddock print benchmark: ${REPEATS} repeats, node ${process.version}, ${cpus().length} cores, ` +

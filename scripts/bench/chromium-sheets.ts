@@ -8,7 +8,8 @@ import { join } from 'node:path';
 import type { Game } from '../../src/lib/game/model';
 import { PrintCache } from '../../src/lib/print/cache';
 import type { FaceLayout } from '../../src/lib/print/display-list';
-import { cachedFacePng, renderGameFaces, type GamePdfOptions } from '../../src/lib/print/job';
+import { cachedFacePng, renderGameFaces } from '../../src/lib/print/job';
+import type { GamePdfOptions } from '../../src/lib/print/sheet-job';
 import { paperSize } from '../../src/lib/print/paper';
 import { planSheets, type SheetOptions } from '../../src/lib/print/sheet-plan';
 

@@ -11,7 +11,7 @@ import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { Game } from '../../src/lib/game/model';
-import type { GamePdfOptions } from '../../src/lib/print/job';
+import type { GamePdfOptions } from '../../src/lib/print/sheet-job';
 import { CHROMIUM, CHROMIUM_ARGS } from '../../tests/e2e/env';
 import { buildPrint } from '../build-print.js';
 import { isStale } from '../build-if-stale.js';

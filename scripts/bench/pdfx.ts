@@ -11,7 +11,8 @@ import { fileURLToPath } from 'node:url';
 import { demoGameWithArt } from '../../src/lib/demo/demo-art';
 import { PrintCache } from '../../src/lib/print/cache';
 import { builtinPressProfile } from '../../src/lib/print/colour/press-profiles';
-import { buildCardPressPdf, buildGamePdf, type GamePdfOptions } from '../../src/lib/print/job';
+import { buildCardPressPdf } from '../../src/lib/print/press-job';
+import { buildGamePdf, type GamePdfOptions } from '../../src/lib/print/sheet-job';
 import type { PdfxTarget } from '../../src/lib/print/pdfx';
 
 interface Timed {
