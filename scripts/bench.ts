@@ -15,7 +15,7 @@
  *     zip (./bench/server.ts; port BENCH_PORT, default 4431).
  *
  * Writes bench-results.json. Flags: --repeats N, --no-chromium, --no-server; `--only cli` runs section (f)
- * alone and prints it (no file written).
+ * alone and `--only server` section (g); each prints its figures (no file written).
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -302,7 +302,8 @@ function measureMemoryInChild(): { baselineRssMb: number; baselineHeapMb: number
 
 async function main() {
 	if (flags.only !== undefined) {
-		if (flags.only !== 'cli') throw new Error(`--only takes cli (the print CLI against chromium), not ${flags.only}`);
+		if (flags.only === 'server') return void (await benchServer());
+		if (flags.only !== 'cli') throw new Error(`--only takes cli (the print CLI against chromium) or server (the built app), not ${flags.only}`);
 		const { game, art } = await demoGameWithArt();
 		await benchCliRace(game, art, JOB);
 		return;

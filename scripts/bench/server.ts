@@ -30,8 +30,11 @@ export interface Server {
 	stop(): Promise<void>;
 }
 
-/** `buildDir`: a copy of build/ to run (a long soak keeps running while build/ is rebuilt). */
-export async function startServer(port: number, buildDir = 'build'): Promise<Server> {
+/**
+ * `buildDir`: a copy of build/ to run (a long soak keeps running while build/ is rebuilt); also
+ * BENCH_BUILD_DIR, e.g. to compare two builds.
+ */
+export async function startServer(port: number, buildDir = process.env.BENCH_BUILD_DIR ?? 'build'): Promise<Server> {
 	if (buildDir === 'build') {
 		const { buildAppIfStale } = await import('../build-if-stale.js');
 		await buildAppIfStale();

@@ -2,7 +2,7 @@
  * Print jobs off the main thread: a long-lived pool of worker threads (piscina), each running the
  * job functions of ./job.ts with its own print cache (./cache.ts). At most `size` builds run at
  * once (default: one per core); up to `maxQueue` more wait, and past that `run` refuses with
- * PrintBusyError (HTTP 503). A rebuild of a game goes to the worker that built it last when that
+ * PrintBusyError (HTTP 503), unless the job was admitted by a bounded queue of its own. A rebuild of a game goes to the worker that built it last when that
  * one is free, so its cache still holds the faces and the art.
  *
  * `idleSize` workers (one by default) start with the pool and load the fonts and the WebAssembly
@@ -104,6 +104,8 @@ export interface RunOptions {
 	affinity?: string;
 	/** Aborting drops the job if it is still waiting. */
 	signal?: AbortSignal;
+	/** Already given a place by a bounded queue of the caller's: never refused for a full pool. */
+	admitted?: boolean;
 }
 
 /** What the app needs of a print pool; another runner (a shared queue) can stand in. */
@@ -155,7 +157,7 @@ export class PrintPool implements PrintRunner {
 	readonly maxQueue: number;
 	readonly workerPath: string;
 	private piscina: Piscina<WorkerTask, unknown>;
-	/** The game each worker built last (by piscina's worker id). */
+	/** The game each live worker built last (by piscina's worker id; a stopped worker's entry goes). */
 	private lastAffinity = new Map<number, string>();
 	private inFlight = 0;
 	private warm: Promise<void>;
@@ -180,7 +182,7 @@ export class PrintPool implements PrintRunner {
 			minThreads: this.idleSize,
 			maxThreads: this.size,
 			idleTimeout: this.idleSize === this.size ? Infinity : options.idleMs ?? DEFAULT_IDLE_MS,
-			maxQueue: this.maxQueue,
+			// The bound is kept in `run`: jobs a caller's bounded queue admitted wait here whatever the count.
 			concurrentTasksPerWorker: 1,
 			// Idle workers wait on a message port, so a job's own async work is never parked.
 			atomics: 'disabled',
@@ -189,6 +191,11 @@ export class PrintPool implements PrintRunner {
 			// thread's heap grew to stays resident while the thread lives.
 			resourceLimits: { maxYoungGenerationSizeMb: WORKER_YOUNG_MB },
 			loadBalancer: (task, workers) => {
+				// Workers come and go (idle ones stop): forget the ones that are gone.
+				if (this.lastAffinity.size > workers.length) {
+					const live = new Set(workers.map((w) => w.id));
+					for (const id of this.lastAffinity.keys()) if (!live.has(id)) this.lastAffinity.delete(id);
+				}
 				const free = workers.filter((w) => w.currentUsage === 0 && !w.terminating && !w.destroyed);
 				if (!free.length) return null;
 				const affinity = ((task as unknown as Record<symbol, unknown>)[Piscina.queueOptionsSymbol] as QueueOptions | null)?.affinity;
@@ -232,6 +239,7 @@ export class PrintPool implements PrintRunner {
 
 	async run(job: PrintJob, options: RunOptions = {}): Promise<PrintJobResult> {
 		if (options.signal?.aborted) throw options.signal.reason ?? new Error('aborted');
+		if (!options.admitted && this.full) throw new PrintBusyError('The print queue is full; try again in a minute');
 		const channel = options.onProgress ? new MessageChannel() : undefined;
 		// The worker closes its end when the job is over, after its last progress message.
 		const progressDone = channel ? once(channel.port1, 'close') : undefined;
@@ -254,7 +262,6 @@ export class PrintPool implements PrintRunner {
 			})) as PrintJobResult | WorkerFailure;
 		} catch (e) {
 			channel?.port1.close();
-			if ((e as Error).message === 'Task queue is at limit') throw new PrintBusyError('The print queue is full; try again in a minute');
 			throw e;
 		} finally {
 			this.inFlight--;

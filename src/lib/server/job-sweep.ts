@@ -83,6 +83,25 @@ export async function sweepFinishedJobs(db: Db, now = new Date()): Promise<Sweep
 	});
 }
 
+/**
+ * With the embedded database only this process runs jobs, so jobs still open at its start were
+ * lost with the process before: closed as failed, so their owners hear so and they no longer
+ * hold places in the bounded print queue.
+ */
+export async function closeJobsLeftOpen(db: Db, now = new Date()): Promise<number> {
+	const prints = await db
+		.update(printJobs)
+		.set({ state: 'failed', error: { message: 'The build was lost in a restart; start it again' }, finishedAt: now })
+		.where(inArray(printJobs.state, ['queued', 'running']))
+		.returning({ id: printJobs.id });
+	const odds = await db
+		.update(oddsJobs)
+		.set({ state: 'failed', error: 'The run was lost in a restart; start it again', finishedAt: now })
+		.where(inArray(oddsJobs.state, ['queued', 'running']))
+		.returning({ id: oddsJobs.id });
+	return prints.length + odds.length;
+}
+
 /** Offers to sweep every minute (or PADDOCK_SWEEP_SECONDS); returns the stop. */
 export function startSweeping(db: Db): () => void {
 	let running: Promise<unknown> = Promise.resolve();

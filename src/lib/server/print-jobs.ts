@@ -12,12 +12,12 @@ import { and, eq, lt, ne, sql } from 'drizzle-orm';
 import { createHash } from 'node:crypto';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
-import { Busy, Conflict, NotFound, Refusal } from './refusals';
+import { Conflict, NotFound, Refusal } from './refusals';
 import { artBytes, buildPngZip, sheetsName, pngZipName, runPrint, type PngJobOptions, type PrintSource } from './printing';
 import { storage, StorageUnavailableError, type StoredFile } from './storage';
 import { jobQueue } from './job-queue';
 import { holdingJobFiles } from './job-sweep';
-import { printPool } from '$lib/print/pool';
+import { admitPrintJob, noteBuildSeconds } from './job-admission';
 import type { Game } from '$lib/game/model';
 import type { GamePdfOptions } from '$lib/print/sheet-job';
 import type { ApiAnswer, PrintJobSchema } from '$lib/schemas/api';
@@ -58,12 +58,14 @@ export async function startPngJob(db: Db, source: PrintSource, options: PngJobOp
 
 async function queueJob(db: Db, source: PrintSource, request: SheetRequest | PngRequest, fileName: string): Promise<PrintJobRow> {
 	await db.delete(printJobs).where(lt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS)));
-	// A full local queue refuses now (503) rather than as a failed job later.
-	if (!jobQueue().shared && printPool().full) throw new Busy('The print queue is full; try again in a minute');
-	const [row] = await db
-		.insert(printJobs)
-		.values({ userId: source.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, fileName })
-		.returning();
+	// A full queue refuses now (503), before the row is written, rather than as a failed job later.
+	const row = await admitPrintJob(db, async (tx) => {
+		const [inserted] = await tx
+			.insert(printJobs)
+			.values({ userId: source.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, fileName })
+			.returning();
+		return inserted;
+	});
 	await jobQueue().send('print', row.id);
 	return row;
 }
@@ -128,6 +130,7 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 			.then(() => db.update(printJobs).set({ done, total }).where(and(eq(printJobs.id, id), eq(printJobs.state, 'running'))))
 			.then(() => undefined, () => undefined);
 	};
+	const started = performance.now();
 	try {
 		const art = await artBytes(request.game);
 		// Isolated from the worker's cache when the bytes must not depend on what ran before: a
@@ -135,8 +138,9 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		const isolated = request.proof || jobQueue().shared;
 		const result =
 			request.type === 'pngs'
-				? await buildPngZip(request.game, art, { ...request.options, isolated }, progress)
-				: await runPrint({ type: 'sheets', isolated, game: request.game, art, options: request.options }, progress);
+				? await buildPngZip(request.game, art, { ...request.options, isolated, admitted: true }, progress)
+				: await runPrint({ type: 'sheets', isolated, game: request.game, art, options: request.options }, progress, { admitted: true });
+		noteBuildSeconds((performance.now() - started) / 1000);
 		const sha256 = createHash('sha256').update(result.bytes).digest('hex');
 		const [extension, type] = request.type === 'pngs' ? ['zip', 'application/zip'] : ['pdf', 'application/pdf'];
 		const fileKey = `print/${sha256.slice(0, 2)}/${sha256}.${extension}`;

@@ -86,10 +86,18 @@ export async function pdfxTarget(
 	return { standard: options.output, profile, intent: options.intent ?? 'relative' };
 }
 
-/** Runs a job in the pool; engine refusals become 400 (or 404), a full queue 503. */
-export async function runPrint(job: PrintJob, onProgress?: (done: number, total: number) => void, affinity = job.game.slug): Promise<PrintJobResult> {
+/**
+ * Runs a job in the pool; engine refusals become 400 (or 404), a full pool 503. `admitted`: the
+ * job already has its place in the bounded print queue (./job-admission.ts), so the pool takes it
+ * whatever its own queue holds.
+ */
+export async function runPrint(
+	job: PrintJob,
+	onProgress?: (done: number, total: number) => void,
+	{ affinity = job.game.slug, admitted = false }: { affinity?: string; admitted?: boolean } = {}
+): Promise<PrintJobResult> {
 	try {
-		return await printPool().run(job, { onProgress, affinity });
+		return await printPool().run(job, { onProgress, affinity, admitted });
 	} catch (e) {
 		if (e instanceof PrintBusyError) throw new Busy(e.message);
 		const status = (e as { status?: number }).status;
@@ -183,7 +191,7 @@ export const pngZipName = (source: PrintSource, dpi: number) => pngZipFileName(d
 export async function buildPngZip(
 	game: Game,
 	art: Map<string, Uint8Array>,
-	options: PngJobOptions & { isolated?: boolean },
+	options: PngJobOptions & { isolated?: boolean; admitted?: boolean },
 	onProgress?: (done: number, total: number) => void
 ): Promise<PrintJobResult> {
 	pngDpi(String(options.dpi));
@@ -200,7 +208,7 @@ export async function buildPngZip(
 						progress.reduce((n, x) => n + x.total, 0)
 					);
 				},
-				`${game.slug}#png${index}`
+				{ affinity: `${game.slug}#png${index}`, admitted: options.admitted }
 			)
 		)
 	);

@@ -76,7 +76,11 @@ export class Invalid extends Refusal {
 }
 
 export class Busy extends Refusal {
-	constructor(message: string) {
+	/** `retryAfterS`: when to try again, if known (an HTTP answer's Retry-After). */
+	constructor(
+		message: string,
+		readonly retryAfterS?: number
+	) {
 		super('busy', message, undefined, 'busy');
 	}
 }

@@ -13,7 +13,7 @@ import { warmRecentGames } from './print-warmup';
 import { defineJob, jobQueue, sharedQueue, useJobQueue } from './job-queue';
 import { buildQueuedJob, failJob } from './print-jobs';
 import { failOddsJob, runQueuedOddsJob, stopOddsRunsHere } from './odds';
-import { startSweeping } from './job-sweep';
+import { closeJobsLeftOpen, startSweeping } from './job-sweep';
 
 interface Runtime {
 	database: Database;
@@ -75,6 +75,7 @@ async function start(): Promise<Runtime> {
 	watchVitals(() => ({ printWorkersWarm: printWarm }));
 	defineJobs(database.db);
 	if (config.databaseUrl) useJobQueue(await sharedQueue(config.databaseUrl));
+	else await closeJobsLeftOpen(database.db);
 	const stopSweeping = startSweeping(database.db);
 	const runtime: Runtime = { database, stopCatcher: mail.stop, catching: mail.catching };
 	const stop = async () => {

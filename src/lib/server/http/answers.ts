@@ -4,7 +4,7 @@
  * out of reach. The JSON API, form actions and page loads all ask here.
  */
 import { error } from '@sveltejs/kit';
-import { Refusal, type RefusalReason } from '../refusals';
+import { Busy, Refusal, type RefusalReason } from '../refusals';
 import { StorageMissingError, StorageUnavailableError } from '../storage/store';
 import { ArtRejected } from '$lib/art/rejected';
 import { BundleError } from '$lib/game/bundle';
@@ -34,10 +34,13 @@ export interface Answer {
 	message: string;
 	code?: string;
 	details?: unknown;
+	/** A busy answer's time to come back, seconds. */
+	retryAfterS?: number;
 }
 
 /** The status and message for a refusal; null for anything else (a fault: 500). */
 export function answerFor(e: unknown): Answer | null {
+	if (e instanceof Busy && e.retryAfterS) return { status: 503, message: e.message, code: e.code, retryAfterS: e.retryAfterS };
 	if (e instanceof Refusal) return { status: STATUS[e.reason], message: e.message, code: e.code, details: e.details };
 	if (e instanceof ArtRejected) return { status: e.reason === 'too-large' ? 413 : 400, message: e.message };
 	if (e instanceof PrintBusyError) return { status: 503, message: e.message, code: 'busy' };

@@ -25,15 +25,15 @@ const CODES: Record<number, string> = {
 	503: 'unavailable'
 };
 
-/** Seconds a client should wait after a 503 (a full print queue, a file store out of reach). */
+/** Seconds a client should wait after a 503 when nothing better is known (a file store out of reach). */
 export const RETRY_AFTER_S = 30;
 
-export function apiError(status: number, message: string, code?: string, details?: unknown) {
+export function apiError(status: number, message: string, code?: string, details?: unknown, retryAfterS = RETRY_AFTER_S) {
 	return json(
 		{ error: { code: code ?? CODES[status] ?? 'error', message, ...(details ? { details } : {}) } },
 		// A refused body may be left unread: close the connection rather than reuse it. A busy
 		// server says when to come back (RFC 9110 §10.2.3).
-		{ status, headers: status === 413 ? { connection: 'close' } : status === 503 ? { 'retry-after': String(RETRY_AFTER_S) } : {} }
+		{ status, headers: status === 413 ? { connection: 'close' } : status === 503 ? { 'retry-after': String(retryAfterS) } : {} }
 	);
 }
 
@@ -45,7 +45,7 @@ export function api<H extends RequestHandler<any, any>>(handler: H): H {
 			return await handler(event);
 		} catch (e) {
 			const answer = answerFor(e);
-			if (answer) return apiError(answer.status, answer.message, answer.code, answer.details);
+			if (answer) return apiError(answer.status, answer.message, answer.code, answer.details, answer.retryAfterS);
 			if (isHttpError(e)) return apiError(e.status, e.body.message);
 			if (isRedirect(e)) throw e;
 			console.error(e);

@@ -63,6 +63,13 @@ const answer = (description: string, schema?: Named | Record<string, unknown>, t
 const body = (schema: z.ZodType) => ({ required: true, content: { 'application/json': { schema: jsonSchema(schema, 'input') } } });
 const file = (type: string, description: string) => answer(description, { type: 'string', contentMediaType: type }, type);
 const refusals = { default: answer('A refusal with its reason', 'Error') };
+/** Builds past the print queue's bound are refused, nothing queued, with when to come back. */
+const queueFull = {
+	503: {
+		...answer('The print queue is full: nothing was queued; try again after Retry-After seconds', 'Error'),
+		headers: { 'Retry-After': { description: 'Seconds until a place in the queue is likely free', schema: { type: 'integer', minimum: 1 } } }
+	}
+};
 
 type Operation = { summary: string; requestBody?: unknown; responses: Record<string, unknown>; parameters?: unknown[] };
 const op = (summary: string, responses: Record<string, unknown>, requestBody?: z.ZodType): Operation => ({
@@ -153,7 +160,7 @@ const PATHS: Record<string, Record<string, Operation>> = {
 	},
 	'/api/v1/games/{gameId}/print-preview': { get: op('The first sheet of a build, as SVG, with the plan', { 200: answer('The sheet', 'PrintPreview') }) },
 	'/api/v1/games/{gameId}/print.pdf': { get: op('The imposed sheets', { 200: file('application/pdf', 'The PDF') }) },
-	'/api/v1/games/{gameId}/print-jobs': { post: op('Start building the sheets or a PNG zip', { 202: answer('The job', 'PrintJob') }, PrintJobRequestSchema) },
+	'/api/v1/games/{gameId}/print-jobs': { post: op('Start building the sheets or a PNG zip', { 202: answer('The job', 'PrintJob'), ...queueFull }, PrintJobRequestSchema) },
 	'/api/v1/print/calibration.pdf': { get: op('A duplex calibration sheet (paper, duplex, margin)', { 200: file('application/pdf', 'The PDF') }) },
 	'/api/v1/press-colour': { get: op('A screen colour (?hex=) as it will print', { 200: answer('The colour') }) },
 	'/api/v1/openapi.json': { get: op('This document', { 200: answer('The OpenAPI document') }) },
