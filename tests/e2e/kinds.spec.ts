@@ -102,7 +102,7 @@ test('a designer’s card and kind previews draw from the editors’ state, and 
 	await page.getByRole('textbox', { name: /^Card name/ }).fill('Preview check');
 	await expect(page.getByRole('heading', { name: 'Preview of “Preview check”' })).toBeVisible();
 	await expect(preview.locator('svg').first()).toBeVisible();
-	await expect(page.getByText('Up to date')).toBeVisible();
+	await expect(page.getByText('Drawn as you type')).toBeVisible();
 	await expect(page.getByText('is not complete yet')).toHaveCount(0);
 	await page.getByTestId('as-printed').check();
 	const soft = preview.getByTestId('soft-proof').first();

@@ -1,29 +1,24 @@
 /**
  * The one typeface of every card: Roboto Slab, shipped with the app (never a system font,
  * so output does not depend on the machine). resvg reads the woff2 files as they are;
- * pdf-lib and the text measurer need TrueType, so the woff2 is decompressed once per process.
+ * pdf-lib needs TrueType, so the woff2 is decompressed once per process (the metrics measured
+ * from either are the same: ./typeface.ts).
  */
 import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import fontkit from '@pdf-lib/fontkit';
 import wawoff from 'wawoff2';
 import type { FontWeight } from './display-list';
+import { FONT_FILES as FILES, type MeasuringFont } from './typeface';
+
+export { FONT_FAMILY } from './typeface';
 
 const require = createRequire(import.meta.url);
 
-const FILES: Record<FontWeight, string> = {
-	regular: '@fontsource/roboto-slab/files/roboto-slab-latin-400-normal.woff2',
-	bold: '@fontsource/roboto-slab/files/roboto-slab-latin-700-normal.woff2'
-};
-
-export const FONT_FAMILY = 'Roboto Slab';
-
-export interface LoadedFont {
+export interface LoadedFont extends MeasuringFont {
 	weight: FontWeight;
 	woff2: Uint8Array;
 	ttf: Uint8Array;
-	/** fontkit font, for measuring advance widths and metrics. */
-	metrics: fontkit.Font;
 }
 
 export type FontSet = Record<FontWeight, LoadedFont>;

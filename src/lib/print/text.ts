@@ -5,11 +5,11 @@
  * glyphs at the positions computed below and never re-flow them.
  */
 import type { Colour, FontWeight, TextItem } from './display-list';
-import type { FontSet, LoadedFont } from './fonts';
+import type { MeasuringFont, MeasuringFonts as FontSet } from './typeface';
 import { MM_PER_INCH } from '../game/model';
 import { PT_PER_INCH } from './paper';
 
-type FontMetrics = LoadedFont['metrics'];
+type FontMetrics = MeasuringFont['metrics'];
 
 /** 1 pt = 1/72 in (PostScript point, as used by PDF: ISO 32000-1 §8.3.2.3). */
 export const MM_PER_PT = MM_PER_INCH / PT_PER_INCH;

@@ -8,20 +8,12 @@ import { renderSvg, type GuideOptions } from '$lib/print/svg';
 import type { FaceLayout, ImageAsset } from '$lib/print/display-list';
 import type { Card, CardKind, Game } from '$lib/game/model';
 import { readArtFile } from './art-files';
+import { artAssets, linkedFaceSvg } from '$lib/print/face-svg';
 
 /** The game's art as ImageAssets; bytes are read only when the SVG embeds them. */
 export async function gameImages(game: Game, withBytes: boolean): Promise<Map<string, ImageAsset>> {
-	const images = new Map<string, ImageAsset>();
-	for (const a of game.art) {
-		if (images.has(a.sha256) || a.mime === 'image/svg+xml') continue;
-		images.set(a.sha256, {
-			id: a.sha256,
-			mime: a.mime,
-			bytes: withBytes ? await readArtFile(a.sha256) : new Uint8Array(),
-			widthPx: a.widthPx,
-			heightPx: a.heightPx
-		});
-	}
+	const images = artAssets(game);
+	if (withBytes) for (const image of images.values()) image.bytes = await readArtFile(image.id);
 	return images;
 }
 
@@ -37,12 +29,13 @@ export interface FaceRequest {
 
 export async function renderFace(req: FaceRequest): Promise<{ svg: string; layout: FaceLayout }> {
 	const fonts = await loadFonts();
-	const images = await gameImages(req.game, !req.artUrl);
+	// In a page: the very function the browser's live preview draws with.
+	if (req.artUrl) return linkedFaceSvg({ ...req, artUrl: req.artUrl, fonts });
+	const images = await gameImages(req.game, true);
 	const layout = layoutFace({ game: req.game, kind: req.kind, card: req.card, side: req.side, images, fonts });
-	const source = req.artUrl ? (id: string) => (images.has(id) ? req.artUrl!(id) : undefined) : images;
-	const svg = renderSvg(layout, source, { guides: req.guides });
+	const svg = renderSvg(layout, images, { guides: req.guides });
 	// A standalone SVG (opened as a file or an <img>) cannot use the page's fonts: carry them along.
-	return { svg: req.artUrl ? svg : withFonts(svg, fonts), layout };
+	return { svg: withFonts(svg, fonts), layout };
 }
 
 function withFonts(svg: string, fonts: FontSet): string {

@@ -11,7 +11,7 @@ import { FaceBuilder, hex, type Box } from './face-builder';
  * every card of that runner), then the kind's.
  */
 export function findArt(
-	game: Game,
+	game: Pick<Game, 'art'>,
 	kind: CardKind,
 	card: Card | undefined,
 	runnerId: string | undefined,

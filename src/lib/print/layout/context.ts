@@ -4,9 +4,12 @@ import type { ArtAsset, Card, CardKind, Game } from '../../game/model';
 import { drawArtSlot, findArt, imageFor } from './art';
 import type { Box, FaceBuilder } from './face-builder';
 
+/** What a face reads of its game: enough to lay out a card without the rest of the document. */
+export type LayoutGame = Pick<Game, 'name' | 'runners' | 'rogueRunner' | 'moneyTables' | 'art'>;
+
 export interface FaceContext<P = Record<string, unknown>> {
 	b: FaceBuilder;
-	game: Game;
+	game: LayoutGame;
 	kind: CardKind;
 	card?: Card;
 	side: 'front' | 'back';

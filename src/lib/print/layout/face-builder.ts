@@ -3,7 +3,7 @@
  * carries meaning (text, symbols, tables, cells) lies inside the safe area.
  */
 import type { Colour, DisplayItem, FaceLayout, TextItem } from '../display-list';
-import type { FontSet } from '../fonts';
+import type { MeasuringFonts } from '../typeface';
 import { pathBounds } from '../symbols';
 import { fitText, ptToMm, type FitOptions, type FitResult, type TextBox } from '../text';
 import type { FracBox } from './templates';
@@ -29,7 +29,7 @@ export class FaceBuilder {
 	private readonly content: { item: DisplayItem; what: string }[] = [];
 
 	constructor(
-		readonly fonts: FontSet,
+		readonly fonts: MeasuringFonts,
 		readonly geometry: FaceGeometry,
 		/** Names the face in warnings, e.g. 'Movement “Pip 2” front'. */
 		readonly context: string

@@ -3,11 +3,11 @@
  * draws the same way. The built-in layouts are data (templates/cards/*.json) and a kind's
  * `params` override them; each face module below draws one kind of face.
  */
-import { bleedMm, safeMm, type Card, type CardData, type CardKind, type CardKindType, type Game } from '../../game/model';
+import { bleedMm, safeMm, type Card, type CardData, type CardKind, type CardKindType } from '../../game/model';
 import type { FaceLayout, ImageAsset } from '../display-list';
-import type { FontSet } from '../fonts';
+import type { MeasuringFonts } from '../typeface';
 import { drawBack, type BackParams } from './back';
-import type { FaceContext } from './context';
+import type { FaceContext, LayoutGame } from './context';
 import { drawCustom, type CustomParams } from './custom';
 import { FaceBuilder, hex } from './face-builder';
 import { drawModifier, type ModifierParams } from './modifier';
@@ -22,8 +22,10 @@ export { TEMPLATES, DEFAULT_FRONT_TEMPLATE, type CardTemplate, type FaceModule }
 
 export type Side = 'front' | 'back';
 
+export type { LayoutGame } from './context';
+
 export interface LayoutFaceInput {
-	game: Game;
+	game: LayoutGame;
 	kind: CardKind;
 	/** The card; a shared back may be laid out without one. */
 	card?: Card;
@@ -31,7 +33,7 @@ export interface LayoutFaceInput {
 	/** Loaded art by content hash (ImageAsset.id = ArtAsset.sha256). */
 	images?: ReadonlyMap<string, ImageAsset>;
 	/** From loadFonts(): text is measured with the fonts' own metrics. */
-	fonts: FontSet;
+	fonts: MeasuringFonts;
 }
 
 type Draw = (ctx: FaceContext<never>, data: CardData | undefined) => void;

@@ -16,6 +16,7 @@ import {
 	RUN_SCHEMAS
 } from '$lib/game/generator';
 import { answerFor } from '$lib/server/http/answers';
+import type { LayoutGame } from '$lib/print/layout';
 
 const VIEWS = ['cards', 'settings', 'generate'] as const;
 type View = (typeof VIEWS)[number];
@@ -56,6 +57,8 @@ export const load = async ({ locals, params, url }) => {
 		runners: game.runners,
 		rogue: game.rogueRunner ?? null,
 		moneyTables: game.moneyTables,
+		/** What the live preview lays a face out against, in the browser. */
+		layoutGame: { name: game.name, runners: game.runners, rogueRunner: game.rogueRunner, moneyTables: game.moneyTables, art: game.art } satisfies LayoutGame,
 		/** Art placed in the kind's slots (kind-wide), by slot. */
 		slotArt: Object.fromEntries(
 			kind.artSlots.map((slot) => [
