@@ -14,6 +14,7 @@ import { openWorld, type World } from './harness';
 import { as, g } from './role-table';
 import { printJobs } from '$lib/server/db/schema';
 import { buildQueuedJob } from '$lib/server/print-jobs';
+import { artBytes, buildPngZip } from '$lib/server/printing';
 import { storage } from '$lib/server/storage';
 import { loadGame } from '$lib/server/game-store';
 import * as queueApi from '../../src/routes/api/v1/games/[gameId=id]/print-jobs/+server';
@@ -33,7 +34,7 @@ async function queue(query: Record<string, string>, proof?: string) {
 }
 
 async function waitDone(id: string) {
-	for (let i = 0; i < 600; i++) {
+	for (let i = 0; i < 2400; i++) {
 		const res = (await jobApi.GET(as(w, 'designer', { params: { jobId: id } }))) as Response;
 		const state = (await res.json()) as { state: string; pages?: number; error?: string };
 		if (state.state === 'done' || state.state === 'failed') return state;
@@ -93,4 +94,44 @@ describe('a queued sheet build', () => {
 		expect(done.state).toBe('failed');
 		expect(done.error).toBeTruthy();
 	});
+});
+
+describe('a PNG zip', () => {
+	let kind: string;
+	beforeAll(async () => {
+		kind = (await loadGame(w.db, w.gameId)).kinds[0].id;
+	});
+
+	async function queuePngs(proof: string) {
+		const res = (await queueApi.POST(as(w, 'designer', { params: g(w), json: { kind: 'pngs', proof, query: { kinds: kind } } }))) as Response;
+		expect(res.status).toBe(202);
+		return (await res.json()) as { id: string; state: string; done: number; total: number };
+	}
+
+	it('asked for again while the first is kept is done at once, on the same file', async () => {
+		const first = await queuePngs('1');
+		expect((await waitDone(first.id)).state).toBe('done');
+		const again = await queuePngs('1');
+		// Answered done in the queueing reply itself: nothing is built a second time.
+		expect(again.state).toBe('done');
+		expect(again.done).toBe(again.total);
+		const rows = await w.db.select().from(printJobs).where(eq(printJobs.gameId, w.gameId));
+		const key = (id: string) => rows.find((r) => r.id === id)!.fileKey;
+		expect(key(again.id)).toBe(key(first.id));
+		const a = new Uint8Array(await ((await fileApi.GET(as(w, 'designer', { params: { jobId: first.id } }))) as Response).arrayBuffer());
+		const b = new Uint8Array(await ((await fileApi.GET(as(w, 'designer', { params: { jobId: again.id } }))) as Response).arrayBuffer());
+		expect(b).toEqual(a);
+	}, 600_000);
+
+	it('reports one total from its first progress to its last, so the bar never moves back', async () => {
+		const game = await loadGame(w.db, w.gameId);
+		const totals = new Set<number>();
+		let lastDone = 0;
+		await buildPngZip(game, await artBytes(game), { dpi: 300, kinds: [kind], isolated: true }, (done, total) => {
+			totals.add(total);
+			expect(done).toBeGreaterThanOrEqual(lastDone);
+			lastDone = done;
+		});
+		expect(totals.size).toBe(1);
+	}, 600_000);
 });

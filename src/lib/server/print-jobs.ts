@@ -8,7 +8,7 @@
  * date), in isolation from any worker cache, so a retry after a crash makes the same bytes; and
  * only the first build to finish is recorded, so a job never ends with two different files.
  */
-import { and, eq, lt, ne, sql } from 'drizzle-orm';
+import { and, desc, eq, gt, isNotNull, lt, ne, sql } from 'drizzle-orm';
 import { createHash } from 'node:crypto';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
@@ -58,6 +58,8 @@ export async function startPngJob(db: Db, source: PrintSource, options: PngJobOp
 
 async function queueJob(db: Db, source: PrintSource, request: SheetRequest | PngRequest, fileName: string): Promise<PrintJobRow> {
 	await db.delete(printJobs).where(lt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS)));
+	const again = await finishedAlready(db, source, request, fileName);
+	if (again) return again;
 	// A full queue refuses now (503), before the row is written, rather than as a failed job later.
 	const row = await admitPrintJob(db, async (tx) => {
 		const [inserted] = await tx
@@ -68,6 +70,47 @@ async function queueJob(db: Db, source: PrintSource, request: SheetRequest | Png
 	});
 	await jobQueue().send('print', row.id);
 	return row;
+}
+
+/**
+ * The same request built a moment ago (the game as data and the options alike, so the same file):
+ * a new job, already done, on that file. A second download of a proof's sheets or PNGs is then
+ * at once. Under the sweep's shared lock, so the file cannot go between finding and naming it.
+ */
+async function finishedAlready(db: Db, source: PrintSource, request: SheetRequest | PngRequest, fileName: string): Promise<PrintJobRow | null> {
+	return holdingJobFiles(db, async (tx) => {
+		const [done] = await tx
+			.select()
+			.from(printJobs)
+			.where(
+				and(
+					eq(printJobs.gameId, source.gameId),
+					eq(printJobs.state, 'done'),
+					isNotNull(printJobs.fileKey),
+					gt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS)),
+					sql`${printJobs.request} = ${JSON.stringify(request)}::jsonb`
+				)
+			)
+			.orderBy(desc(printJobs.finishedAt))
+			.limit(1);
+		if (!done) return null;
+		const [row] = await tx
+			.insert(printJobs)
+			.values({
+				userId: source.userId,
+				gameId: source.gameId,
+				request: done.request,
+				fileName,
+				fileKey: done.fileKey,
+				state: 'done',
+				done: done.done,
+				total: done.total,
+				result: done.result,
+				finishedAt: new Date()
+			})
+			.returning();
+		return row;
+	});
 }
 
 export async function jobFor(db: Db, userId: string, id: string): Promise<PrintJobRow> {

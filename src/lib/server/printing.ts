@@ -196,13 +196,16 @@ export async function buildPngZip(
 ): Promise<PrintJobResult> {
 	pngDpi(String(options.dpi));
 	const count = printPool().size;
-	const progress = Array.from({ length: count }, () => ({ done: 0, total: 0 }));
+	const progress = Array.from({ length: count }, () => ({ done: 0, total: 0, heard: false }));
 	const parts = await Promise.all(
 		progress.map((p, index) =>
 			runPrint(
 				{ type: 'png-part', isolated: options.isolated, game, art, options: { dpi: options.dpi, kinds: options.kinds, shard: { index, count } } },
 				(done, total) => {
-					Object.assign(p, { done, total });
+					Object.assign(p, { done, total, heard: true });
+					// The whole count is known once every share has told its own: before that a
+					// growing total would move the bar backwards.
+					if (progress.some((x) => !x.heard)) return;
 					onProgress?.(
 						progress.reduce((n, x) => n + x.done, 0),
 						progress.reduce((n, x) => n + x.total, 0)
