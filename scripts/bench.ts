@@ -13,6 +13,7 @@
  * (f) the print CLI against chromium as whole processes, alternated (./bench/cli-race.ts).
  * (g) the built server under HTTP load: memory, first sheet, faces, /me under builds, the PNG
  *     zip (./bench/server.ts; port BENCH_PORT, default 4431).
+ * (h) the live preview in chromium: keystroke to new face (./bench/preview.ts; BENCH_PREVIEW_PORT).
  *
  * Writes bench-results.json. Flags: --repeats N, --no-chromium, --no-server; `--only cli` runs section (f)
  * alone and `--only server` section (g); each prints its figures (no file written).
@@ -39,6 +40,7 @@ import { benchPdfx } from './bench/pdfx';
 import { writeChromiumSheets } from './bench/chromium-sheets';
 import { benchCliRace } from './bench/cli-race';
 import { benchServer } from './bench/server';
+import { benchPreview } from './bench/preview';
 
 const { values: flags } = parseArgs({
 	options: { repeats: { type: 'string' }, 'no-chromium': { type: 'boolean' }, 'no-server': { type: 'boolean' }, only: { type: 'string' }, 'memory-child': { type: 'boolean' } }
@@ -480,7 +482,8 @@ async function main() {
 				uploadMemory: await benchUploadMemory(),
 				pdfx: await benchPdfx(),
 				cliRace: flags['no-chromium'] ? null : await benchCliRace(demo, art, JOB),
-				server: flags['no-server'] ? null : await benchServer()
+				server: flags['no-server'] ? null : await benchServer(),
+				preview: flags['no-chromium'] ? null : await benchPreview()
 			},
 			null,
 			'\t'
