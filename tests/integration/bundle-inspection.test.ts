@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
 import { count, eq } from 'drizzle-orm';
 import { PNG } from 'pngjs';
-import { openWorld, type World } from './harness';
+import { openWorld, type World, actorIn } from './harness';
 import { exportBundle, importBundle } from '$lib/server/game-io';
 import { openArtFile } from '$lib/server/art-files';
 import { Invalid } from '$lib/server/refusals';
@@ -89,7 +89,7 @@ describe('served art files', () => {
 		const artFileApi = await import('../../src/routes/api/v1/games/[gameId=id]/art-files/[sha256]/+server');
 		const { uploadArt } = await import('$lib/server/art-uploads');
 		const bytes = new TextEncoder().encode('<svg xmlns="http://www.w3.org/2000/svg" width="40" height="20"><rect width="40" height="20" fill="#3a6"/></svg>');
-		const { art: svg } = await uploadArt(w.db, w.gameId, { bytes, fileName: 'plain.svg' }, { userId: w.callers.designer!.id, teamId: w.teamId });
+		const { art: svg } = await uploadArt(w.db, actorIn(w, 'designer'), { bytes, fileName: 'plain.svg' });
 		const get = async (sha256: string, thumb = false) =>
 			(await artFileApi.GET(
 				fakeEvent(w.callers.designer, { path: `/x${thumb ? '?thumb=1' : ''}`, params: { gameId: w.gameId, sha256 } }) as never

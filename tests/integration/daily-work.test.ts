@@ -3,7 +3,7 @@
  * shows its art, saves are not refused because of another object, and the other everyday checks.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openWorld, fakeEvent, type World } from './harness';
+import { openWorld, fakeEvent, type World, actorIn } from './harness';
 import { applyChanges, loadGame } from '$lib/server/game-store';
 import { Invalid } from '$lib/server/refusals';
 import { savedNote } from '$lib/server/http/object-actions';
@@ -54,15 +54,14 @@ describe("a released proof's print preview", () => {
 
 describe('saving one object is never refused because of another', () => {
 	it('a new runner saves although a table now lacks a place; the warning links to the table', async () => {
-		const by = { userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' };
 		let game = await loadGame(w.db, w.gameId);
 		const field = game.runners.length;
 		const rows = Array.from({ length: field }, (_, i) => ({ place: i + 1, coins: field - i }));
-		await applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: 'exact-fit', baseVersion: null, object: { id: 'exact-fit', name: 'Exact fit', rows } }], by);
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id: 'exact-fit', baseVersion: null, object: { id: 'exact-fit', name: 'Exact fit', rows } }], action: 'test' });
 		game = await loadGame(w.db, w.gameId);
 		const runner = { ...game.runners[0], id: 'late-entry', name: 'Late Entry', sortOrder: 50 };
 		delete (runner as { version?: number }).version;
-		const saved = await applyChanges(w.db, w.gameId, [{ collection: 'runner', id: runner.id, baseVersion: null, object: runner }], by);
+		const saved = await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'runner', id: runner.id, baseVersion: null, object: runner }], action: 'test' });
 		expect((await loadGame(w.db, w.gameId)).runners.map((r) => r.id)).toContain('late-entry');
 		const warning = saved.saveWarnings.find((x) => x.ref?.id === 'exact-fit');
 		expect(warning?.message).toContain(`place ${field + 1} has no coins`);
@@ -72,7 +71,7 @@ describe('saving one object is never refused because of another', () => {
 		// Saving the table itself with the gap is still refused: that is its own problem.
 		const table = (await loadGame(w.db, w.gameId)).moneyTables.find((t) => t.id === 'exact-fit')!;
 		await expect(
-			applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: table.id, baseVersion: table.version!, object: { ...table, name: 'Renamed' } }], by)
+			applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id: table.id, baseVersion: table.version!, object: { ...table, name: 'Renamed' } }], action: 'test' })
 		).rejects.toThrow(Invalid);
 	});
 

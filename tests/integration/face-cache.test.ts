@@ -4,7 +4,7 @@
  * so they are sent `immutable` (RFC 8246).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openWorld, fakeEvent, type World } from './harness';
+import { openWorld, fakeEvent, type World, actorIn } from './harness';
 import { applyChanges, loadGame } from '$lib/server/game-store';
 import { cutProof } from '$lib/server/proofs';
 import * as cardFace from '../../src/routes/api/v1/games/[gameId=id]/cards/[cardId]/face.svg/+server';
@@ -44,19 +44,11 @@ describe('working faces', () => {
 		expect(guided.status).toBe(200);
 
 		// Saving another card bumps the game's version but leaves this face as it was: still 304.
-		await applyChanges(w.db, w.gameId, [{ collection: 'card', id: other.id, baseVersion: other.version, object: { ...other, version: undefined, name: `${other.name} (renamed)` } }], {
-			userId: w.callers.designer!.id,
-			teamId: w.teamId,
-			action: 'test'
-		});
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'card', id: other.id, baseVersion: other.version, object: { ...other, version: undefined, name: `${other.name} (renamed)` } }], action: 'test' });
 		expect((await cardFace.GET(ev({ params, headers: { 'if-none-match': etag } }))).status).toBe(304);
 
 		// Renaming this card changes what it prints: a new ETag and a new face.
-		await applyChanges(w.db, w.gameId, [{ collection: 'card', id: card.id, baseVersion: card.version, object: { ...card, version: undefined, name: 'Renamed runner card' } }], {
-			userId: w.callers.designer!.id,
-			teamId: w.teamId,
-			action: 'test'
-		});
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'card', id: card.id, baseVersion: card.version, object: { ...card, version: undefined, name: 'Renamed runner card' } }], action: 'test' });
 		const changed = await cardFace.GET(ev({ params, headers: { 'if-none-match': etag } }));
 		expect(changed.status).toBe(200);
 		expect(changed.headers.get('etag')).not.toBe(etag);

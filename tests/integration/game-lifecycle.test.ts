@@ -6,7 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { Jimp } from 'jimp';
-import { openWorld, fakeEvent, type World, type Who } from './harness';
+import { openWorld, fakeEvent, type World, type Who, actorIn } from './harness';
 import { loadGame, applyChanges } from '$lib/server/game-store';
 import { cutProof, releaseProof } from '$lib/server/proofs';
 import { uploadArt } from '$lib/server/art-uploads';
@@ -56,11 +56,7 @@ describe('duplicating a game', () => {
 
 		// Changing the copy leaves the original alone.
 		const runner = copy.runners[0];
-		await applyChanges(w.db, body.game.id, [{ collection: 'runner', id: runner.id, baseVersion: runner.version, object: { ...runner, name: 'Copy only' } }], {
-			userId: w.callers.designer!.id,
-			teamId: w.teamId,
-			action: 'test'
-		});
+		await applyChanges(w.db, actorIn(w, 'designer', body.game.id), { changes: [{ collection: 'runner', id: runner.id, baseVersion: runner.version, object: { ...runner, name: 'Copy only' } }], action: 'test' });
 		expect((await loadGame(w.db, w.gameId)).runners[0].name).toBe(original.runners[0].name);
 	});
 
@@ -70,11 +66,7 @@ describe('duplicating a game', () => {
 		// One more runner: a money table without a row for the new last place now has a problem; the
 		// runner's save warns of it and is kept.
 		const { version: _v, ...runner } = source.runners[0];
-		await applyChanges(w.db, body.game.id, [{ collection: 'runner', id: 'rn-extra', baseVersion: null, object: { ...runner, id: 'rn-extra', name: 'Extra', sortOrder: 99 } }], {
-			userId: w.callers.designer!.id,
-			teamId: w.teamId,
-			action: 'test'
-		});
+		await applyChanges(w.db, actorIn(w, 'designer', body.game.id), { changes: [{ collection: 'runner', id: 'rn-extra', baseVersion: null, object: { ...runner, id: 'rn-extra', name: 'Extra', sortOrder: 99 } }], action: 'test' });
 		const again = await duplicate('designer', body.game.id);
 		expect(again.status).toBe(201);
 		expect((await loadGame(w.db, again.body.game.id)).runners.map((r) => r.id)).toContain('rn-extra');
@@ -113,7 +105,7 @@ describe('deleting a game', () => {
 		const copyId = body.game.id;
 		// Art only the copy has.
 		const png = await new Jimp({ width: 16, height: 16, color: 0x123456ff }).getBuffer('image/png');
-		const uploaded = await uploadArt(w.db, copyId, { bytes: new Uint8Array(png), fileName: 'only-in-copy.png' }, { userId: w.callers.artist!.id, teamId: w.teamId });
+		const uploaded = await uploadArt(w.db, actorIn(w, 'artist', copyId), { bytes: new Uint8Array(png), fileName: 'only-in-copy.png' });
 		const own = uploaded.game.art.find((a) => a.fileName === 'only-in-copy.png')!.sha256;
 		const shared = (await loadGame(w.db, w.gameId)).art[0].sha256;
 		expect(await storage().has(artKey(own))).toBe(true);

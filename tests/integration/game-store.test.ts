@@ -3,7 +3,7 @@
  * keep the newer data, broken references are refused, and bundles import exactly.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openWorld, type World } from './harness';
+import { openWorld, type World, actorIn } from './harness';
 import { loadGame, applyChanges } from '$lib/server/game-store';
 import { Invalid } from '$lib/server/refusals';
 import { exportBundle, importBundle } from '$lib/server/game-io';
@@ -32,12 +32,11 @@ describe('game store', () => {
 	});
 
 	it('refuses a stale save and keeps the newer data', async () => {
-		const by = { userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' };
 		const game = await loadGame(w.db, w.gameId);
 		const table = game.moneyTables[0];
 		const v = table.version!;
-		await applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: table.id, baseVersion: v, object: { ...table, name: 'Tab one' } }], by);
-		const stale = applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id: table.id, baseVersion: v, object: { ...table, name: 'Tab two' } }], by);
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id: table.id, baseVersion: v, object: { ...table, name: 'Tab one' } }], action: 'test' });
+		const stale = applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id: table.id, baseVersion: v, object: { ...table, name: 'Tab two' } }], action: 'test' });
 		await expect(stale).rejects.toMatchObject({ reason: 'conflict' });
 		const after = await loadGame(w.db, w.gameId);
 		expect(after.moneyTables[0].name).toBe('Tab one');
@@ -45,10 +44,9 @@ describe('game store', () => {
 	});
 
 	it('refuses a change that breaks a reference, writing nothing', async () => {
-		const by = { userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' };
 		const before = await loadGame(w.db, w.gameId);
 		const runner = before.runners[0];
-		const removal = applyChanges(w.db, w.gameId, [{ collection: 'runner', id: runner.id, baseVersion: runner.version!, remove: true }], by);
+		const removal = applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'runner', id: runner.id, baseVersion: runner.version!, remove: true }], action: 'test' });
 		await expect(removal).rejects.toBeInstanceOf(Invalid);
 		const after = await loadGame(w.db, w.gameId);
 		expect(after.runners).toHaveLength(before.runners.length);

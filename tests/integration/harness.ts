@@ -11,6 +11,7 @@ import { inProcessQueue, sharedQueue, useJobQueue, type JobQueue } from '$lib/se
 import { seedDemo, DEMO_ROLES, demoEmail } from '$lib/server/demo';
 import { findUserByEmail, createUser } from '$lib/server/users';
 import { createTeam } from '$lib/server/teams';
+import { gameActorOf, type GameActor } from '$lib/server/actor';
 import { games, type Role } from '$lib/server/db/schema';
 import { useStorage, storageFor, type Storage } from '$lib/server/storage';
 import { mkdtempSync } from 'node:fs';
@@ -184,4 +185,9 @@ export async function statusOf(run: () => unknown): Promise<number> {
 /** The body superforms posts for `dataType: 'json'` forms. */
 export function superformJson(data: unknown): Record<string, string> {
 	return { __superform_json: stringify(data) };
+}
+
+/** A demo member acting on a game of the demo team (the demo game unless named), as the guard would hand a service. */
+export function actorIn(w: World, role: Role = 'designer', gameId = w.gameId): GameActor {
+	return gameActorOf(w.callers[role]!, role, { id: gameId, teamId: w.teamId });
 }

@@ -4,7 +4,7 @@
  * team's caller gets 404 and changes nothing.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openWorld, fakeEvent, type World, type Who } from './harness';
+import { openWorld, fakeEvent, type World, type Who, actorIn } from './harness';
 import { applyChanges, loadGame } from '$lib/server/game-store';
 import { historyOf } from '$lib/server/history';
 import * as historyApi from '../../src/routes/api/v1/games/[gameId=id]/history/+server';
@@ -19,11 +19,10 @@ afterAll(async () => w?.close());
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 const ev = (who: Who, call: Parameters<typeof fakeEvent>[1]) => fakeEvent(w.callers[who], call) as any;
-const by = () => ({ userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' });
 
 async function renameRunner(name: string) {
 	const runner = (await loadGame(w.db, w.gameId)).runners[0];
-	await applyChanges(w.db, w.gameId, [{ collection: 'runner', id: runner.id, baseVersion: runner.version, object: { ...runner, name } }], by());
+	await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'runner', id: runner.id, baseVersion: runner.version, object: { ...runner, name } }], action: 'test' });
 	return (await loadGame(w.db, w.gameId)).runners[0];
 }
 
@@ -74,9 +73,9 @@ describe('history and restore', () => {
 
 	it('undoes a delete by restoring the deleted version', async () => {
 		const id = 'history-table';
-		await applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id, baseVersion: null, object: { id, name: 'Short-lived', rows: [], otherCoins: 0 } }], by());
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id, baseVersion: null, object: { id, name: 'Short-lived', rows: [], otherCoins: 0 } }], action: 'test' });
 		const table = (await loadGame(w.db, w.gameId)).moneyTables.find((t) => t.id === id)!;
-		await applyChanges(w.db, w.gameId, [{ collection: 'moneyTable', id, baseVersion: table.version, remove: true }], by());
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id, baseVersion: table.version, remove: true }], action: 'test' });
 		const [deleted] = await historyOf(w.db, w.gameId, { collection: 'moneyTable', objectId: id, limit: 5 });
 		expect(deleted.action).toBe('deleted');
 		const { status, body } = await restore('owner', deleted.id, null);

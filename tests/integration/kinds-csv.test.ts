@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
 import Papa from 'papaparse';
 import { isActionFailure } from '@sveltejs/kit';
-import { openWorld, fakeEvent, type World } from './harness';
+import { openWorld, fakeEvent, type World, actorIn } from './harness';
 import { applyChanges, loadGame } from '$lib/server/game-store';
 import { newKind } from '$lib/game/kind-defaults';
 import { cardSize, type CardKind } from '$lib/game/model';
@@ -21,11 +21,7 @@ let kind: CardKind;
 beforeAll(async () => {
 	w = await openWorld();
 	kind = newKind({ name: 'Sprint cards', type: 'movement', size: cardSize('poker'), bleed: 'metric', template: 'movement' }, 'kd-sprint');
-	await applyChanges(w.db, w.gameId, [{ collection: 'kind', id: kind.id, baseVersion: null, object: kind }], {
-		userId: w.callers.designer!.id,
-		teamId: w.teamId,
-		action: 'test'
-	});
+	await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'kind', id: kind.id, baseVersion: null, object: kind }], action: 'test' });
 });
 afterAll(async () => w?.close());
 

@@ -5,7 +5,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { openWorld, type World } from './harness';
+import { openWorld, type World, actorIn } from './harness';
 import { as, g } from './role-table';
 import { demoStage } from './role-rows/odds';
 import { oddsScenarios } from '$lib/server/db/schema';
@@ -170,10 +170,9 @@ describe('prices at a proof', () => {
 describe('race rules in the settings', () => {
 	it('are kept when the rogue runner is saved, and travel in the game document', async () => {
 		const before = await loadGame(w.db, w.gameId);
-		const by = { userId: w.callers.designer!.id, teamId: w.teamId };
-		await saveSettings(w.db, w.gameId, { raceRules: { rogueCarryBonus: 2, modifiersOneUse: false, backUnder: true } }, null, by);
+		await saveSettings(w.db, actorIn(w, 'designer'), { settings: { raceRules: { rogueCarryBonus: 2, modifiersOneUse: false, backUnder: true } }, baseVersion: null });
 		const { version: _v, ...rogue } = before.rogueRunner!;
-		await saveSettings(w.db, w.gameId, { rogueRunner: rogue }, null, by);
+		await saveSettings(w.db, actorIn(w, 'designer'), { settings: { rogueRunner: rogue }, baseVersion: null });
 		const after = await loadGame(w.db, w.gameId);
 		expect(after.raceRules).toEqual({ rogueCarryBonus: 2, modifiersOneUse: false, backUnder: true });
 		expect(after.rogueRunner?.name).toBe(before.rogueRunner?.name);

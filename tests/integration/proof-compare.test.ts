@@ -1,6 +1,6 @@
 /** Comparing two proofs: the fields that changed inside a card and the pixel difference of its faces. */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openWorld, fakeEvent, type World, type Who } from './harness';
+import { openWorld, fakeEvent, type World, type Who, actorIn } from './harness';
 import { applyChanges, loadGame } from '$lib/server/game-store';
 import { cutProof } from '$lib/server/proofs';
 import * as diffApi from '../../src/routes/api/v1/games/[gameId=id]/proofs/compare/diff.png/+server';
@@ -22,11 +22,7 @@ describe('comparing two proofs inside a card', () => {
 		const game = await loadGame(w.db, w.gameId);
 		const card = game.cards.find((c) => c.data.type === 'movement')!;
 		const other = game.cards.find((c) => c.kindId !== card.kindId && c.data.type !== 'movement')!;
-		await applyChanges(w.db, w.gameId, [{ collection: 'card', id: card.id, baseVersion: card.version, object: { ...card, name: `${card.name} X` } }], {
-			userId: w.callers.designer!.id,
-			teamId: w.teamId,
-			action: 'test'
-		});
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'card', id: card.id, baseVersion: card.version, object: { ...card, name: `${card.name} X` } }], action: 'test' });
 		const b = await cut();
 		const compared = await (await compareApi.GET(ev('reviewer', `/?a=${a.number}&b=${b.number}`))).json();
 		const changed = compared.changed.find((c: { cardId: string }) => c.cardId === card.id);

@@ -5,7 +5,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { count, eq } from 'drizzle-orm';
-import { openWorld, fakeEvent, type World } from './harness';
+import { openWorld, fakeEvent, type World, actorIn } from './harness';
 import { applyChanges, loadGame } from '$lib/server/game-store';
 import { cutProof, releaseProof, withdrawProof, addComment, giveVerdict, snapshotOf, setMuted } from '$lib/server/proofs';
 import { Invalid } from '$lib/server/refusals';
@@ -21,7 +21,6 @@ beforeAll(async () => {
 });
 afterAll(async () => w?.close());
 
-const by = () => ({ userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' });
 const designer = () => ({ id: w.callers.designer!.id, name: w.callers.designer!.name });
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 const ev = (who: keyof World['callers'], call: Parameters<typeof fakeEvent>[1]) => fakeEvent(w.callers[who], call) as any;
@@ -54,10 +53,10 @@ describe('proofs', () => {
 
 		// Edit: one card's name, one money table (which reaches every wager card printing it).
 		const movement = game.cards.find((c) => c.data.type === 'movement')!;
-		await applyChanges(w.db, w.gameId, [
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [
 			{ collection: 'card', id: movement.id, baseVersion: movement.version!, object: { ...movement, name: `${movement.name} (new)` } },
 			{ collection: 'moneyTable', id: table.id, baseVersion: table.version!, object: { ...table, rows: table.rows.map((r) => ({ ...r, coins: r.coins + 2 })) } }
-		], by());
+		], action: 'test' });
 		const p2 = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'second round' });
 
 		expect(await faceText(p1.id, wager.id)).toBe(before);

@@ -3,7 +3,7 @@
  * each caller should get) in role-rows/, and roles.test.ts walks them all.
  */
 import { randomUUID } from 'node:crypto';
-import { fakeEvent, type World, type Who } from './harness';
+import { fakeEvent, type World, type Who, actorIn } from './harness';
 import { loadGame, applyChanges } from '$lib/server/game-store';
 
 export type Row = {
@@ -32,11 +32,6 @@ export const g = (w: World, extra: Record<string, string> = {}) => ({ gameId: w.
 /** A throw-away money table, made by the designer, for a caller to delete. */
 export async function scratchTable(w: World) {
 	const id = `scratch-${randomUUID()}`;
-	await applyChanges(
-		w.db,
-		w.gameId,
-		[{ collection: 'moneyTable', id, baseVersion: null, object: { id, name: id, rows: [], otherCoins: 0 } }],
-		{ userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' }
-	);
+	await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id, baseVersion: null, object: { id, name: id, rows: [], otherCoins: 0 } }], action: 'test' });
 	return id;
 }

@@ -1,7 +1,7 @@
 /**
  * Who may do what: the role table every load, action and API handler is checked against, and
  * the one query that finds a caller's role in a game's team with the game row. The request-side
- * guard (http/guard.ts) asks here once per request and hands services the answer as an actor.
+ * guard (http/guard.ts) asks here once per request and hands services the answer as an actor (./actor.ts).
  */
 import { and, eq } from 'drizzle-orm';
 import type { Db } from './db';
@@ -41,12 +41,6 @@ export interface SignedIn {
 
 export type GameRow = typeof games.$inferSelect;
 
-/** The caller of a game service: who they are, their role in the game's team and the game row. */
-export interface GameActor {
-	user: SignedIn;
-	role: Role;
-	game: GameRow;
-}
 
 export async function roleIn(db: Db, userId: string, teamId: string): Promise<Role | null> {
 	const [row] = await db

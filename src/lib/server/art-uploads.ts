@@ -15,6 +15,7 @@ import { artFiles, artVersions, users } from './db/schema';
 import { applyChanges, loadGame, type Change } from './game-store';
 import { Busy, Invalid, NotFound } from './refusals';
 import { storeArtFile } from './art-files';
+import type { GameActor } from './actor';
 import { StorageUnavailableError } from './storage';
 import { inspectArt, ArtRejected, type InspectedArt } from '$lib/art/inspect';
 import { describeAssignment } from '$lib/art/placement';
@@ -44,12 +45,8 @@ export interface UploadOutcome {
 }
 
 /** Inspects, checks and stores one upload; throws ArtRejected or a refusal when refused. */
-export async function uploadArt(
-	d: Db,
-	gameId: string,
-	upload: UploadRequest,
-	by: { userId: string; teamId: string }
-): Promise<UploadOutcome> {
+export async function uploadArt(d: Db, by: GameActor, upload: UploadRequest): Promise<UploadOutcome> {
+	const { gameId } = by;
 	if (upload.bytes.byteLength === 0) throw new Invalid('The upload is empty: choose an art file (PNG, JPEG or SVG).');
 	const inspected = await inspectArt(upload.bytes, upload.fileName);
 	const fileName = cleanFileName(upload.fileName, inspected);
@@ -82,11 +79,7 @@ export async function uploadArt(
 	return d.transaction(async (tx) => {
 		const t = tx as unknown as Db;
 		// Checks the versions and the whole game; throws (and writes nothing) when anything is wrong.
-		const game = await applyChanges(t, gameId, changes, {
-			userId: by.userId,
-			teamId: by.teamId,
-			action: upload.replaces ? 'art.replaced' : 'art.uploaded'
-		});
+		const game = await applyChanges(t, by, { changes, action: upload.replaces ? 'art.replaced' : 'art.uploaded' });
 		const [{ last }] = await tx
 			.select({ last: max(artVersions.number) })
 			.from(artVersions)
@@ -150,22 +143,19 @@ const unassign = (a: ArtAsset): Change => ({
 /** Status and assignment of an existing asset; its file is untouched. Takes the slot over like an upload. */
 export async function placeArt(
 	d: Db,
-	gameId: string,
-	change: z.infer<typeof ArtPlacementSchema>,
-	by: { userId: string; teamId: string }
+	by: GameActor,
+	change: z.infer<typeof ArtPlacementSchema>
 ): Promise<{ art: ArtAsset; displaced: ArtAsset[]; game: Game }> {
-	const before = await loadGame(d, gameId);
+	const before = await loadGame(d, by.gameId);
 	const current = before.art.find((a) => a.id === change.id);
 	if (!current) throw new NotFound(`No art piece with id ${change.id} in this game`);
 	const { version: _v, ...kept } = current;
 	const object: ArtAsset = { ...kept, status: change.status, assignment: change.assignment };
 	const displaced = holdersOf(before, object.assignment, object.id);
-	const after = await applyChanges(
-		d,
-		gameId,
-		[{ collection: 'art', id: object.id, baseVersion: change.version ?? null, object }, ...displaced.map(unassign)],
-		{ userId: by.userId, teamId: by.teamId, action: 'art.saved' }
-	);
+	const after = await applyChanges(d, by, {
+		changes: [{ collection: 'art', id: object.id, baseVersion: change.version ?? null, object }, ...displaced.map(unassign)],
+		action: 'art.saved'
+	});
 	return { art: after.art.find((a) => a.id === object.id)!, displaced, game: after };
 }
 

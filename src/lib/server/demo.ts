@@ -10,6 +10,7 @@ import { createTeam } from './teams';
 import { createGameFrom } from './game-io';
 import { demoGameWithArt } from '$lib/demo/demo-art';
 import { demoScenarios } from '$lib/demo/pricing';
+import { gameActorOf } from './actor';
 import { saveScenario } from './odds';
 import { saveProfile } from './printer-profiles';
 import { cutProof, releaseProof } from './proofs';
@@ -51,7 +52,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
 	const { game, art } = await demoGameWithArt();
 	const row = await createGameFrom(db, { teamId: team.id, userId: accounts.get('designer')!, game, art });
 	// The start-of-stage positions the money tables were priced on, saved so a visitor can re-run them.
-	const designerActor = { userId: accounts.get('designer')!, teamId: team.id, gameId: row.id };
+	const designerActor = gameActorOf({ id: accounts.get('designer')!, name: NAMES.designer }, 'designer', row);
 	for (const { name, scenario } of demoScenarios(game)) await saveScenario(db, designerActor, { name, scenario });
 	// A first proof, released, so a printer has something to print straight away.
 	const designer = { id: accounts.get('designer')!, name: NAMES.designer };

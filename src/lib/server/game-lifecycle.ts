@@ -17,13 +17,8 @@ import { storage, artKey } from './storage';
 import { sendMail } from './mail';
 import { config } from './config';
 import type { Game as GameRow } from './games';
+import type { GameActor } from './actor';
 
-export interface GameActor {
-	userId: string;
-	name: string;
-	teamId: string;
-	gameId: string;
-}
 
 /** The typed confirmation: the game's name, as the page shows it. */
 export const DeleteGameSchema = z.strictObject({ confirm: z.string().trim().max(200) });

@@ -24,6 +24,7 @@ import {
 	type Game
 } from '$lib/game/model';
 import { logActivity } from './activity';
+import type { GameActor } from './actor';
 import type { ReadinessItem } from '$lib/game/readiness';
 import { NotFound, Conflict, Invalid } from './refusals';
 
@@ -176,10 +177,10 @@ export interface Change {
  */
 export async function applyChanges(
 	db: Db,
-	gameId: string,
-	changes: Change[],
-	by: { userId: string; teamId: string; action: string }
+	by: GameActor,
+	{ changes, action }: { changes: Change[]; action: string }
 ): Promise<Game & { saveWarnings: ReadinessItem[] }> {
+	const { gameId } = by;
 	return db.transaction(async (tx) => {
 		for (const change of changes) {
 			const [row] = await tx
@@ -230,7 +231,7 @@ export async function applyChanges(
 			const object = parseObject(change.collection, change.object);
 			if (object.id !== change.id) throw new Invalid('The id in the body differs from the id in the path');
 			const data = stripVersion(object) as Record<string, unknown>;
-			const action = change.restoredFrom !== undefined ? 'restored' : 'saved';
+			const how = change.restoredFrom !== undefined ? 'restored' : 'saved';
 			if (row) {
 				await tx
 					.update(gameObjects)
@@ -238,7 +239,7 @@ export async function applyChanges(
 					.where(
 						objectWhere(gameId, change.collection, change.id)
 					);
-				await record(row.version + 1, action, data);
+				await record(row.version + 1, how, data);
 			} else {
 				const [{ last }] = await tx
 					.select({ last: max(gameObjects.position) })
@@ -259,7 +260,7 @@ export async function applyChanges(
 					version,
 					updatedBy: by.userId
 				});
-				await record(version, action, data);
+				await record(version, how, data);
 			}
 		}
 		const game = await loadGame(tx, gameId);
@@ -272,7 +273,7 @@ export async function applyChanges(
 			teamId: by.teamId,
 			gameId,
 			userId: by.userId,
-			action: by.action,
+			action,
 			detail: { changes: changes.length, ids: changes.slice(0, 20).map((c) => `${c.collection}:${c.id}`) }
 		});
 		return { ...game, version: game.version! + 1, saveWarnings: warnings };
@@ -290,13 +291,8 @@ const storedSettings = (s: Settings) => ({
  * one (given as undefined: removed); keys not given are kept, so the rogue runner's form and the
  * race rules' form do not undo each other.
  */
-export async function saveSettings(
-	db: Db,
-	gameId: string,
-	settings: Settings,
-	baseVersion: number | null,
-	by: { userId: string; teamId: string }
-) {
+export async function saveSettings(db: Db, by: GameActor, { settings, baseVersion }: { settings: Settings; baseVersion: number | null }) {
+	const { gameId } = by;
 	return db.transaction(async (tx) => {
 		const [row] = await tx.select().from(gameSettings).where(eq(gameSettings.gameId, gameId)).for('update');
 		const current = row?.version ?? 0;

@@ -10,13 +10,9 @@ import { objectVersions, users, type Collection } from './db/schema';
 import { COLLECTION_SEGMENTS, type CollectionSegment } from '$lib/schemas/collections';
 import { applyChanges, COLLECTION_FIELD, loadGame } from './game-store';
 import { NotFound } from './refusals';
+import type { GameActor } from './actor';
 import { fieldChanges, objectLabel, type FieldChange } from '$lib/game/history';
 
-export interface HistoryActor {
-	userId: string;
-	teamId: string;
-	gameId: string;
-}
 
 export interface HistoryEntry {
 	id: string;
@@ -46,6 +42,9 @@ export const HistoryQuerySchema = z.object({
 
 /** `version`: the object's version the person saw (null when they saw it deleted). */
 export const RestoreSchema = z.strictObject({ version: z.int().min(1).nullable() });
+
+/** What to restore: one stored version, and the version of the object the caller saw. */
+export type RestoreRequest = z.infer<typeof RestoreSchema> & { versionId: string };
 
 type Row = typeof objectVersions.$inferSelect;
 
@@ -123,15 +122,13 @@ export async function currentOf(db: Db, gameId: string, collection: Collection, 
  * person had in front of them: when the object moved on since (or came back after a delete), the
  * restore is refused with 409 and nothing changes.
  */
-export async function restoreVersion(db: Db, actor: HistoryActor, versionId: string, seen: z.infer<typeof RestoreSchema>) {
-	const row = await versionOf(db, actor.gameId, versionId);
+export async function restoreVersion(db: Db, actor: GameActor, seen: RestoreRequest) {
+	const row = await versionOf(db, actor.gameId, seen.versionId);
 	const object = { ...row.data, id: row.objectId };
-	const game = await applyChanges(
-		db,
-		actor.gameId,
-		[{ collection: row.collection, id: row.objectId, baseVersion: seen.version, object, restoredFrom: row.version }],
-		{ userId: actor.userId, teamId: actor.teamId, action: `${row.collection}.restored` }
-	);
+	const game = await applyChanges(db, actor, {
+		changes: [{ collection: row.collection, id: row.objectId, baseVersion: seen.version, object, restoredFrom: row.version }],
+		action: `${row.collection}.restored`
+	});
 	const restored = (game[COLLECTION_FIELD[row.collection]] as { id: string; version?: number }[]).find((o) => o.id === row.objectId)!;
 	return { collection: row.collection, objectId: row.objectId, restoredFrom: row.version, version: restored.version!, saveWarnings: game.saveWarnings };
 }

@@ -19,15 +19,10 @@ import { raceSetupFromGame, RaceSetupError, setupPlayerCounts, simulateRaces, ty
 import { MAX_SAMPLES, ScenarioSchema, describeIssues, type Scenario } from '$lib/odds/scenario';
 import { placeOdds, priceWagers, type WagerPrice } from '$lib/odds/wagers';
 import type { JobView, OddsAnswer, RaceAnswer, StageAnswer, WagerLine } from '$lib/odds/answer';
+import type { Actor, GameActor } from './actor';
 
 export type { JobView, OddsAnswer };
 
-/** Who asks: the guard has already checked they may read the game. */
-export interface OddsActor {
-	userId: string;
-	teamId: string;
-	gameId: string;
-}
 
 /** Runs up to these sizes answer at once; larger ones become jobs. */
 export const INLINE_SAMPLES = 100_000;
@@ -105,7 +100,7 @@ function check(body: unknown): Checked {
  * Runs odds for a game. Small runs answer now (`{ answer }`); large ones start a job on the
  * worker pool and answer it (`{ job }`) to poll with `jobView`.
  */
-export async function runOdds(db: Db, actor: OddsActor, body: unknown): Promise<{ answer: OddsAnswer } | { job: JobView }> {
+export async function runOdds(db: Db, actor: GameActor, body: unknown): Promise<{ answer: OddsAnswer } | { job: JobView }> {
 	const req = check(body);
 	const game = await loadGame(db, actor.gameId);
 	if (req.kind === 'stage') {
@@ -167,7 +162,7 @@ function viewOf(row: OddsJobRow): JobView {
 	};
 }
 
-async function startOddsJob(db: Db, owner: OddsActor, request: QueuedOdds): Promise<JobView> {
+async function startOddsJob(db: Db, owner: GameActor, request: QueuedOdds): Promise<JobView> {
 	const [{ open }] = await db
 		.select({ open: sql<number>`count(*)::int` })
 		.from(oddsJobs)
@@ -351,13 +346,13 @@ const toSaved = (row: typeof oddsScenarios.$inferSelect): SavedScenario => ({
 	updatedAt: row.updatedAt.toISOString()
 });
 
-export async function listScenarios(db: Db, actor: OddsActor): Promise<SavedScenario[]> {
+export async function listScenarios(db: Db, actor: GameActor): Promise<SavedScenario[]> {
 	const rows = await db.select().from(oddsScenarios).where(eq(oddsScenarios.gameId, actor.gameId)).orderBy(asc(oddsScenarios.name));
 	return rows.map(toSaved);
 }
 
 /** Saves a scenario under its name (a second save of the same name replaces it). */
-export async function saveScenario(db: Db, actor: OddsActor, input: unknown): Promise<SavedScenario> {
+export async function saveScenario(db: Db, actor: GameActor, input: unknown): Promise<SavedScenario> {
 	const parsed = SavedScenarioInputSchema.safeParse(input);
 	if (!parsed.success) throw new Invalid(describeIssues(parsed.error).join('; '), describeIssues(parsed.error), 'invalid');
 	const { name, scenario, lastResult } = parsed.data;

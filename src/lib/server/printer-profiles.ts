@@ -7,6 +7,7 @@ import { checkPressProfile } from '$lib/print/colour/icc';
 import { PressColour, type PressProfile } from '$lib/print/colour/cmm';
 import { BUILTIN_CONDITION, BUILTIN_PROFILE_NAME, builtinPressProfile } from '$lib/print/colour/press-profiles';
 import { logActivity } from './activity';
+import type { GameActor } from './actor';
 import { NotFound, Conflict, Invalid } from './refusals';
 
 const fields = (p: PrinterProfile) => ({
@@ -177,7 +178,8 @@ export async function deleteProfile(db: Db, teamId: string, id: string, userId: 
  * the built-in one), or null for the built-in profile. PDF/X files, soft proofs and the print
  * page use it whenever no printer profile is named.
  */
-export async function setGamePressProfile(db: Db, actor: { userId: string; teamId: string }, gameId: string, profileId: string | null) {
+export async function setGamePressProfile(db: Db, actor: GameActor, { profileId }: { profileId: string | null }) {
+	const { gameId } = actor;
 	const profile = profileId ? await findProfile(db, actor.teamId, profileId) : null;
 	const [row] = await db
 		.update(games)

@@ -2,7 +2,7 @@
 import { randomUUID, createHash } from 'node:crypto';
 import type { Row } from '../role-table';
 import { as, g, game, readers, designers, editors } from '../role-table';
-import { statusOf, superformJson, type World } from '../harness';
+import { statusOf, superformJson, type World, actorIn } from '../harness';
 import { applyChanges } from '$lib/server/game-store';
 import { newKind } from '$lib/game/kind-defaults';
 import { cardSize, type Card, type CardKindType } from '$lib/game/model';
@@ -13,7 +13,6 @@ import * as csvPage from '../../../src/routes/(app)/games/[gameId=id]/kinds/[kin
 import * as galleryPage from '../../../src/routes/(app)/games/[gameId=id]/kinds/[kindId]/gallery/+page.server';
 import * as csvRoute from '../../../src/routes/(app)/games/[gameId=id]/kinds/[kindId]/cards.csv/+server';
 
-const by = (w: World) => ({ userId: w.callers.designer!.id, teamId: w.teamId, action: 'test' });
 
 /** A throw-away movement kind with one card, made by the designer, for a caller to change. */
 export async function scratchKind(w: World, type: CardKindType = 'movement') {
@@ -23,15 +22,10 @@ export async function scratchKind(w: World, type: CardKindType = 'movement') {
 	);
 	const runner = (await game(w)).runners[0];
 	const card: Card = { id: `${kind.id}.c1`, kindId: kind.id, name: 'First', data: { type: 'movement', runnerId: runner.id, steps: 1 }, copies: 1 };
-	await applyChanges(
-		w.db,
-		w.gameId,
-		[
+	await applyChanges(w.db, actorIn(w, 'designer'), { changes: [
 			{ collection: 'kind', id: kind.id, baseVersion: null, object: kind },
 			...(type === 'movement' ? [{ collection: 'card' as const, id: card.id, baseVersion: null, object: card }] : [])
-		],
-		by(w)
-	);
+		], action: 'test' });
 	const after = await game(w);
 	return { kind: after.kinds.find((k) => k.id === kind.id)!, card: after.cards.find((c) => c.id === card.id), runner };
 }

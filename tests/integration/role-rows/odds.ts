@@ -1,7 +1,7 @@
 /** Rows of the role × route table: the odds lab's API (runs, saved scenarios, jobs) and the Odds tab. */
 import type { Row } from '../role-table';
 import { as, g, readers, signedIn, editors } from '../role-table';
-import { statusOf, type World } from '../harness';
+import { statusOf, type World, actorIn } from '../harness';
 import * as oddsPage from '../../../src/routes/(app)/games/[gameId=id]/odds/+page.server';
 import { runOdds } from '$lib/server/odds';
 import * as oddsApi from '../../../src/routes/api/v1/games/[gameId=id]/odds/+server';
@@ -30,7 +30,7 @@ export const demoStage = {
 let jobId: string | undefined;
 async function designersJob(w: World) {
 	if (jobId) return jobId;
-	const out = await runOdds(w.db, { userId: w.callers.designer!.id, teamId: w.teamId, gameId: w.gameId }, { ...demoStage, samples: 200_001, seed: 4 });
+	const out = await runOdds(w.db, actorIn(w, 'designer'), { ...demoStage, samples: 200_001, seed: 4 });
 	if (!('job' in out)) throw new Error('expected a job');
 	jobId = out.job.id;
 	return jobId;

@@ -5,7 +5,7 @@
  */
 import { fail, redirect, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
-import { zod4 } from 'sveltekit-superforms/adapters';
+import { zod4, type ValidationAdapter } from 'sveltekit-superforms/adapters';
 import { readBody } from './api';
 import { requireGameRole } from './guard';
 import { db } from '../runtime';
@@ -112,21 +112,36 @@ const displacedNote = (displaced: ArtAsset[]) =>
 		? ` ${displaced.map((a) => `“${a.fileName}”`).join(', ')} no longer ${displaced.length > 1 ? 'print' : 'prints'} there (kept, not assigned).`
 		: '';
 
-/** ?/upload: a new art asset from the page's form; on success, opens it. */
-export async function uploadAction(event: ArtEvent) {
+/**
+ * The opening both file forms share: the caller may change art, the body is read within the art
+ * cap (a refusal answers on the form), and the fields are validated. Either the answer to give
+ * at once, or the caller and the valid form.
+ */
+async function openArtForm<Out extends Record<string, unknown>, In extends Record<string, unknown>>(
+	event: ArtEvent,
+	adapter: ValidationAdapter<Out, In>,
+	id: 'upload' | 'replace'
+) {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, event.locals, event.params.gameId, 'art.edit');
-	const empty = await superValidate(zod4(UploadFormSchema), { id: 'upload' });
+	const { game, actor } = await requireGameRole(d, event.locals, event.params.gameId, 'art.edit');
 	let body: FormData;
 	try {
 		body = await readArtForm(event.request);
 	} catch (e) {
 		const refused = answerFor(e);
-		if (refused) return message(empty, refused.message, { status: refused.status });
+		if (refused) return { answer: message(await superValidate(adapter, { id }), refused.message, { status: refused.status }) };
 		throw e;
 	}
-	const form = await superValidate(body, zod4(UploadFormSchema), { id: 'upload' });
-	if (!form.valid) return fail(400, { form });
+	const form = await superValidate(body, adapter, { id });
+	if (!form.valid) return { answer: fail(400, { form }) };
+	return { d, game, actor, form };
+}
+
+/** ?/upload: a new art asset from the page's form; on success, opens it. */
+export async function uploadAction(event: ArtEvent) {
+	const opened = await openArtForm(event, zod4(UploadFormSchema), 'upload');
+	if ('answer' in opened) return opened.answer;
+	const { d, game, actor, form } = opened;
 	let assignment: ArtAssignment | null = null;
 	if (form.data.place) {
 		const parsed = ArtAssignmentSchema.safeParse(parsePlaceKey(form.data.place));
@@ -136,12 +151,12 @@ export async function uploadAction(event: ArtEvent) {
 	let outcome: UploadOutcome;
 	try {
 		const file = form.data.file;
-		outcome = await uploadArt(
-			d,
-			game.id,
-			{ bytes: new Uint8Array(await file.arrayBuffer()), fileName: file.name, status: form.data.status, assignment },
-			{ userId: user.id, teamId: game.teamId }
-		);
+		outcome = await uploadArt(d, actor, {
+			bytes: new Uint8Array(await file.arrayBuffer()),
+			fileName: file.name,
+			status: form.data.status,
+			assignment
+		});
 	} catch (e) {
 		const refused = answerFor(e);
 		if (refused) return message(form, `Nothing was stored. ${refused.message}`, { status: refused.status });
@@ -154,32 +169,17 @@ export async function uploadAction(event: ArtEvent) {
 
 /** ?/replace: a new file for an existing asset; the earlier file stays in its history. */
 export async function replaceAction(event: ArtEvent) {
-	const d = await db();
-	const { user, game } = await requireGameRole(d, event.locals, event.params.gameId, 'art.edit');
-	const empty = await superValidate(zod4(ReplaceFormSchema), { id: 'replace' });
-	let body: FormData;
-	try {
-		body = await readArtForm(event.request);
-	} catch (e) {
-		const refused = answerFor(e);
-		if (refused) return message(empty, refused.message, { status: refused.status });
-		throw e;
-	}
-	const form = await superValidate(body, zod4(ReplaceFormSchema), { id: 'replace' });
-	if (!form.valid) return fail(400, { form });
+	const opened = await openArtForm(event, zod4(ReplaceFormSchema), 'replace');
+	if ('answer' in opened) return opened.answer;
+	const { d, actor, form } = opened;
 	const { file, artId, version, status } = form.data;
 	try {
-		const outcome = await uploadArt(
-			d,
-			game.id,
-			{
-				bytes: new Uint8Array(await file.arrayBuffer()),
-				fileName: file.name,
-				status: status === 'keep' ? undefined : status,
-				replaces: { artId, version }
-			},
-			{ userId: user.id, teamId: game.teamId }
-		);
+		const outcome = await uploadArt(d, actor, {
+			bytes: new Uint8Array(await file.arrayBuffer()),
+			fileName: file.name,
+			status: status === 'keep' ? undefined : status,
+			replaces: { artId, version }
+		});
 		// The form now stands for the new version, so a second replace is checked against it.
 		form.data.version = outcome.art.version!;
 		return message(
@@ -196,11 +196,11 @@ export async function replaceAction(event: ArtEvent) {
 /** ?/save: status and assignment of one asset. */
 export async function placeAction(event: ArtEvent) {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, event.locals, event.params.gameId, 'art.edit');
+	const { actor } = await requireGameRole(d, event.locals, event.params.gameId, 'art.edit');
 	const form = await superValidate(event.request, zod4(ArtPlacementSchema), { id: 'placement' });
 	if (!form.valid) return fail(400, { form });
 	try {
-		const { art, displaced, game: after } = await placeArt(d, game.id, form.data, { userId: user.id, teamId: game.teamId });
+		const { art, displaced, game: after } = await placeArt(d, actor, form.data);
 		const where = art.assignment ? `It prints on ${describeAssignment(after, art.assignment)}.` : 'It is not assigned to a slot.';
 		return message(form, `Saved. ${where}${displacedNote(displaced)}`);
 	} catch (e) {

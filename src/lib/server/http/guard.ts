@@ -6,12 +6,14 @@
 import type { Db } from '../db';
 import type { Role } from '../db/schema';
 import { loadGame } from '../game-store';
-import { gameAccess, may, roleIn, type GameActor, type GameRow, type Permission, type SignedIn } from '../access';
+import { gameAccess, may, roleIn, type GameRow, type Permission, type SignedIn } from '../access';
+import { gameActorOf, teamActorOf, type GameActor, type TeamActor } from '../actor';
 import { NotAllowed, NotFound, SignInFirst } from '../refusals';
 import { refusedPage } from './answers';
 import type { Game } from '$lib/game/model';
 
-export { PERMISSIONS, may, type Permission, type SignedIn, type GameActor } from '../access';
+export { PERMISSIONS, may, type Permission, type SignedIn } from '../access';
+export type { Actor, GameActor, TeamActor } from '../actor';
 
 export function requireUser(locals: App.Locals): SignedIn {
 	if (!locals.user) refusedPage(new SignInFirst());
@@ -24,16 +26,21 @@ export async function requireRole(
 	locals: App.Locals,
 	teamId: string,
 	permission: Permission
-): Promise<{ user: SignedIn; role: Role }> {
+): Promise<{ user: SignedIn; role: Role; actor: TeamActor }> {
 	const user = requireUser(locals);
 	const role = await roleIn(db, user.id, teamId);
 	if (!role) refusedPage(new NotFound('No such team'));
 	if (!may(role, permission)) refusedPage(new NotAllowed(`A ${role} may not do this`));
-	return { user, role };
+	return { user, role, actor: teamActorOf(user, teamId, role) };
 }
 
-/** What a game request knows of its caller (the actor a game service takes). */
-export type GameAccess = GameActor;
+/** What a game request knows of its caller: who, their role, the game row, and the actor game services take. */
+export interface GameAccess {
+	user: SignedIn;
+	role: Role;
+	game: GameRow;
+	actor: GameActor;
+}
 
 /**
  * What one request knows about a game: the caller's role and the game row (one query), and the
@@ -74,7 +81,7 @@ export async function requireGameRole(db: Db, locals: App.Locals, gameId: string
 	const role = found.role;
 	if (!may(role, permission)) refusedPage(new NotAllowed(`A ${role} may not do this`));
 	if (!READS.has(permission)) perRequest.get(locals)?.delete(gameId);
-	return { user, role, game: found.game };
+	return { user, role, game: found.game, actor: gameActorOf(user, role, found.game) };
 }
 
 /** As requireGameRole, with the whole game document (read once per request). */

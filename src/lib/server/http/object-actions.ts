@@ -29,18 +29,16 @@ export function savedNote(gameId: string, warnings: ReadinessItem[], what = 'Sav
 export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, collection: Collection) {
 	const d = await db();
 	const access = await requireGameRole(d, event.locals, event.params.gameId, editPermission(collection));
-	const { user, game } = access;
+	const { actor } = access;
 	const form = await superValidate(event.request, zod4(formSchema(OBJECT_SCHEMAS[collection])));
 	if (!form.valid) return fail(400, { form });
 	const { version, ...object } = form.data as { id: string; version?: number };
 	let saved;
 	try {
-		saved = await applyChanges(
-			d,
-			game.id,
-			[{ collection, id: object.id, baseVersion: version ?? null, object }],
-			{ userId: user.id, teamId: game.teamId, action: `${collection}.saved` }
-		);
+		saved = await applyChanges(d, actor, {
+			changes: [{ collection, id: object.id, baseVersion: version ?? null, object }],
+			action: `${collection}.saved`
+		});
 		const { saveWarnings: _warnings, ...savedGame } = saved;
 		keepSavedGame(event.locals, access, savedGame);
 	} catch (e) {
@@ -48,12 +46,12 @@ export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, 
 		if (refused) return message(form, { text: refused.message, tone: 'error' } satisfies FormNote, { status: refused.status });
 		throw e;
 	}
-	return message(form, savedNote(game.id, saved.saveWarnings));
+	return message(form, savedNote(access.game.id, saved.saveWarnings));
 }
 
 export async function deleteObjectAction(event: RequestEvent<{ gameId: string }>, collection: Collection) {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, event.locals, event.params.gameId, editPermission(collection));
+	const { game, actor } = await requireGameRole(d, event.locals, event.params.gameId, editPermission(collection));
 	const body = await event.request.formData();
 	const id = String(body.get('id') ?? '');
 	const version = Number(body.get('version'));
@@ -64,11 +62,7 @@ export async function deleteObjectAction(event: RequestEvent<{ gameId: string }>
 			return fail(409, { deleteError: `This ${collection === 'runner' ? 'runner' : 'table'} is used by ${users.join('; ')}. Change or delete those first.` });
 	}
 	try {
-		await applyChanges(d, game.id, [{ collection, id, baseVersion: version, remove: true }], {
-			userId: user.id,
-			teamId: game.teamId,
-			action: `${collection}.deleted`
-		});
+		await applyChanges(d, actor, { changes: [{ collection, id, baseVersion: version, remove: true }], action: `${collection}.deleted` });
 	} catch (e) {
 		const refused = answerFor(e);
 		if (refused) return fail(refused.status, { deleteError: refused.message });

@@ -31,8 +31,8 @@ export const actions = {
 	/** One click: a new game with its own copy of this one's data and art, opened at once. */
 	duplicate: async ({ locals, params }) => {
 		const d = await db();
-		const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.create');
-		const copy = await duplicateGame(d, { userId: user.id, name: user.name, teamId: game.teamId, gameId: game.id });
+		const { actor } = await requireGameRole(d, locals, params.gameId, 'game.create');
+		const copy = await duplicateGame(d, actor);
 		redirect(303, `/games/${copy.id}`);
 	}
 };

@@ -14,12 +14,12 @@ export const load = async ({ locals, params }) => {
 export const actions = {
 	default: async ({ locals, params, request }) => {
 		const d = await db();
-		const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.delete');
+		const { game, actor } = await requireGameRole(d, locals, params.gameId, 'game.delete');
 		const form = await request.formData();
 		const parsed = DeleteGameSchema.safeParse({ confirm: String(form.get('confirm') ?? '') });
 		if (!parsed.success) return fail(400, { message: 'Type the game’s name to delete it. Nothing was deleted.', confirm: '' });
 		try {
-			await deleteGame(d, { userId: user.id, name: user.name, teamId: game.teamId, gameId: game.id }, parsed.data);
+			await deleteGame(d, actor, parsed.data);
 		} catch (e) {
 			if (e instanceof Invalid) return fail(400, { message: e.message, confirm: parsed.data.confirm });
 			throw e;

@@ -76,10 +76,10 @@ export const actions = {
 			if (refused) return fail(refused.status, { message: refused.message });
 			throw e;
 		}
-		const { user, game } = await requireGameRole(d, locals, params.gameId, editPermission(row.collection));
+		const { actor } = await requireGameRole(d, locals, params.gameId, editPermission(row.collection));
 		let restored;
 		try {
-			restored = await restoreVersion(d, { userId: user.id, teamId: game.teamId, gameId: game.id }, versionId, { version: seen === '' ? null : Number(seen) });
+			restored = await restoreVersion(d, actor, { versionId, version: seen === '' ? null : Number(seen) });
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) {
@@ -91,6 +91,6 @@ export const actions = {
 			}
 			throw e;
 		}
-		redirect(303, `/games/${game.id}/history?object=${row.collection}:${encodeURIComponent(row.objectId)}&restored=${restored.restoredFrom}`);
+		redirect(303, `/games/${actor.gameId}/history?object=${row.collection}:${encodeURIComponent(row.objectId)}&restored=${restored.restoredFrom}`);
 	}
 };

@@ -47,21 +47,17 @@ export const actions = {
 	/** Makes the kind with the layouts' defaults and opens it. */
 	create: async (event) => {
 		const d = await db();
-		const { user, game } = await requireGameRole(d, event.locals, event.params.gameId, 'game.edit');
+		const { actor } = await requireGameRole(d, event.locals, event.params.gameId, 'game.edit');
 		const form = await superValidate(event.request, zod4(NewKindSchema));
 		if (!form.valid) return fail(400, { form });
 		const kind = newKind(form.data, newId());
 		try {
-			await applyChanges(d, game.id, [{ collection: 'kind', id: kind.id, baseVersion: null, object: kind }], {
-				userId: user.id,
-				teamId: game.teamId,
-				action: 'kind.created'
-			});
+			await applyChanges(d, actor, { changes: [{ collection: 'kind', id: kind.id, baseVersion: null, object: kind }], action: 'kind.created' });
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) return message(form, refused.message, { status: refused.status });
 			throw e;
 		}
-		redirect(303, `/games/${game.id}/kinds/${kind.id}`);
+		redirect(303, `/games/${actor.gameId}/kinds/${kind.id}`);
 	}
 };

@@ -12,7 +12,7 @@ import { answerFor } from '$lib/server/http/answers';
 /** The Odds tab: what the track editor, the deck picker and the wager table need. */
 export const load = async ({ locals, params }) => {
 	const d = await db();
-	const { user, game: row } = await requireGameRole(d, locals, params.gameId, 'game.read');
+	const { actor } = await requireGameRole(d, locals, params.gameId, 'game.read');
 	const game = await loadGame(d, params.gameId);
 	const counts = playerCounts(game);
 	// Track length per player count (from the setup card and the tiles); unusable setups are listed with their reason.
@@ -39,7 +39,7 @@ export const load = async ({ locals, params }) => {
 		modifiers,
 		rules,
 		rulesForm: await superValidate(rules, zod4(RaceRulesSchema), { id: 'rules', errors: false }),
-		scenarios: await listScenarios(d, { userId: user.id, teamId: row.teamId, gameId: row.id })
+		scenarios: await listScenarios(d, actor)
 	};
 };
 
@@ -47,12 +47,12 @@ export const actions = {
 	/** The race rules the odds lab plays by (part of the game, its bundle and its proofs). */
 	rules: async ({ locals, params, request }) => {
 		const d = await db();
-		const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.edit');
+		const { actor } = await requireGameRole(d, locals, params.gameId, 'game.edit');
 		const form = await superValidate(request, zod4(RaceRulesSchema), { id: 'rules' });
 		if (!form.valid) return fail(400, { rulesForm: form });
 		try {
 			// Three numbers saved whole: the last save wins (no version to go stale).
-			await saveSettings(d, game.id, { raceRules: form.data }, null, { userId: user.id, teamId: game.teamId });
+			await saveSettings(d, actor, { settings: { raceRules: form.data }, baseVersion: null });
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) return message(form, refused.message, { status: refused.status });

@@ -43,12 +43,12 @@ export const actions = {
 	/** The rogue runner lives in the game's settings, versioned like an object. */
 	saveRogue: async ({ locals, params, request }) => {
 		const d = await db();
-		const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.edit');
+		const { actor } = await requireGameRole(d, locals, params.gameId, 'game.edit');
 		const form = await superValidate(request, zod4(RogueRunnerSchema), { id: 'rogue' });
 		if (!form.valid) return fail(400, { rogueForm: form });
 		const { version, ...rogueRunner } = form.data;
 		try {
-			await saveSettings(d, game.id, { rogueRunner }, version ?? 0, { userId: user.id, teamId: game.teamId });
+			await saveSettings(d, actor, { settings: { rogueRunner }, baseVersion: version ?? 0 });
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) return message(form, refused.message, { status: refused.status });

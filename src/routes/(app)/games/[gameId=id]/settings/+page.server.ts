@@ -23,11 +23,11 @@ const PressChoice = z.object({ profile: z.union([z.literal(''), z.uuid('Choose o
 export const actions = {
 	press: async ({ locals, params, request }) => {
 		const d = await db();
-		const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.edit');
+		const { game, actor } = await requireGameRole(d, locals, params.gameId, 'game.edit');
 		const parsed = PressChoice.safeParse(Object.fromEntries(await request.formData()));
 		if (!parsed.success) return fail(400, { error: parsed.error.issues[0].message });
 		try {
-			const press = await setGamePressProfile(d, { userId: user.id, teamId: game.teamId }, game.id, parsed.data.profile || null);
+			const press = await setGamePressProfile(d, actor, { profileId: parsed.data.profile || null });
 			return { saved: `The game prints PDF/X for ${press.conditionIdentifier} (${press.profileName}) unless a printer profile is chosen.` };
 		} catch (e) {
 			const refused = answerFor(e);

@@ -19,9 +19,9 @@ export const GET: RequestHandler = api(async ({ locals, params }) => {
  */
 export const DELETE: RequestHandler = api(async ({ locals, params, request, url }) => {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.delete');
+	const { game, actor } = await requireGameRole(d, locals, params.gameId, 'game.delete');
 	const typed = url.searchParams.get('confirm');
 	const input = typed !== null ? DeleteGameSchema.parse({ confirm: typed.slice(0, 200) }) : await readJson(request, DeleteGameSchema);
-	const deleted = await deleteGame(d, { userId: user.id, name: user.name, teamId: game.teamId, gameId: game.id }, input);
+	const deleted = await deleteGame(d, actor, input);
 	return json({ deleted: { id: game.id, name: deleted.name } });
 });

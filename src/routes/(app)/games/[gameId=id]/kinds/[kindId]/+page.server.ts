@@ -77,16 +77,16 @@ export const load = async ({ locals, params, url }) => {
 
 async function editor(event: RequestEvent<{ gameId: string; kindId: string }>) {
 	const d = await db();
-	const { user, game: row } = await requireGameRole(d, event.locals, event.params.gameId, 'game.edit');
+	const { game: row, actor } = await requireGameRole(d, event.locals, event.params.gameId, 'game.edit');
 	const game = await loadGame(d, row.id);
-	return { d, user, row, game, kind: kindOf(game, event.params.kindId) };
+	return { d, actor, row, game, kind: kindOf(game, event.params.kindId) };
 }
 
 export const actions = {
 	saveKind: (event) => saveObjectAction(event, 'kind'),
 	/** The kind and all its cards in one write: a kind never leaves cards behind. */
 	deleteKind: async (event) => {
-		const { d, user, row, game, kind } = await editor(event);
+		const { d, actor, row, game, kind } = await editor(event);
 		const body = await event.request.formData();
 		const version = Number(body.get('version'));
 		if (!Number.isInteger(version)) return fail(400, { deleteError: 'Say which version of the kind to delete' });
@@ -96,7 +96,7 @@ export const actions = {
 			{ collection: 'kind', id: kind.id, baseVersion: version, remove: true }
 		];
 		try {
-			await applyChanges(d, row.id, changes, { userId: user.id, teamId: row.teamId, action: 'kind.deleted' });
+			await applyChanges(d, actor, { changes, action: 'kind.deleted' });
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) return fail(refused.status, { deleteError: refused.message });
@@ -108,7 +108,7 @@ export const actions = {
 	deleteCard: (event) => deleteObjectAction(event, 'card'),
 	/** Makes the kind's cards from a matrix and writes them all in one go. */
 	generate: async (event) => {
-		const { d, user, row, game, kind } = await editor(event);
+		const { d, actor, row, game, kind } = await editor(event);
 		if (!isGenerated(kind.type)) return fail(400, { generateError: `${kind.type} cards have no generator; add them one by one or import a CSV` });
 		const form = await superValidate(event.request, zod4(RUN_SCHEMAS[kind.type]));
 		if (!form.valid) return fail(400, { form });
@@ -121,12 +121,10 @@ export const actions = {
 		const plan = planRun(game.cards, kind.id, made, form.data.replace);
 		if (plan.writes.length === 0) return message(form, `Nothing to change: the kind already holds these ${plan.unchanged} cards.`);
 		try {
-			await applyChanges(
-				d,
-				row.id,
-				plan.writes.map((w): Change => ({ collection: 'card', id: w.id, baseVersion: w.baseVersion, object: w.object, remove: w.remove })),
-				{ userId: user.id, teamId: row.teamId, action: 'cards.generated' }
-			);
+			await applyChanges(d, actor, {
+				changes: plan.writes.map((w): Change => ({ collection: 'card', id: w.id, baseVersion: w.baseVersion, object: w.object, remove: w.remove })),
+				action: 'cards.generated'
+			});
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) return message(form, `Nothing was changed: ${refused.message}`, { status: refused.status });

@@ -27,17 +27,15 @@ export const GET: RequestHandler = api(async ({ locals, params }) => {
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
 	const collection = collectionOf(params.collection);
-	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
+	const { actor } = await requireGameEdit(d, locals, params.gameId, collection);
 	// An art piece is made by uploading its file, which checks the file and records its version.
 	if (collection === 'art') error(405, 'Upload art with POST /api/v1/games/{gameId}/art/upload');
 	const body = await readJson(request, ObjectCreateSchema);
 	const id = body.id ?? newId();
-	const after = await applyChanges(
-		d,
-		params.gameId,
-		[{ collection, id, baseVersion: null, object: { ...body, id } }],
-		{ userId: user.id, teamId: game.teamId, action: `${collection}.created` }
-	);
+	const after = await applyChanges(d, actor, {
+		changes: [{ collection, id, baseVersion: null, object: { ...body, id } }],
+		action: `${collection}.created`
+	});
 	const made = (after[COLLECTION_FIELD[collection]] as { id: string }[]).find((o) => o.id === id);
 	return json({ [collection]: made }, { status: 201 });
 });

@@ -8,7 +8,7 @@ import { db } from '$lib/server/runtime';
 /** A new game of the same team with its own copy of this one's data and art. */
 export const POST: RequestHandler = api(async ({ locals, params }) => {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.create');
-	const copy = await duplicateGame(d, { userId: user.id, name: user.name, teamId: game.teamId, gameId: game.id });
+	const { game, actor } = await requireGameRole(d, locals, params.gameId, 'game.create');
+	const copy = await duplicateGame(d, actor);
 	return json({ game: { id: copy.id, name: copy.name, slug: copy.slug } }, { status: 201 });
 });

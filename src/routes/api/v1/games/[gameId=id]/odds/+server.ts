@@ -13,8 +13,8 @@ import { db } from '$lib/server/runtime';
  */
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.read');
+	const { actor } = await requireGameRole(d, locals, params.gameId, 'game.read');
 	const body = await readJson(request, z.unknown());
-	const out = await runOdds(d, { userId: user.id, teamId: game.teamId, gameId: game.id }, body);
+	const out = await runOdds(d, actor, body);
 	return 'answer' in out ? json(out.answer) : json({ job: out.job, poll: `/api/v1/odds-jobs/${out.job.id}` }, { status: 202 });
 });

@@ -9,9 +9,9 @@ import { db } from '$lib/server/runtime';
 /** Game-wide settings: the rogue runner. `version` is the settings version the editor saw (0 if none). */
 export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.edit');
+	const { actor } = await requireGameRole(d, locals, params.gameId, 'game.edit');
 	const body = await readJson(request, SettingsRequestSchema);
 	const { version, ...settings } = body;
-	await saveSettings(d, params.gameId, settings, version, { userId: user.id, teamId: game.teamId });
+	await saveSettings(d, actor, { settings, baseVersion: version });
 	return json({ ok: true });
 });

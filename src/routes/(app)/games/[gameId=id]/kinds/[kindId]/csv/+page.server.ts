@@ -51,9 +51,9 @@ async function readCsv(body: FormData): Promise<{ text: string } | { problem: st
 
 async function importer(event: RequestEvent<{ gameId: string; kindId: string }>) {
 	const d = await db();
-	const { user, game: row } = await requireGameRole(d, event.locals, event.params.gameId, 'game.edit');
+	const { game: row, actor } = await requireGameRole(d, event.locals, event.params.gameId, 'game.edit');
 	const body = await event.request.formData();
-	return { d, user, row, body, removeMissing: body.get('removeMissing') === 'on' };
+	return { d, actor, row, body, removeMissing: body.get('removeMissing') === 'on' };
 }
 
 export const actions = {
@@ -73,7 +73,7 @@ export const actions = {
 	 * nothing is imported.
 	 */
 	apply: async (event) => {
-		const { d, user, row, body, removeMissing } = await importer(event);
+		const { d, actor, row, body, removeMissing } = await importer(event);
 		const read = await readCsv(body);
 		if ('problem' in read) return fail(400, { csv: '', removeMissing, problem: read.problem });
 		const game = await loadGame(d, row.id);
@@ -92,12 +92,10 @@ export const actions = {
 			});
 		if (writes.length === 0) return { applied: { added: 0, changed: 0, removed: 0 } };
 		try {
-			await applyChanges(
-				d,
-				row.id,
-				writes.map((w): Change => ({ collection: 'card', id: w.id, baseVersion: w.baseVersion, object: w.object, remove: w.remove })),
-				{ userId: user.id, teamId: row.teamId, action: 'cards.imported' }
-			);
+			await applyChanges(d, actor, {
+				changes: writes.map((w): Change => ({ collection: 'card', id: w.id, baseVersion: w.baseVersion, object: w.object, remove: w.remove })),
+				action: 'cards.imported'
+			});
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) return fail(refused.status, { ...again, problem: `Nothing was imported: ${refused.message}` });

@@ -28,7 +28,7 @@ export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
 	const collection = collectionOf(params.collection);
 	const id = objectIdParam(params.objectId);
-	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
+	const { actor } = await requireGameEdit(d, locals, params.gameId, collection);
 	// Art's own fields are checked here (its file changes only by uploading); other objects in full when saved.
 	const body = await readJson(
 		request,
@@ -37,12 +37,10 @@ export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const { version, ...sent } = body;
 	// The file behind an art piece changes only by uploading; here only its status and slot.
 	const object = collection === 'art' ? { ...(await findObject(params.gameId, collection, id)), status: sent.status, assignment: sent.assignment } : sent;
-	const after = await applyChanges(
-		d,
-		params.gameId,
-		[{ collection, id, baseVersion: version, object: { ...object, id } }],
-		{ userId: user.id, teamId: game.teamId, action: `${collection}.saved` }
-	);
+	const after = await applyChanges(d, actor, {
+		changes: [{ collection, id, baseVersion: version, object: { ...object, id } }],
+		action: `${collection}.saved`
+	});
 	return json({ [collection]: (after[COLLECTION_FIELD[collection]] as { id: string }[]).find((o) => o.id === id) });
 });
 
@@ -51,13 +49,9 @@ export const DELETE: RequestHandler = api(async ({ locals, params, url }) => {
 	const d = await db();
 	const collection = collectionOf(params.collection);
 	const id = objectIdParam(params.objectId);
-	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
+	const { actor } = await requireGameEdit(d, locals, params.gameId, collection);
 	const version = Number(url.searchParams.get('version'));
 	if (!Number.isInteger(version) || version < 1) throw new Invalid('Say which version you are deleting: ?version=N');
-	await applyChanges(d, params.gameId, [{ collection, id, baseVersion: version, remove: true }], {
-		userId: user.id,
-		teamId: game.teamId,
-		action: `${collection}.deleted`
-	});
+	await applyChanges(d, actor, { changes: [{ collection, id, baseVersion: version, remove: true }], action: `${collection}.deleted` });
 	return json({ ok: true });
 });

@@ -18,9 +18,9 @@ import { db } from '$lib/server/runtime';
 
 export const POST: RequestHandler = api(async ({ locals, params, request, url }) => {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, locals, params.gameId, 'art.edit');
+	const { actor } = await requireGameRole(d, locals, params.gameId, 'art.edit');
 	const upload = await readApiUpload(request, url);
-	const outcome = await uploadArt(d, game.id, upload, { userId: user.id, teamId: game.teamId });
+	const outcome = await uploadArt(d, actor, upload);
 	const check = artPrintChecks(outcome.game, await loadFonts()).get(outcome.art.id)!;
 	const worst = check.worst;
 	return json(

@@ -9,15 +9,15 @@ import { db } from '$lib/server/runtime';
 /** The game's saved scenarios: name, scenario and the answer of its last run. */
 export const GET: RequestHandler = api(async ({ locals, params }) => {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.read');
-	return json({ scenarios: await listScenarios(d, { userId: user.id, teamId: game.teamId, gameId: game.id }) });
+	const { actor } = await requireGameRole(d, locals, params.gameId, 'game.read');
+	return json({ scenarios: await listScenarios(d, actor) });
 });
 
 /** Saves `{ name, scenario, lastResult? }`; the same name again replaces it. */
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user, game } = await requireGameRole(d, locals, params.gameId, 'game.read');
+	const { actor } = await requireGameRole(d, locals, params.gameId, 'game.read');
 	const body = await readJson(request, z.unknown());
-	const saved = await saveScenario(d, { userId: user.id, teamId: game.teamId, gameId: game.id }, body);
+	const saved = await saveScenario(d, actor, body);
 	return json(saved, { status: 201 });
 });

@@ -11,8 +11,8 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
 	await requireGameRole(d, locals, params.gameId, 'game.read');
 	const { collection } = await versionOf(d, params.gameId, params.versionId);
-	const { user, game } = await requireGameEdit(d, locals, params.gameId, collection);
+	const { actor } = await requireGameEdit(d, locals, params.gameId, collection);
 	const seen = await readJson(request, RestoreSchema);
-	const restored = await restoreVersion(d, { userId: user.id, teamId: game.teamId, gameId: game.id }, params.versionId, seen);
+	const restored = await restoreVersion(d, actor, { versionId: params.versionId, ...seen });
 	return json({ restored }, { status: 201 });
 });
