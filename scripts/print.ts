@@ -21,6 +21,7 @@ import { buildCalibrationPdf } from '../src/lib/print/calibration';
 import { buildCardPressPdf } from '../src/lib/print/press-job';
 import { buildCardsPngZip, PNG_DPI_DEFAULT } from '../src/lib/print/png-job';
 import { buildGamePdf } from '../src/lib/print/sheet-job';
+import { defaultDiskCacheDir, DEFAULT_DISK_CACHE_BYTES, PrintDiskCache } from '../src/lib/print/disk-cache';
 import { parsePrintOptions, PrintOptionsError } from '../src/lib/print/options';
 
 const USAGE = `Usage: npm run print -- (--demo | --bundle game.zip) [options] --out file.pdf
@@ -40,6 +41,13 @@ Sheet options (the same as the app's print page):
   --kinds ID,ID                                  only these card kinds
   --back-x MM --back-y MM                        the printer's back offset from the calibration sheet
   --title TEXT --version-label TEXT              for the sheet label
+
+Cache (sheet PDFs): faces already laid out and drawn, art pixels and font data are kept in
+  --cache DIR                                    (default ${defaultDiskCacheDir()})
+  --no-cache                                     neither read nor write it
+so a repeat run only assembles the PDF, and a changed card is drawn again alone. Entries are
+keyed by everything a face is made from; the directory is kept under ${DEFAULT_DISK_CACHE_BYTES / 1024 / 1024} MB (least recently
+used go first) and is safe to delete at any time.
 
 Sizes and bleed are common practice: confirm them with your print shop before a paid run.`;
 
@@ -105,6 +113,8 @@ async function main(argv: string[]): Promise<void> {
 				'version-label': { type: 'string' },
 				'crop-marks': { type: 'boolean' },
 				dpi: { type: 'string' },
+				cache: { type: 'string' },
+				'no-cache': { type: 'boolean' },
 				orientation: { type: 'string' },
 				help: { type: 'boolean', short: 'h' }
 			}
@@ -174,9 +184,12 @@ async function main(argv: string[]): Promise<void> {
 		return;
 	}
 
+	if (v.cache !== undefined && v['no-cache']) fail('choose --cache DIR or --no-cache');
+	const disk = v['no-cache'] ? undefined : new PrintDiskCache(v.cache ?? defaultDiskCacheDir());
 	const started = performance.now();
 	const r = await buildGamePdf(game, art, {
 		...options,
+		disk,
 		title: v.title,
 		versionLabel: v['version-label'],
 		onProgress: progress('steps')

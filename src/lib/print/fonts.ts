@@ -6,39 +6,55 @@
  */
 import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
-import fontkit from '@pdf-lib/fontkit';
-import wawoff from 'wawoff2';
 import type { FontWeight } from './display-list';
-import { FONT_FILES as FILES, type MeasuringFont } from './typeface';
+import { FONT_FILES as FILES } from './font-files';
+import type { MeasuringFont } from './typeface';
 
-export { FONT_FAMILY } from './typeface';
+export { FONT_FAMILY } from './font-files';
 
 const require = createRequire(import.meta.url);
 
-export interface LoadedFont extends MeasuringFont {
+/** A weight's files: what a PDF embeds. */
+export interface FontFile {
 	weight: FontWeight;
 	woff2: Uint8Array;
 	ttf: Uint8Array;
 }
 
+export interface LoadedFont extends FontFile, MeasuringFont {}
+
+export type FontFiles = Record<FontWeight, FontFile>;
 export type FontSet = Record<FontWeight, LoadedFont>;
 
+let reading: Promise<FontFiles> | undefined;
 let loading: Promise<FontSet> | undefined;
 
-async function loadOne(weight: FontWeight): Promise<LoadedFont> {
-	const woff2 = new Uint8Array(await readFile(require.resolve(FILES[weight])));
-	const ttf = new Uint8Array(await wawoff.decompress(woff2));
-	return { weight, woff2, ttf, metrics: fontkit.create(Buffer.from(ttf)) };
+/**
+ * Both weights' files, once per process. Parsing them (fontkit) is left to `loadFonts`: a PDF
+ * whose faces are all known already embeds the files and never loads the parser.
+ */
+export function loadFontFiles(): Promise<FontFiles> {
+	reading ??= (async () => {
+		const { default: wawoff } = await import('wawoff2');
+		// One at a time: wawoff2 returns a view into its wasm heap, which the next call overwrites,
+		// so each result is copied before the next decompression starts.
+		const one = async (weight: FontWeight): Promise<FontFile> => {
+			const woff2 = new Uint8Array(await readFile(require.resolve(FILES[weight])));
+			return { weight, woff2, ttf: new Uint8Array(await wawoff.decompress(woff2)) };
+		};
+		const regular = await one('regular');
+		const bold = await one('bold');
+		return { regular, bold };
+	})();
+	return reading;
 }
 
-/** Both weights, loaded once per process. */
+/** Both weights with their metrics, loaded once per process. */
 export function loadFonts(): Promise<FontSet> {
-	// One at a time: wawoff2 returns a view into its wasm heap, which the next call overwrites,
-	// so each result is copied (in loadOne) before the next decompression starts.
 	loading ??= (async () => {
-		const regular = await loadOne('regular');
-		const bold = await loadOne('bold');
-		return { regular, bold };
+		const [files, { default: fontkit }] = await Promise.all([loadFontFiles(), import('@pdf-lib/fontkit')]);
+		const withMetrics = (f: FontFile): LoadedFont => ({ ...f, metrics: fontkit.create(Buffer.from(f.ttf)) });
+		return { regular: withMetrics(files.regular), bold: withMetrics(files.bold) };
 	})();
 	return loading;
 }

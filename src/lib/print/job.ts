@@ -15,8 +15,9 @@ import { imageSize } from 'image-size';
 import { checkArtResolution, faceWithBleedMm, MIN_PRINT_DPI, shownDpi } from '../game/art-check';
 import type { ArtAsset, Card, CardKind, Game } from '../game/model';
 import { faceBytes, faceKey, printCache, type PrintCache } from './cache';
+import { fontsKey, type PrintDiskCache } from './disk-cache';
 import { faceWidthMm, type FaceLayout, type ImageAsset } from './display-list';
-import { loadFonts } from './fonts';
+import { loadFontFiles, loadFonts, type FontSet } from './fonts';
 import { PrintOptionsError, SETS_MAX } from './options';
 import { layoutFace, TEMPLATES } from './layout/index';
 import { svgToPng } from './png';
@@ -29,6 +30,8 @@ export interface RenderFacesOptions {
 	sets?: number;
 	onProgress?: (done: number, total: number) => void;
 	cache?: PrintCache;
+	/** Laid-out faces kept on disk between processes (the CLI's): read before laying out, written after. */
+	disk?: PrintDiskCache;
 }
 
 /* ---------------------------------------------------------------- images */
@@ -147,8 +150,12 @@ export async function renderGameFaces(game: Game, art: ReadonlyMap<string, Uint8
 	const sets = options.sets ?? 1;
 	if (!Number.isInteger(sets) || sets < 1 || sets > SETS_MAX) throw new PrintOptionsError(`sets is 1 to ${SETS_MAX}`);
 	const kinds = selectKinds(game, options.kinds);
-	const [fonts, loaded] = await Promise.all([loadFonts(), loadGameImages(game, art, cache)]);
+	// The fonts' metrics (and fontkit with them) are loaded only when a face must be laid out.
+	let fonts: Promise<FontSet> | undefined;
+	const loaded = await loadGameImages(game, art, cache);
 	const { images } = loaded;
+	// On disk a layout is also keyed by the font files it was measured with (a package update may change them).
+	const diskFonts = options.disk && fontsKey(await loadFontFiles());
 	const warnings = [...loaded.warnings];
 
 	const jobs: { kind: CardKind; card: Card }[] = [];
@@ -162,9 +169,13 @@ export async function renderGameFaces(game: Game, art: ReadonlyMap<string, Uint8
 		const layout = await cache.getOrMake(
 			'layout',
 			key,
-			() => {
+			async () => {
+				const kept = options.disk?.readLayout(`${key}|${diskFonts}`);
+				if (kept) return kept;
 				laidOut++;
-				return layoutFace({ game, kind, card, side, images, fonts });
+				const made = layoutFace({ game, kind, card, side, images, fonts: await (fonts ??= loadFonts()) });
+				options.disk?.writeLayout(`${key}|${diskFonts}`, made);
+				return made;
 			},
 			faceBytes
 		);

@@ -37,7 +37,7 @@ import { deflateSync } from 'node:zlib';
 import { zlibSync } from 'fflate';
 import type { Colour, DisplayItem, FaceLayout, FontWeight, ImageAsset } from './display-list';
 import { faceHeightMm, faceWidthMm } from './display-list';
-import type { FontSet } from './fonts';
+import type { FontFiles } from './fonts';
 import { PT_PER_MM } from './paper';
 import { sharedFontkit } from './pdf-fontkit';
 import { PdfImageCache, type EncodedImageStore } from './pdf-image';
@@ -129,7 +129,8 @@ export interface PressOutput {
 }
 
 export interface PdfFaceWriterOptions {
-	fonts: FontSet;
+	/** The font files (their metrics are not needed: faces arrive laid out). */
+	fonts: FontFiles;
 	/** Image table shared by all faces of the document, keyed by image id. */
 	images?: Iterable<ImageAsset> | ReadonlyMap<string, ImageAsset>;
 	colour?: ColourMode;
@@ -150,9 +151,14 @@ export interface PdfFaceWriterOptions {
  * out the same object while the face is unchanged): the bytes name resources canonically and
  * refer to the fonts' own glyph ids, so only the texts' glyphs need registering again.
  */
-interface KeptForm {
+interface KeptForm extends FormRecord {
+	/** The font files the glyph ids refer to. */
+	fonts: [Uint8Array, Uint8Array];
+}
+
+/** A face's form content as it can be kept outside the process (see ./disk-cache.ts). */
+export interface FormRecord {
 	colour: ColourMode;
-	fonts: FontSet;
 	/** Deflated content stream. */
 	content: Uint8Array;
 	/** Image ids in the order of their names I0, I1, … */
@@ -160,6 +166,19 @@ interface KeptForm {
 	texts: [FontWeight, string][];
 }
 const keptForms = new WeakMap<FaceLayout, KeptForm>();
+
+const sameFonts = (kept: KeptForm, fonts: FontFiles) => kept.fonts[0] === fonts.regular.ttf && kept.fonts[1] === fonts.bold.ttf;
+
+/** The face's form as drawn in an earlier document of this process (plain RGB or CMYK only), to keep elsewhere. */
+export function keptFormOf(face: FaceLayout): FormRecord | undefined {
+	const kept = keptForms.get(face);
+	return kept && { colour: kept.colour, content: kept.content, images: kept.images, texts: kept.texts };
+}
+
+/** A form kept elsewhere, for documents of this process drawn with these font files. */
+export function keepForm(face: FaceLayout, form: FormRecord, fonts: FontFiles): void {
+	keptForms.set(face, { ...form, fonts: [fonts.regular.ttf, fonts.bold.ttf] });
+}
 
 const escapeRegExp = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 
@@ -174,7 +193,7 @@ export class PdfFaceWriter {
 	/** How many form XObjects were written (for tests: once per distinct face per document). */
 	formsWritten = 0;
 	private forms = new WeakMap<FaceLayout, Promise<PDFRef>>();
-	private fontSet: FontSet;
+	private fontSet: FontFiles;
 	private formNames = new WeakMap<PDFPage, Map<PDFRef, PDFName>>();
 	private press?: PressOutput;
 	private inkReported = new Set<string>();
@@ -217,8 +236,10 @@ export class PdfFaceWriter {
 		// subset (PDF/X preflight expects it) and draw their forms afresh.
 		const subset = !!options.press || !options.faceForms;
 		// A subset font's name is its PostScript name behind a tag of six capitals (ISO 32000-1 §9.6.4).
-		const name = (f: FontSet['regular'], n: number) =>
-			options.press ? { customName: `${subsetTag(options.press.subsetTag, n)}+${f.metrics.postscriptName ?? `RobotoSlab-${f.weight}`}` } : {};
+		const name = (f: FontFiles['regular'], n: number) =>
+			options.press
+				? { customName: `${subsetTag(options.press.subsetTag, n)}+${sharedFontkit.create(f.ttf).postscriptName ?? `RobotoSlab-${f.weight}`}` }
+				: {};
 		const [regular, bold] = await Promise.all([
 			doc.embedFont(new Uint8Array(options.fonts.regular.ttf), { subset, ...name(options.fonts.regular, 0) }),
 			doc.embedFont(new Uint8Array(options.fonts.bold.ttf), { subset, ...name(options.fonts.bold, 1) })
@@ -271,7 +292,7 @@ export class PdfFaceWriter {
 		// Press forms hold subset glyph ids and one profile's colours: never kept between documents.
 		const kept = this.press ? undefined : keptForms.get(face);
 		const form =
-			kept && kept.colour === this.colour && kept.fonts === this.fontSet ? this.replay(kept) : await this.drawForm(face);
+			kept && kept.colour === this.colour && sameFonts(kept, this.fontSet) ? this.replay(kept) : await this.drawForm(face);
 		this.formsWritten++;
 		const { widthPt, heightPt } = faceSizePt(face);
 		const { context } = this.doc;
@@ -321,7 +342,7 @@ export class PdfFaceWriter {
 		for (let i = 0; i < text.length; i++) bytes[i] = text.charCodeAt(i);
 		const form: KeptForm = {
 			colour: this.colour,
-			fonts: this.fontSet,
+			fonts: [this.fontSet.regular.ttf, this.fontSet.bold.ttf],
 			content: zlibSync(bytes, { level: 6 }),
 			images,
 			texts: face.items.flatMap((i) => (i.type === 'text' && i.text ? [[i.weight, i.text] as [FontWeight, string]] : []))

@@ -2,7 +2,9 @@
 import type { Game } from '../game/model';
 import { printCache, type PrintCache } from './cache';
 import { faceHeightMm, faceWidthMm, type FaceLayout } from './display-list';
-import { loadFonts } from './fonts';
+import { loadFontFiles } from './fonts';
+import { fontRecordsIn, keepDrawnForms, restoreForms, type PrintDiskCache } from './disk-cache';
+import { keepFontRecords, saveFontRecords } from './pdf-fontkit';
 import { impose } from './impose';
 import { checkPrintOptions, DEFAULT_MARGIN_MM, PrintOptionsError, toSheetOptions, type PrintOptions } from './options';
 import { paperSize, type PaperSpec } from './paper';
@@ -22,6 +24,8 @@ export interface GamePdfOptions extends PrintOptions {
 	pdfx?: PdfxTarget;
 	onProgress?: (done: number, total: number) => void;
 	cache?: PrintCache;
+	/** Faces, their drawn forms, art pixels and font records kept on disk between processes (the CLI's). */
+	disk?: PrintDiskCache;
 }
 
 export interface GamePdf {
@@ -83,9 +87,12 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 	let faceDone = 0;
 	let pageTotal = 0;
 	const report = (pagesDone: number) => options.onProgress?.(faceDone + pagesDone, faceTotal + pageTotal);
+	const disk = options.disk;
+	keepFontRecords(disk && fontRecordsIn(disk));
 	const faces = await renderGameFaces(game, art, {
 		kinds: kinds.map((k) => k.id),
 		cache,
+		disk,
 		onProgress: (d, t) => {
 			faceDone = d;
 			faceTotal = t;
@@ -100,6 +107,10 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 	const count = countPages(plan, !!sheetOptions.cuttingGuide);
 	pageTotal = count.total;
 	const ink: string[] = [];
+	const fonts = await loadFontFiles();
+	// Forms are kept for plain RGB or CMYK; a press file draws its own (subset fonts, the profile's colours).
+	const keepForms = disk && !options.pdfx ? sheetOptions.colour : undefined;
+	const drawn = keepForms ? restoreForms(disk!, distinctFaces(faces.cards), keepForms, fonts) : undefined;
 	const pdf = await pressBuild(async () =>
 		buildSheetPdf({
 			title: options.title ?? game.name,
@@ -108,13 +119,28 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 			faces: faces.cards,
 			images: faces.images,
 			options: sheetOptions,
-			fonts: await loadFonts(),
-			imageStore: cache,
+			fonts,
+			imageStore: disk ?? cache,
 			onPage: (d) => report(d),
 			pdfx: options.pdfx,
 			onInkOver: (what, pct, imageId) => ink.push(inkWarning(imageId ? pictureWords(game, imageId, faces.cards) : what, pct, options.pdfx!))
 		})
 	);
+	if (disk) {
+		if (drawn?.size) keepDrawnForms(disk, drawn, keepForms!, fonts);
+		saveFontRecords();
+		if (Object.values(disk.stats.written).some(Boolean)) disk.trim();
+	}
 	return { pdf, sheets: plan.sheetCount, pages: pageTotal, guidePages: count.guidePages, warnings: [...faces.warnings, ...plan.warnings, ...ink] };
+}
+
+/** Each distinct face of the cards with its content key (a shared back once). */
+function distinctFaces(cards: RenderedCard[]): Map<FaceLayout, string> {
+	const faces = new Map<FaceLayout, string>();
+	for (const c of cards) {
+		faces.set(c.front, c.frontKey);
+		if (c.back && c.backKey) faces.set(c.back, c.backKey);
+	}
+	return faces;
 }
 

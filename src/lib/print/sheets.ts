@@ -13,7 +13,7 @@ import type { ImageAsset } from './display-list';
 import { faceHeightMm } from './display-list';
 import { drawCuttingGuide } from './cutting-guide';
 import { countPages, planSheets, type PlacedCard, type SheetFace, type SheetOptions } from './sheet-plan';
-import { loadFonts, type FontSet } from './fonts';
+import { loadFontFiles, type FontFiles } from './fonts';
 import { drawSheetMarks, sheetMarks } from './marks';
 import { mmToPt, PT_PER_MM } from './paper';
 import { drawIntoForm, packPageContent, PdfFaceWriter } from './pdf';
@@ -28,7 +28,7 @@ export interface SheetPdfInput {
 	faces: SheetFace[];
 	images?: ImageAsset[] | ReadonlyMap<string, ImageAsset>;
 	options: SheetOptions;
-	fonts?: FontSet;
+	fonts?: FontFiles;
 	/** Encoded image pixels kept between documents (see ./pdf-image.ts). */
 	imageStore?: EncodedImageStore;
 	/** Called after each page is drawn, with the pages done and the document's page count. */
@@ -56,7 +56,7 @@ export async function buildSheetPdf(input: SheetPdfInput): Promise<Uint8Array> {
 	const title = `${input.title} — ${input.versionLabel} — sheets`;
 	const seed = `${title}|${input.date}|${pdfx?.standard}|${pdfx?.intent}`;
 	const writer = await PdfFaceWriter.create(doc, {
-		fonts: input.fonts ?? (await loadFonts()),
+		fonts: input.fonts ?? (await loadFontFiles()),
 		images: input.images,
 		colour: o.colour,
 		imageStore: input.imageStore,

@@ -7,13 +7,7 @@
 import fontkit from '@pdf-lib/fontkit';
 import type { FontWeight } from './display-list';
 
-export const FONT_FAMILY = 'Roboto Slab';
-
-/** The shipped files, by weight (package paths, resolved by Node or bundled by Vite). */
-export const FONT_FILES: Record<FontWeight, string> = {
-	regular: '@fontsource/roboto-slab/files/roboto-slab-latin-400-normal.woff2',
-	bold: '@fontsource/roboto-slab/files/roboto-slab-latin-700-normal.woff2'
-};
+export { FONT_FAMILY, FONT_FILES } from './font-files';
 
 export interface MeasuringFont {
 	/** fontkit font, for measuring advance widths and metrics. */

@@ -3,7 +3,7 @@
  * Tests check our output with these rather than with the library that wrote it.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
@@ -106,6 +106,18 @@ export function rasterGrey(bytes: Uint8Array, page: number, dpi = 150, extra: st
 		const base = join(dir, 'page');
 		execFileSync('pdftoppm', ['-gray', '-r', String(dpi), '-f', String(page), '-l', String(page), '-singlefile', ...extra, path, base]);
 		return { ...parsePgm(readFileSync(base + '.pgm')), dpi };
+	});
+}
+
+/** `pdftoppm -gray -r dpi` of every page, in page order. */
+export function rasterAllGrey(bytes: Uint8Array, dpi = 50): GreyImage[] {
+	return withFile(bytes, (path, dir) => {
+		execFileSync('pdftoppm', ['-gray', '-r', String(dpi), path, join(dir, 'page')]);
+		// pdftoppm numbers pages with as many digits as the last page needs.
+		const files = readdirSync(dir)
+			.filter((f) => f.endsWith('.pgm'))
+			.sort((a, b) => Number(/(\d+)\.pgm$/.exec(a)![1]) - Number(/(\d+)\.pgm$/.exec(b)![1]));
+		return files.map((f) => ({ ...parsePgm(readFileSync(join(dir, f))), dpi }));
 	});
 }
 
