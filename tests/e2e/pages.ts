@@ -22,6 +22,8 @@ export async function appPages(page: Page, role: 'owner' | 'designer' | 'artist'
 		`${G}/odds`,
 		`${G}/proofs/compare?a=1&b=1`,
 		`${G}/activity`,
+		`${G}/history`,
+		`${G}/settings`,
 		...proofPages
 	];
 	if (role === 'printer') return ['/', `/teams/${team}/printers`, G, ...proofPages];
