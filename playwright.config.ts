@@ -17,7 +17,8 @@ export default defineConfig({
 	webServer: {
 		command: 'node scripts/start.js',
 		url: `http://localhost:${E2E_PORT}/signin`,
-		timeout: 240_000,
+		// Includes a build when the sources are newer than build/: minutes on a busy machine.
+		timeout: 900_000,
 		reuseExistingServer: false,
 		stdout: 'pipe',
 		env: { PORT: String(E2E_PORT), PADDOCK_DATA_DIR: E2E_DATA_DIR, PADDOCK_DEMO: '1' }

@@ -1,4 +1,5 @@
 // What a build prints for people: the server bundler's notices about third-party packages left out.
+import { stripVTControlCharacters } from 'node:util';
 
 /**
  * Notices the server bundler prints about third-party packages (their own import cycles, `this` at
@@ -20,7 +21,8 @@ const THIRD_PARTY_NOTICES = [
  * @param {boolean} ok
  */
 export function buildLog(output, ok) {
-	const lines = output.split(/\r?\n/);
+	// Colour codes (a bundler colours its output when FORCE_COLOR is set) would hide a notice from the patterns.
+	const lines = stripVTControlCharacters(output).split(/\r?\n/);
 	if (!ok) return { shown: lines.join('\n').trim(), hidden: 0 };
 	const shown = lines.filter((/** @type {string} */ l) => l.trim() && !THIRD_PARTY_NOTICES.some((re) => re.test(l)));
 	return { shown: shown.join('\n'), hidden: lines.filter((/** @type {string} */ l) => THIRD_PARTY_NOTICES.slice(0, 3).some((re) => re.test(l))).length };

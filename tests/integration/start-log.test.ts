@@ -22,6 +22,13 @@ describe('build log', () => {
 	it('leaves out the third-party notices of a good build and counts them', () => {
 		expect(buildLog(NOTICES, true)).toEqual({ shown: '', hidden: 4 });
 	});
+	it('leaves them out when the bundler colours its output too (FORCE_COLOR, as test runners set)', () => {
+		const coloured = NOTICES.replace('npm run preview', '\x1b[1m\x1b[36mnpm run preview\x1b[39m\x1b[22m').replace(
+			'> Using @sveltejs/adapter-node',
+			'\x1b[1m> Using @sveltejs/adapter-node\x1b[22m'
+		).replace('  ✔ done', '\x1b[32m  ✔ done\x1b[39m');
+		expect(buildLog(coloured, true)).toEqual({ shown: '', hidden: 4 });
+	});
 	it('keeps anything else, such as a notice about our own code', () => {
 		const own = 'Circular dependency: src/lib/a.ts -> src/lib/b.ts -> src/lib/a.ts';
 		expect(buildLog(`${NOTICES}\n${own}`, true).shown).toBe(own);
