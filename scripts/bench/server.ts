@@ -41,7 +41,9 @@ export async function startServer(port: number, buildDir = process.env.BENCH_BUI
 	}
 	const dataDir = mkdtempSync(join(tmpdir(), 'paddock-bench-data-'));
 	const url = `http://localhost:${port}`;
-	const child: ChildProcess = spawn(process.execPath, [join(buildDir, 'index.js')], {
+	// BENCH_SERVER_ARGS: node options for the server, e.g. `--cpu-prof` to see where its time goes.
+	const nodeArgs = (process.env.BENCH_SERVER_ARGS ?? '').split(' ').filter(Boolean);
+	const child: ChildProcess = spawn(process.execPath, [...nodeArgs, join(buildDir, 'index.js')], {
 		cwd: ROOT,
 		// The body limit `npm start` sets (scripts/start.js); the framework's own default refuses art uploads.
 		env: { ...appEnv(), PORT: String(port), ORIGIN: url, PADDOCK_DATA_DIR: dataDir, PADDOCK_DEMO: '1', DATABASE_URL: '', BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '210M' },

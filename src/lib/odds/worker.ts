@@ -6,9 +6,12 @@ import { parentPort } from 'node:worker_threads';
 import type { FromOddsWorker, OddsJob, ToOddsWorker } from './parallel';
 import { compileRace, emptyRaceTally, type RaceRunner } from './race';
 import { chunkGenerator, chunkSize, compileStage, emptyTally, sampleStage, type CompiledStage } from './stage';
+import { lowerThreadPriority } from '../threads/priority';
 
 const port = parentPort;
 if (!port) throw new Error('worker.ts runs as a worker thread (see ./parallel.ts)');
+// Long simulations yield the CPU to the server's own thread.
+lowerThreadPriority();
 
 let compiled: { jobId: number; job: OddsJob; stage?: CompiledStage; race?: RaceRunner } | undefined;
 

@@ -26,6 +26,7 @@ import type { GamePdfOptions } from './sheet-job';
 import type { PngPart, PngShard, PngZipOptions } from './png-job';
 import { PrintOptionsError } from './options';
 import { resolveCompiledWorker, tsxEsmApi, type TsWorkerData } from '../threads/ts-worker';
+import { WORKER_NICE } from '../threads/priority';
 
 type Plain<T> = Omit<T, 'onProgress' | 'cache'>;
 
@@ -120,8 +121,6 @@ export const DEFAULT_MAX_QUEUE = 16;
 export const DEFAULT_IDLE_SIZE = 1;
 const DEFAULT_IDLE_MS = 60_000;
 const WORKER_YOUNG_MB = 8;
-/** Worker threads yield the CPU to the server's thread (Linux nice value; ignored elsewhere). */
-const WORKER_NICE = 10;
 
 /**
  * Where the worker module is: beside this file when running from source (../threads/ts-worker.ts);
@@ -186,6 +185,8 @@ export class PrintPool implements PrintRunner {
 			concurrentTasksPerWorker: 1,
 			// Idle workers wait on a message port, so a job's own async work is never parked.
 			atomics: 'disabled',
+			// Worker threads yield the CPU to the server's thread (Linux nice value; the worker sets
+			// it again itself, see ../threads/priority.ts, should piscina's optional helper be missing).
 			niceIncrement: WORKER_NICE,
 			// A smaller young generation: builds allocate in short bursts, and every megabyte a
 			// thread's heap grew to stays resident while the thread lives.

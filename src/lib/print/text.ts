@@ -26,6 +26,8 @@ export interface TextBox {
 
 // Advance widths in font units do not depend on the size, so one cache serves every size tried.
 const unitCache = new WeakMap<FontMetrics, Map<string, number>>();
+/** Texts measured per font before the cache starts over (a long-lived server sees ever new names). */
+const MAX_MEASURED_TEXTS = 20_000;
 
 function advanceUnits(font: FontMetrics, text: string): number {
 	let cache = unitCache.get(font);
@@ -36,6 +38,7 @@ function advanceUnits(font: FontMetrics, text: string): number {
 	let units = cache.get(text);
 	if (units === undefined) {
 		units = text === '' ? 0 : font.layout(text).advanceWidth;
+		if (cache.size >= MAX_MEASURED_TEXTS) cache.clear();
 		cache.set(text, units);
 	}
 	return units;

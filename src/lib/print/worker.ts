@@ -13,9 +13,13 @@ import { buildCardPressPdf } from './press-job';
 import { buildCardsPngZip, renderPngPart } from './png-job';
 import { buildGamePdf } from './sheet-job';
 import { resvgReady } from './png';
+import { lowerThreadPriority } from '../threads/priority';
 import type { PrintJob, PrintJobResult, ProgressMessage, WorkerData, WorkerFailure, WorkerTask } from './pool';
 
 const PROGRESS_EVERY_MS = 100;
+
+// Builds yield the CPU to the server's own thread.
+lowerThreadPriority();
 
 const budget = (workerData as WorkerData | undefined)?.cacheBytes;
 if (budget) printCache.resize(budget);

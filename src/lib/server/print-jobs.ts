@@ -8,7 +8,7 @@
  * date), in isolation from any worker cache, so a retry after a crash makes the same bytes; and
  * only the first build to finish is recorded, so a job never ends with two different files.
  */
-import { and, desc, eq, gt, isNotNull, lt, ne, sql } from 'drizzle-orm';
+import { and, desc, eq, getTableColumns, gt, isNotNull, lt, ne, sql } from 'drizzle-orm';
 import { createHash } from 'node:crypto';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
@@ -22,7 +22,12 @@ import type { Game } from '$lib/game/model';
 import type { GamePdfOptions } from '$lib/print/sheet-job';
 import type { ApiAnswer, PrintJobSchema } from '$lib/schemas/api';
 
-export type PrintJobRow = typeof printJobs.$inferSelect;
+/**
+ * A job as followed and downloaded: its row without the request (the whole game as data), which
+ * only the build reads; a poll every few hundred ms must not fetch and parse the game.
+ */
+const { request: _request, ...FOLLOWED } = getTableColumns(printJobs);
+export type PrintJobRow = Omit<typeof printJobs.$inferSelect, 'request'>;
 
 interface SheetRequest {
 	type: 'sheets';
@@ -65,7 +70,7 @@ async function queueJob(db: Db, source: PrintSource, request: SheetRequest | Png
 		const [inserted] = await tx
 			.insert(printJobs)
 			.values({ userId: source.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, fileName })
-			.returning();
+			.returning(FOLLOWED);
 		return inserted;
 	});
 	await jobQueue().send('print', row.id);
@@ -108,14 +113,14 @@ async function finishedAlready(db: Db, source: PrintSource, request: SheetReques
 				result: done.result,
 				finishedAt: new Date()
 			})
-			.returning();
+			.returning(FOLLOWED);
 		return row;
 	});
 }
 
 export async function jobFor(db: Db, userId: string, id: string): Promise<PrintJobRow> {
 	const [job] = await db
-		.select()
+		.select(FOLLOWED)
 		.from(printJobs)
 		.where(and(eq(printJobs.id, id), eq(printJobs.userId, userId)));
 	if (!job) throw new NotFound('No such print job (finished files are kept for ten minutes)');

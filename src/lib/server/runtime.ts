@@ -22,7 +22,7 @@ interface Runtime {
 }
 
 /** Each print worker's cache: enough for a large game's faces and art, small enough that the server stays lean. */
-const WORKER_CACHE_BYTES = 64 * 1024 * 1024;
+const WORKER_CACHE_BYTES = 48 * 1024 * 1024;
 
 const slot = globalThis as typeof globalThis & { __paddock?: Promise<Runtime> };
 
