@@ -227,8 +227,13 @@ test('an artist and a reviewer see the preview drawn as well', async ({ browser 
 		const page = await context.newPage();
 		await signIn(page, who);
 		const gameId = await demoGameId(page);
-		await openCard(page, gameId, 'movement');
+		const preview = await openCard(page, gameId, 'movement');
 		await expect(page.getByRole('alert')).toHaveCount(0);
+		// The art the faces link to is readable in this role (the demo's movement kind has art on both faces).
+		const art = await preview.locator('svg image').evaluateAll((els) => els.map((el) => el.getAttribute('href') ?? el.getAttribute('xlink:href')));
+		expect(art.length).toBeGreaterThan(0);
+		for (const href of new Set(art)) expect((await page.request.get(href!)).status(), href!).toBe(200);
+		await page.waitForLoadState('networkidle');
 		await page.screenshot({ path: `test-results/live-preview-${who.split('@')[0]}.png`, fullPage: true });
 		await context.close();
 	}
