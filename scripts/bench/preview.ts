@@ -64,6 +64,9 @@ async function openCard(page: Page, base: string, gameId: string, cardId: string
 	await page.goto(`${base}/games/${gameId}/kinds/${kindId}?card=${cardId}`);
 	await page.waitForFunction(READY);
 	await page.locator('[data-testid="card-preview"] svg').first().waitFor();
+	// The page's own loads (its fonts, the art) are over before anyone types.
+	await page.waitForLoadState('networkidle');
+	await page.evaluate('document.fonts.ready.then(() => undefined)');
 	await page.evaluate(WATCH);
 }
 

@@ -185,6 +185,9 @@ async function openCard(page: Page, gameId: string, type: string) {
 	await hydrated(page);
 	const preview = page.getByTestId('card-preview');
 	await expect(preview.locator('svg')).toHaveCount(2);
+	// The page's own loads (its fonts, the art) are over before anyone types.
+	await page.waitForLoadState('networkidle');
+	await page.evaluate(() => document.fonts.ready.then(() => undefined));
 	return preview;
 }
 
