@@ -7,7 +7,7 @@
 import { and, asc, eq, max, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Db } from './db';
-import { games, gameObjects, gameSettings, objectVersions, type Collection } from './db/schema';
+import { games, gameObjects, gameSettings, objectVersions, SETTINGS_OBJECT_ID, type Collection } from './db/schema';
 import {
 	ArtAssetSchema,
 	CardKindSchema,
@@ -291,7 +291,11 @@ const storedSettings = (s: Settings) => ({
  * one (given as undefined: removed); keys not given are kept, so the rogue runner's form and the
  * race rules' form do not undo each other.
  */
-export async function saveSettings(db: Db, by: GameActor, { settings, baseVersion }: { settings: Settings; baseVersion: number | null }) {
+export async function saveSettings(
+	db: Db,
+	by: GameActor,
+	{ settings, baseVersion, restoredFrom }: { settings: Settings; baseVersion: number | null; restoredFrom?: number }
+): Promise<{ version: number }> {
 	const { gameId } = by;
 	return db.transaction(async (tx) => {
 		const [row] = await tx.select().from(gameSettings).where(eq(gameSettings.gameId, gameId)).for('update');
@@ -305,11 +309,28 @@ export async function saveSettings(db: Db, by: GameActor, { settings, baseVersio
 		} else {
 			await tx.insert(gameSettings).values({ gameId, data: merged, version: 1 });
 		}
+		// Recorded in the history like an object's save, so settings show there and can be restored.
+		await tx.insert(objectVersions).values({
+			gameId,
+			collection: 'settings',
+			objectId: SETTINGS_OBJECT_ID,
+			version: current + 1,
+			action: restoredFrom !== undefined ? 'restored' : 'saved',
+			restoredFrom: restoredFrom ?? null,
+			data: merged,
+			changedBy: by.userId
+		});
 		const game = await loadGame(tx, gameId);
 		const problems = findReferenceProblems(game).map((p) => p.message);
 		if (problems.length) throw new Invalid(problems.slice(0, 5).join('; '));
 		await touchGame(tx, gameId);
-		await logActivity(tx as unknown as Db, { teamId: by.teamId, gameId, userId: by.userId, action: 'game.settings' });
+		await logActivity(tx as unknown as Db, {
+			teamId: by.teamId,
+			gameId,
+			userId: by.userId,
+			action: restoredFrom !== undefined ? 'settings.restored' : 'game.settings'
+		});
+		return { version: current + 1 };
 	});
 }
 
@@ -317,7 +338,9 @@ export async function saveSettings(db: Db, by: GameActor, { settings, baseVersio
 export async function writeGameContent(db: Db, gameId: string, game: Game, userId: string | null) {
 	await db.transaction(async (tx) => {
 		if (game.rogueRunner || game.raceRules) {
-			await tx.insert(gameSettings).values({ gameId, data: storedSettings({ rogueRunner: game.rogueRunner, raceRules: game.raceRules }) });
+			const data = storedSettings({ rogueRunner: game.rogueRunner, raceRules: game.raceRules });
+			await tx.insert(gameSettings).values({ gameId, data });
+			await tx.insert(objectVersions).values({ gameId, collection: 'settings', objectId: SETTINGS_OBJECT_ID, version: 1, action: 'saved', data, changedBy: userId });
 		}
 		const rows = (Object.keys(COLLECTION_FIELD) as Collection[]).flatMap((collection) =>
 			(game[COLLECTION_FIELD[collection]] as { id: string; version?: number }[]).map((obj, position) => ({

@@ -6,17 +6,18 @@
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Db } from './db';
-import { objectVersions, users, type Collection } from './db/schema';
+import { gameSettings, objectVersions, users, type HistoryCollection } from './db/schema';
 import { COLLECTION_SEGMENTS, type CollectionSegment } from '$lib/schemas/collections';
-import { applyChanges, COLLECTION_FIELD, loadGame } from './game-store';
+import { applyChanges, COLLECTION_FIELD, loadGame, saveSettings, SettingsSchema } from './game-store';
 import { NotFound } from './refusals';
 import type { GameActor } from './actor';
 import { fieldChanges, objectLabel, type FieldChange } from '$lib/game/history';
 
+export type { HistoryCollection };
 
 export interface HistoryEntry {
 	id: string;
-	collection: Collection;
+	collection: HistoryCollection;
 	objectId: string;
 	label: string;
 	version: number;
@@ -30,11 +31,14 @@ export interface HistoryEntry {
 	first: boolean;
 }
 
-/** `collection` as the API's URL segment (runners, money-tables, kinds, cards, art). */
+/** The game's settings (rogue runner, race rules) as the history names them. */
+export const SETTINGS_LABEL = 'Game settings';
+
+/** `collection` as the API's URL segment (runners, money-tables, kinds, cards, art, settings). */
 export const HistoryQuerySchema = z.object({
 	collection: z
-		.enum(Object.keys(COLLECTION_SEGMENTS) as [CollectionSegment, ...CollectionSegment[]])
-		.transform((s) => COLLECTION_SEGMENTS[s])
+		.enum([...(Object.keys(COLLECTION_SEGMENTS) as CollectionSegment[]), 'settings'] as const)
+		.transform((s): HistoryCollection => (s === 'settings' ? 'settings' : COLLECTION_SEGMENTS[s]))
 		.optional(),
 	objectId: z.string().min(1).max(100).optional(),
 	limit: z.coerce.number().int().min(1).max(500).default(100)
@@ -67,7 +71,7 @@ export async function historyOf(db: Db, gameId: string, query: z.infer<typeof Hi
 			id: v.id,
 			collection: v.collection,
 			objectId: v.objectId,
-			label: objectLabel(v.data, v.objectId),
+			label: v.collection === 'settings' ? SETTINGS_LABEL : objectLabel(v.data, v.objectId),
 			version: v.version,
 			action: v.action,
 			restoredFrom: v.restoredFrom,
@@ -110,7 +114,8 @@ export async function versionOf(db: Db, gameId: string, versionId: string): Prom
 }
 
 /** The object as it is now, with its version; null when it is deleted. */
-export async function currentOf(db: Db, gameId: string, collection: Collection, objectId: string) {
+export async function currentOf(db: Db, gameId: string, collection: HistoryCollection, objectId: string) {
+	if (collection === 'settings') return settingsNow(db, gameId);
 	const game = await loadGame(db, gameId);
 	return ((game[COLLECTION_FIELD[collection]] as { id: string; version?: number }[]).find((o) => o.id === objectId) ?? null) as
 		| (Record<string, unknown> & { id: string; version?: number })
@@ -124,11 +129,28 @@ export async function currentOf(db: Db, gameId: string, collection: Collection, 
  */
 export async function restoreVersion(db: Db, actor: GameActor, seen: RestoreRequest) {
 	const row = await versionOf(db, actor.gameId, seen.versionId);
+	if (row.collection === 'settings') {
+		// Every key as it was then: one missing then is removed now.
+		const then = SettingsSchema.parse(row.data);
+		const { version } = await saveSettings(db, actor, {
+			settings: { rogueRunner: then.rogueRunner, raceRules: then.raceRules },
+			baseVersion: seen.version ?? 0,
+			restoredFrom: row.version
+		});
+		return { collection: row.collection, objectId: row.objectId, restoredFrom: row.version, version, saveWarnings: [] };
+	}
+	const collection = row.collection;
 	const object = { ...row.data, id: row.objectId };
 	const game = await applyChanges(db, actor, {
-		changes: [{ collection: row.collection, id: row.objectId, baseVersion: seen.version, object, restoredFrom: row.version }],
-		action: `${row.collection}.restored`
+		changes: [{ collection, id: row.objectId, baseVersion: seen.version, object, restoredFrom: row.version }],
+		action: `${collection}.restored`
 	});
-	const restored = (game[COLLECTION_FIELD[row.collection]] as { id: string; version?: number }[]).find((o) => o.id === row.objectId)!;
-	return { collection: row.collection, objectId: row.objectId, restoredFrom: row.version, version: restored.version!, saveWarnings: game.saveWarnings };
+	const restored = (game[COLLECTION_FIELD[collection]] as { id: string; version?: number }[]).find((o) => o.id === row.objectId)!;
+	return { collection, objectId: row.objectId, restoredFrom: row.version, version: restored.version!, saveWarnings: game.saveWarnings };
+}
+
+/** The settings as stored now, with their version (0 before the first save). */
+async function settingsNow(db: Db, gameId: string): Promise<Record<string, unknown> & { version: number }> {
+	const [row] = await db.select().from(gameSettings).where(eq(gameSettings.gameId, gameId));
+	return { ...(row?.data ?? {}), version: row?.version ?? 0 };
 }

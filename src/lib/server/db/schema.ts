@@ -202,6 +202,11 @@ export const caughtMail = pgTable('caught_mail', {
 /** The collections of a game's editable objects; each object is validated by its zod schema. */
 export const COLLECTIONS = ['runner', 'moneyTable', 'kind', 'card', 'art'] as const;
 export type Collection = (typeof COLLECTIONS)[number];
+/** What the history records: the collections, and the game's settings as one object of their own. */
+export const HISTORY_COLLECTIONS = [...COLLECTIONS, 'settings'] as const;
+export type HistoryCollection = (typeof HISTORY_COLLECTIONS)[number];
+/** The object id the game's settings are recorded under. */
+export const SETTINGS_OBJECT_ID = 'settings';
 
 /**
  * One editable object of a game (a runner, money table, card kind, card or art asset) as the
@@ -238,7 +243,7 @@ export const objectVersions = pgTable(
 		gameId: uuid('game_id')
 			.notNull()
 			.references(() => games.id, { onDelete: 'cascade' }),
-		collection: text('collection', { enum: COLLECTIONS }).notNull(),
+		collection: text('collection', { enum: HISTORY_COLLECTIONS }).notNull(),
 		objectId: text('object_id').notNull(),
 		/** The object's version this row records (for a delete: the version deleted). */
 		version: integer('version').notNull(),

@@ -13,13 +13,13 @@ export function collectionOf(segment: string): Collection {
 }
 
 /** Art is the artists' to change; everything else (the rules) only designers'. */
-export const editPermission = (c: Collection): 'art.edit' | 'game.edit' => (c === 'art' ? 'art.edit' : 'game.edit');
+export const editPermission = (c: Collection | 'settings'): 'art.edit' | 'game.edit' => (c === 'art' ? 'art.edit' : 'game.edit');
 
 export function objectIdParam(value: string): string {
 	if (!IdSchema.safeParse(value).success) throw new NotFound('No such object');
 	return value;
 }
 
-export async function requireGameEdit(db: Db, locals: App.Locals, gameId: string, c: Collection) {
+export async function requireGameEdit(db: Db, locals: App.Locals, gameId: string, c: Collection | 'settings') {
 	return requireGameRole(db, locals, gameId, editPermission(c));
 }

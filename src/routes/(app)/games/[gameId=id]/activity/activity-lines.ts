@@ -62,6 +62,8 @@ export function activityLine(entry: ActivityEntry, gameId: string, cardName: (id
 			return { text: 'created the game', group: 'data' };
 		case 'game.settings':
 			return { text: 'changed the game settings', group: 'data' };
+		case 'settings.restored':
+			return { text: 'restored an earlier version of the game settings', group: 'data' };
 		case 'art.uploaded':
 			return { text: 'uploaded art', group: 'data' };
 		case 'art.replaced':

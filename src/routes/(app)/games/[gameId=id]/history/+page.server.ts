@@ -3,18 +3,19 @@ import { requireGameRole, may } from '$lib/server/http/guard';
 import { editPermission } from '$lib/server/http/game-access';
 import { historyOf, currentOf, versionOf, restoreVersion } from '$lib/server/history';
 import { answerFor } from '$lib/server/http/answers';
-import { COLLECTION_SEGMENTS, type Collection } from '$lib/schemas/collections';
+import { COLLECTION_SEGMENTS } from '$lib/schemas/collections';
+import type { HistoryCollection } from '$lib/server/history';
 import { fieldChanges, flattenFields, objectLabel } from '$lib/game/history';
 import { isUuid } from '$lib/schemas/ids';
 import { db } from '$lib/server/runtime';
 
-const COLLECTIONS = Object.values(COLLECTION_SEGMENTS) as Collection[];
+const COLLECTIONS: HistoryCollection[] = [...Object.values(COLLECTION_SEGMENTS), 'settings'];
 
 /** "card:<id>" from ?object=, or null. */
-function objectParam(value: string | null): { collection: Collection; id: string } | null {
+function objectParam(value: string | null): { collection: HistoryCollection; id: string } | null {
 	if (!value) return null;
 	const at = value.indexOf(':');
-	const collection = value.slice(0, at) as Collection;
+	const collection = value.slice(0, at) as HistoryCollection;
 	const id = value.slice(at + 1);
 	if (at < 1 || !COLLECTIONS.includes(collection) || !id || id.length > 100) error(404, 'No such object in this game');
 	return { collection, id };
@@ -49,7 +50,7 @@ export const load = async ({ locals, params, url }) => {
 	return {
 		object: {
 			...object,
-			label: current ? objectLabel(current, object.id) : entries[0].label,
+			label: object.collection === 'settings' ? entries[0].label : current ? objectLabel(current, object.id) : entries[0].label,
 			currentVersion: current?.version ?? null,
 			kindId: object.collection === 'card' && current ? String(current.kindId ?? '') : null
 		},
