@@ -65,3 +65,23 @@ test('the card editor: a skip link passes the card rows, and the preview has wor
 	const alt = await page.locator('img[alt^="Front of"]').first().getAttribute('alt');
 	expect(alt).toMatch(/^Front of .+: .*\d/);
 });
+
+test('the proof grid, a filtered grid and a card open large pass the scan for every role that sees them', async ({ page }) => {
+	test.setTimeout(300_000);
+	const findings: string[] = [];
+	for (const role of ['owner', 'designer', 'artist', 'reviewer', 'printer'] as const) {
+		await page.context().clearCookies();
+		await signIn(page, `${role}@paddock.test`);
+		const gameId = await demoGameId(page);
+		// Printers may not read the working game's cards: they get the release page, with no grid.
+		const cardId = role === 'printer' ? 'any' : (await (await page.request.get(`/api/v1/games/${gameId}/cards`)).json()).cards[0].id;
+		const base = `/games/${gameId}/proofs/1`;
+		for (const path of [base, `${base}?state=quiet`, `${base}?card=${encodeURIComponent(cardId)}`]) {
+			await page.goto(path);
+			await settled(page);
+			if (role !== 'printer' && path.includes('card=')) await expect(page.getByTestId('card-large')).toBeVisible();
+			findings.push(...(await scan(page, `${role} ${path}`)));
+		}
+	}
+	expect(findings).toEqual([]);
+});

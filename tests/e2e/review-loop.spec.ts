@@ -66,7 +66,9 @@ test('cut, pin, reply, resolve, approve, release, print', async ({ browser }) =>
 	await hydrated(reviewer);
 	await expect(reviewer.getByTestId('threads')).toBeAttached();
 
-	// Pin at the middle of the first card's front.
+	// Open the first card large from the grid of thumbnails, then pin at the middle of its front.
+	await reviewer.getByTestId('card-thumb').first().click();
+	await expect(reviewer.getByTestId('card-large')).toBeVisible();
 	const face = reviewer.getByRole('button', { name: /^Pin a comment on the front of / }).first();
 	await face.scrollIntoViewIfNeeded();
 	const box = (await face.boundingBox())!;
@@ -94,9 +96,13 @@ test('cut, pin, reply, resolve, approve, release, print', async ({ browser }) =>
 	await expect(reviewer.getByTestId('thread').filter({ hasText: 'The runner disc crowds the step number.' })).toBeVisible();
 	await expect(reviewer.getByRole('button', { name: /^Comment 1 on the front of / })).toBeVisible();
 
-	// The designer sees it appear without reloading: the list and the pin on the card.
+	// The designer sees it appear without reloading: the list, the count on the card's thumbnail and,
+	// opening the card from the thread, the pin on the card.
 	const thread = designer.getByTestId('thread').filter({ hasText: 'The runner disc crowds the step number.' });
 	await expect(thread).toBeVisible({ timeout: 15_000 });
+	await expect(designer.getByTestId('card-thumb').first()).toContainText('1 open');
+	await thread.getByRole('button', { name: /./ }).first().click();
+	await expect(designer.getByTestId('card-large')).toBeVisible();
 	await expect(designer.getByRole('button', { name: /^Comment 1 on the front of / })).toBeVisible();
 	expect(await designer.evaluate(() => (window as unknown as { stayed?: string }).stayed)).toBe('yes');
 

@@ -1,5 +1,8 @@
 /** The shapes the proof pages read: cards with their face box, and comments and verdicts as the API sends them. */
 
+import type { ChangePart } from '$lib/game/compare';
+import type { FieldChange } from '$lib/game/history';
+
 export type Side = 'front' | 'back';
 
 export interface ProofCard {
@@ -7,6 +10,8 @@ export interface ProofCard {
 	name: string;
 	kindId: string;
 	kindName: string;
+	/** Its key values in one line ("Runner Rosehip · Steps 3"), for text alternatives. */
+	summary: string;
 	copies: number;
 	trimWidthMm: number;
 	trimHeightMm: number;
@@ -75,4 +80,11 @@ export interface GameRef {
 	id: string;
 	name: string;
 	teamId: string;
+}
+
+/** How a card differs from the same card in the previous proof (absent: unchanged). */
+export interface CardChangeMark {
+	status: 'added' | 'changed';
+	parts: ChangePart[];
+	fields: FieldChange[];
 }

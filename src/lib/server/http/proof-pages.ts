@@ -8,6 +8,9 @@ import type { Db } from '$lib/server/db';
 import { bleedMm, safeMm, type Game } from '$lib/game/model';
 import type { ProofCard } from '$lib/components/proofs/types';
 import { refusedPage } from './answers';
+import { cardSummary } from '$lib/game/card-rows';
+import { compareGames, type ProofComparison } from '$lib/game/compare';
+import type { CardChangeMark } from '$lib/components/proofs/types';
 
 export async function proofForPage(db: Db, locals: App.Locals, gameId: string, key: string, permission: Permission = 'release.read') {
 	try {
@@ -20,6 +23,7 @@ export async function proofForPage(db: Db, locals: App.Locals, gameId: string, k
 /** Each card with its face box: trim plus bleed on every side, the box face.svg draws in mm. */
 export function cardsOf(game: Game): ProofCard[] {
 	const kinds = new Map(game.kinds.map((k) => [k.id, k]));
+	const ctx = { runners: game.runners, rogue: game.rogueRunner, moneyTables: game.moneyTables };
 	return game.cards.flatMap((c) => {
 		const kind = kinds.get(c.kindId);
 		if (!kind) return [];
@@ -30,6 +34,7 @@ export function cardsOf(game: Game): ProofCard[] {
 				name: c.name,
 				kindId: kind.id,
 				kindName: kind.name,
+				summary: cardSummary(c, kind, ctx),
 				copies: c.copies,
 				trimWidthMm: kind.size.widthMm,
 				trimHeightMm: kind.size.heightMm,
@@ -43,3 +48,12 @@ export function cardsOf(game: Game): ProofCard[] {
 }
 
 export const kindsOf = (cards: ProofCard[]) => [...new Map(cards.map((c) => [c.kindId, { id: c.kindId, name: c.kindName }])).values()];
+
+/** Per card, how it differs from the same card in an earlier snapshot: new, or which fields changed. */
+export function changesSince(before: Game, after: Game): Record<string, CardChangeMark> {
+	const comparison: ProofComparison = compareGames(before, after);
+	return Object.fromEntries([
+		...comparison.added.map((a) => [a.cardId, { status: 'added', parts: [], fields: [] }] as const),
+		...comparison.changed.map((c) => [c.cardId, { status: 'changed', parts: c.parts, fields: c.fields }] as const)
+	]);
+}

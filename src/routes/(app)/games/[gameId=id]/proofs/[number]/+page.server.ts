@@ -1,8 +1,8 @@
 import { requireGameRole, may } from '$lib/server/http/guard';
-import { isMuted, snapshotOf, isReleased, withdrawnRelease } from '$lib/server/proofs';
+import { isMuted, snapshotOf, isReleased, withdrawnRelease, proofsOf } from '$lib/server/proofs';
 import { userName } from '$lib/server/users';
 import { db } from '$lib/server/runtime';
-import { proofForPage, cardsOf, kindsOf } from '$lib/server/http/proof-pages';
+import { proofForPage, cardsOf, kindsOf, changesSince } from '$lib/server/http/proof-pages';
 import { pricesAtProof } from '$lib/server/odds';
 
 /**
@@ -38,11 +38,14 @@ export const load = async ({ locals, params }) => {
 	};
 	const muted = await isMuted(d, user.id, params.gameId);
 	if (role === 'printer') return { view: 'release' as const, proof: header, cards, muted };
+	// The proof cut just before this one (withdrawn or not): what "changed since the last proof" compares with.
+	const previous = (await proofsOf(d, params.gameId, false)).find((p) => p.number < proof.number);
 	return {
 		view: 'viewer' as const,
 		proof: header,
 		cards,
 		kinds: kindsOf(cards),
+		previous: previous ? { number: previous.number, changes: changesSince(snapshotOf(previous), snapshot) } : null,
 		readiness: proof.readiness,
 		// Streamed: the page shows the proof at once and the prices when the races are done.
 		wagerPrices: pricesAtProof(proof.id, snapshot),
