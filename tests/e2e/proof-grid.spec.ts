@@ -92,7 +92,7 @@ test('proof grid: filters, a card large with pins, arrow keys, a shareable link,
 		await page.getByLabel('Review').selectOption('');
 
 		// Kind: the count in each option is what the filter would leave.
-		const kindSelect = page.getByLabel('Kind', { exact: true }).first();
+		const kindSelect = page.getByTestId('card-filters').locator('select').first();
 		const kindOption = kindSelect.locator('option').nth(1);
 		const kindCount = Number((await kindOption.textContent())!.match(/\((\d+)\)/)![1]);
 		await kindSelect.selectOption({ index: 1 });
