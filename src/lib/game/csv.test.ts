@@ -94,6 +94,13 @@ describe('csv import errors', () => {
 		const result = importCardsCsv('name,copies,runner,steps\n"A,1,Rosehip,1\n', k, ctx);
 		expect(result.ok).toBe(false);
 		expect(result.errors[0].line).toBe(2);
+		expect(result.errors[0].message).toMatch(/never closed/);
+	});
+	it('says in plain words what is wrong with a stray quote mark, not the reader’s own wording', () => {
+		const result = importCardsCsv('name,copies,runner,steps\n"A"x,1,Rosehip,1\n', k, ctx);
+		expect(result.ok).toBe(false);
+		expect(result.errors[0].message).toMatch(/more text after its closing quote mark/);
+		expect(result.errors.map((e) => e.message).join(' ')).not.toMatch(/malformed|unterminated|CSV:/);
 	});
 	it('refuses an empty file and a header with no rows', () => {
 		expect(importCardsCsv('', k, ctx).ok).toBe(false);

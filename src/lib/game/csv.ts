@@ -141,6 +141,13 @@ function lineCounter(text: string) {
 	};
 }
 
+/** The reader's complaints in words a spreadsheet user can act on (its own wording names its internals). */
+function quoteProblem(code: string): string {
+	if (code === 'MissingQuotes') return 'A value opens with a quote mark (") that is never closed: close it, or remove it';
+	if (code === 'InvalidQuotes') return 'A quoted value has more text after its closing quote mark ("): put the whole value inside the quotes, and write a quote mark inside a value as two ("")';
+	return 'This line cannot be read as CSV: check its commas and quote marks';
+}
+
 /** Reads a kind's data rows. Any error anywhere means `rows` is empty. */
 export function importCardsCsv(text: string, kind: CardKind, ctx: CsvContext): CsvImport {
 	const errors: CsvError[] = [];
@@ -156,7 +163,7 @@ export function importCardsCsv(text: string, kind: CardKind, ctx: CsvContext): C
 		step: (result) => {
 			const line = lineAt(cursor);
 			cursor = result.meta.cursor;
-			for (const e of result.errors) errors.push({ line, message: `CSV: ${e.message}` });
+			for (const e of result.errors) errors.push({ line, message: quoteProblem(e.code) });
 			records.push({ line, cells: result.data });
 		}
 	});

@@ -20,6 +20,8 @@ describe('plain validation messages', () => {
 		expect(messages(z.string().max(3), 'abcd')).toEqual(['Keep it to 3 characters or fewer.']);
 		expect(messages(z.email(), 'nobody')).toEqual(['Enter an e-mail address, such as name@example.com.']);
 		expect(messages(z.array(z.number()).min(1), [])).toEqual(['Add at least one.']);
+		// A JSON body's number where text belongs is told to quote it, not to "enter some text".
+		expect(messages(z.string().optional(), 1)).toEqual(['Give this as text, in quotes.']);
 		// A schema's own message still wins.
 		expect(messages(z.string().min(1, 'Name the table'), '')).toEqual(['Name the table']);
 	});

@@ -34,7 +34,8 @@ export function plainMessage(issue: $ZodRawIssue): string | undefined {
 				return issue.expected === 'number' || issue.expected === 'int' ? 'Enter a number.' : 'Fill this in.';
 			if (issue.expected === 'int') return 'Enter a whole number.';
 			if (issue.expected === 'number') return 'Enter a number.';
-			if (issue.expected === 'string') return 'Enter some text.';
+			// Only a JSON body can send a number or a list where text belongs.
+			if (issue.expected === 'string') return 'Give this as text, in quotes.';
 			if (issue.expected === 'boolean') return 'Choose yes or no.';
 			if (issue.expected === 'array') return 'Give a list here.';
 			return 'This value is of the wrong sort for this field.';
