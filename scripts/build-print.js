@@ -1,7 +1,11 @@
 // Part of `npm run build`: the print worker, the odds worker and the print CLI compiled to plain JavaScript
-// (esbuild), so neither needs a TypeScript loader at run time. The workers leave packages in node_modules;
-// the CLI, started anew for every file, carries its plain-JavaScript packages inside (one file to load
-// instead of hundreds) and loads the rest (WebAssembly, fontkit) from node_modules only when it uses them.
+// (esbuild), so neither needs a TypeScript loader at run time. The workers leave packages in node_modules.
+// The CLI, started anew for every file, carries its plain-JavaScript packages inside (one file to load
+// instead of hundreds; build/print.cjs) and loads the rest (WebAssembly, fontkit) from node_modules only
+// when it uses them. build/print.js starts it from a V8 code cache (see LAUNCHER).
+import { createHash } from 'node:crypto';
+import { readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { build } from 'esbuild';
 
 /** Packages the CLI loads from node_modules: WebAssembly beside their JavaScript, or loaded lazily. */
@@ -27,15 +31,62 @@ export async function buildPrint({ quiet = false } = {}) {
 		build({
 			...common,
 			entryPoints: ['scripts/print.ts'],
-			outfile: 'build/print.js',
+			outfile: 'build/print.cjs',
+			// CommonJS: V8 code caches are made for scripts (node:vm), not for ES modules.
+			format: 'cjs',
 			packages: undefined,
 			external: CLI_EXTERNAL,
 			// ES module builds where a package has one, so unused parts can be left out.
 			mainFields: ['module', 'main'],
-			// Bundled CommonJS code may require Node's own modules.
-			banner: { js: "import { createRequire as __paddockRequire } from 'node:module';\nconst require = __paddockRequire(import.meta.url);" }
-		})
+			define: { 'import.meta.url': '__paddockUrl' },
+			banner: { js: "const __paddockUrl = require('node:url').pathToFileURL(__filename).href;" }
+		}).then(writeLauncher)
 	]);
 }
+
+/**
+ * build/print.js: runs build/print.cjs from a V8 code cache kept beside it, made by its first run
+ * (compiling the bundle was a third of a repeat run). The cache is named by the bundle's hash, so a
+ * rebuilt CLI never meets an old cache (V8 itself only checks the source's length); V8 refuses a
+ * cache from another Node version, and the launcher then makes a new one.
+ */
+function writeLauncher() {
+	const dir = join(root, 'build');
+	const hash = createHash('sha256').update(readFileSync(join(dir, 'print.cjs'))).digest('hex').slice(0, 16);
+	for (const f of readdirSync(dir)) if (/^print-[0-9a-f]+\.v8cache/.test(f)) rmSync(join(dir, f), { force: true });
+	writeFileSync(join(dir, 'print.js'), LAUNCHER.replace('@HASH@', hash));
+}
+
+const LAUNCHER = `// The print CLI (scripts/print.ts), compiled to ./print.cjs by scripts/build-print.js, run from a
+// V8 code cache made by its first run. Delete the .v8cache file at will: the next run makes it again.
+import { readFileSync, renameSync, writeFileSync } from 'node:fs';
+import Module, { createRequire } from 'node:module';
+import { dirname } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import vm from 'node:vm';
+
+const file = fileURLToPath(new URL('./print.cjs', import.meta.url));
+const cacheFile = fileURLToPath(new URL('./print-@HASH@.v8cache', import.meta.url));
+let cachedData;
+try {
+	cachedData = readFileSync(cacheFile);
+} catch {
+	// None yet.
+}
+const script = new vm.Script(Module.wrap(readFileSync(file, 'utf8')), { filename: file, cachedData });
+if (!cachedData || script.cachedDataRejected)
+	process.once('exit', () => {
+		try {
+			// After the run: the functions it compiled go into the cache too.
+			writeFileSync(cacheFile + '.' + process.pid, script.createCachedData());
+			renameSync(cacheFile + '.' + process.pid, cacheFile);
+		} catch {
+			// A read-only build directory: the CLI runs without the cache.
+		}
+	});
+const module = new Module(file);
+module.filename = file;
+script.runInThisContext()(module.exports, createRequire(file), module, file, dirname(file));
+`;
 
 if (import.meta.url === `file://${process.argv[1]}`) await buildPrint();

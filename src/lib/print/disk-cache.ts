@@ -222,7 +222,12 @@ export const fontRecordsIn = (disk: PrintDiskCache): FontRecordStore => ({
 });
 
 /** The font files, for keys of what depends on them (layouts measure with them, forms name their glyph ids). */
-export const fontsKey = (fonts: FontFiles) => createHash('sha256').update(fonts.regular.ttf).update(fonts.bold.ttf).digest('hex').slice(0, 20);
+export function fontsKey(fonts: FontFiles): string {
+	let key = fontKeys.get(fonts);
+	if (!key) fontKeys.set(fonts, (key = createHash('sha256').update(fonts.regular.ttf).update(fonts.bold.ttf).digest('hex').slice(0, 20)));
+	return key;
+}
+const fontKeys = new WeakMap<FontFiles, string>();
 const formKey = (faceKey: string, colour: ColourMode, fonts: FontFiles) => `${faceKey}|${colour}|${fontsKey(fonts)}`;
 
 /**

@@ -35,7 +35,8 @@ let loading: Promise<FontSet> | undefined;
  */
 export function loadFontFiles(): Promise<FontFiles> {
 	reading ??= (async () => {
-		const { default: wawoff } = await import('wawoff2');
+		// Required, not imported: the compiled CLI runs from a V8 code cache, where import() is not available.
+		const wawoff = require('wawoff2') as typeof import('wawoff2').default;
 		// One at a time: wawoff2 returns a view into its wasm heap, which the next call overwrites,
 		// so each result is copied before the next decompression starts.
 		const one = async (weight: FontWeight): Promise<FontFile> => {
@@ -52,7 +53,8 @@ export function loadFontFiles(): Promise<FontFiles> {
 /** Both weights with their metrics, loaded once per process. */
 export function loadFonts(): Promise<FontSet> {
 	loading ??= (async () => {
-		const [files, { default: fontkit }] = await Promise.all([loadFontFiles(), import('@pdf-lib/fontkit')]);
+		const files = await loadFontFiles();
+		const fontkit = require('@pdf-lib/fontkit') as typeof import('@pdf-lib/fontkit');
 		const withMetrics = (f: FontFile): LoadedFont => ({ ...f, metrics: fontkit.create(Buffer.from(f.ttf)) });
 		return { regular: withMetrics(files.regular), bold: withMetrics(files.bold) };
 	})();

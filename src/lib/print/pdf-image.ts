@@ -6,6 +6,7 @@
  * mask (§11.6.5.3) only when the picture has transparency. This is smaller and much faster
  * than a general-purpose embedder that re-packs every PNG the same way.
  */
+import { createRequire } from 'node:module';
 import { deflateSync, inflateSync } from 'node:zlib';
 import { PDFDocument, PDFName, PDFRef } from 'pdf-lib';
 import type { ImageAsset } from './display-list';
@@ -233,7 +234,8 @@ function concat(parts: Uint8Array[]): Uint8Array {
 
 /** Interlaced PNGs are rare in artwork; they go through jimp, which is slower but complete. */
 async function decodePngSlowly(bytes: Uint8Array): Promise<DecodedPng> {
-	const { Jimp } = await import('jimp');
+	// Required, not imported: the compiled CLI runs from a V8 code cache, where import() is not available.
+	const { Jimp } = createRequire(import.meta.url)('jimp') as typeof import('jimp');
 	const image = await Jimp.read(Buffer.from(bytes));
 	const { width, height, data } = image.bitmap;
 	const colour = new Uint8Array(width * height * 3);
