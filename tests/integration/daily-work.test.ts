@@ -28,8 +28,8 @@ const ev = (who: keyof World['callers'], call: Parameters<typeof fakeEvent>[1]) 
 
 describe("a released proof's print preview", () => {
 	it('links art through the proof, and the printer can fetch every linked file', async () => {
-		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'for the printer' });
-		await releaseProof(w.db, p, designer());
+		const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'for the printer' });
+		await releaseProof(w.db, actorIn(w, 'designer'), { proof: p });
 		const game = await loadGame(w.db, w.gameId);
 		// The kinds whose faces carry art (runner portraits reach movement cards).
 		const kinds = game.kinds.map((k) => k.id).join(',');
@@ -46,7 +46,7 @@ describe("a released proof's print preview", () => {
 	});
 
 	it('refuses art the proof does not hold', async () => {
-		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'no such art' });
+		const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'no such art' });
 		const res = await proofArt.GET(ev('designer', { params: { gameId: w.gameId, proofId: p.id, sha256: 'a'.repeat(64) } }));
 		expect(res.status).toBe(404);
 	});
@@ -106,7 +106,7 @@ describe('new-runner defaults', () => {
 describe('the readiness list', () => {
 	it('never blocks a proof, and the proof records it', async () => {
 		// Earlier tests left a runner without wager cards and a table one place short.
-		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'with warnings' });
+		const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'with warnings' });
 		const codes = p.readiness.map((r) => r.code);
 		expect(codes).toEqual(expect.arrayContaining(['no-wager', 'table-gap']));
 	});

@@ -67,7 +67,7 @@ describe('working faces', () => {
 describe('proof faces', () => {
 	it('are immutable and revalidate to 304', async () => {
 		const game = await loadGame(w.db, w.gameId);
-		const proof = await cutProof(w.db, { gameId: w.gameId, userId: w.callers.designer!.id, userName: 'Dara', description: 'cache test' });
+		const proof = await cutProof(w.db, actorIn(w, 'designer'), { description: 'cache test' });
 		const params = { gameId: w.gameId, proofId: proof.id, cardId: game.cards[0].id };
 		const first = await proofFace.GET(ev({ params }));
 		expect(first.status).toBe(200);

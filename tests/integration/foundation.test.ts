@@ -4,7 +4,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { count, eq } from 'drizzle-orm';
-import { openWorld, fakeEvent, statusOf, type World } from './harness';
+import { openWorld, fakeEvent, statusOf, type World, actorIn } from './harness';
 import { acceptInvitation, changeRole, invite, removeMember } from '$lib/server/teams';
 import { NotFound } from '$lib/server/refusals';
 import { invitations, users, games, caughtMail, memberships } from '$lib/server/db/schema';
@@ -54,7 +54,7 @@ describe('invitations', () => {
 	});
 
 	it('an expired invitation is refused with a clear message', async () => {
-		const { invitation, token } = await invite(w.db, { teamId: w.teamId, invitedBy: w.callers.owner!.id, email: 'late@x.test', role: 'reviewer' });
+		const { invitation, token } = await invite(w.db, actorIn(w, 'owner'), { email: 'late@x.test', role: 'reviewer' });
 		await w.db.update(invitations).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(invitations.id, invitation.id));
 		const late = await createUser(w.db, { email: 'late@x.test', name: 'Late', password: 'too-late-again' });
 		await expect(acceptInvitation(w.db, token, late)).rejects.toThrow(/expired/);
@@ -62,7 +62,7 @@ describe('invitations', () => {
 
 	it('an unknown token and the wrong account are refused', async () => {
 		await expect(acceptInvitation(w.db, 'inv_nonsense', w.callers.artist!)).rejects.toBeInstanceOf(NotFound);
-		const { token } = await invite(w.db, { teamId: w.teamId, invitedBy: w.callers.owner!.id, email: 'someone@x.test', role: 'reviewer' });
+		const { token } = await invite(w.db, actorIn(w, 'owner'), { email: 'someone@x.test', role: 'reviewer' });
 		await expect(acceptInvitation(w.db, token, w.callers.outsider!)).rejects.toThrow(/sent to someone@x.test/);
 	});
 
@@ -78,8 +78,8 @@ describe('invitations', () => {
 
 describe('the last owner', () => {
 	it('cannot be demoted or removed', async () => {
-		await expect(changeRole(w.db, w.teamId, w.callers.owner!.id, 'designer', w.callers.owner!.id)).rejects.toThrow(/at least one owner/);
-		await expect(removeMember(w.db, w.teamId, w.callers.owner!.id, w.callers.owner!.id)).rejects.toThrow(/last owner/);
+		await expect(changeRole(w.db, actorIn(w, 'owner'), { userId: w.callers.owner!.id, role: 'designer' })).rejects.toThrow(/at least one owner/);
+		await expect(removeMember(w.db, actorIn(w, 'owner'), { userId: w.callers.owner!.id })).rejects.toThrow(/last owner/);
 	});
 });
 

@@ -109,8 +109,8 @@ describe('deleting a game', () => {
 		const own = uploaded.game.art.find((a) => a.fileName === 'only-in-copy.png')!.sha256;
 		const shared = (await loadGame(w.db, w.gameId)).art[0].sha256;
 		expect(await storage().has(artKey(own))).toBe(true);
-		const p = await cutProof(w.db, { gameId: copyId, userId: w.callers.designer!.id, userName: 'Dara', description: 'to be deleted' });
-		await releaseProof(w.db, p, { id: w.callers.designer!.id, name: 'Dara' });
+		const p = await cutProof(w.db, actorIn(w, 'designer', copyId), { description: 'to be deleted' });
+		await releaseProof(w.db, actorIn(w, 'designer'), { proof: p });
 
 		const res = await gameApi.DELETE(ev('owner', { method: 'DELETE', params: { gameId: copyId }, path: `/?confirm=${encodeURIComponent(body.game.name)}` }));
 		expect(res.status).toBe(200);

@@ -81,6 +81,31 @@ describe('layers', () => {
 		expect(requestShaped.map(rel)).toEqual([]);
 	});
 
+	it('services that act for someone take (db, actor, data)', () => {
+		const server = join(SRC, 'lib', 'server');
+		const services = filesUnder(server, (f) => f.endsWith('.ts')).filter((f) => dirname(f) === server && !isTest(f));
+		// A write on someone's behalf leaves a line in the activity log; these do, yet act for nobody
+		// signed in (seeding, sign-up, a queued build) or take the person in a shape of their own.
+		const ACTING_FOR_NOBODY = new Set(['logActivity', 'createGame', 'createGameFrom', 'importBundle', 'createTeam', 'acceptInvitation', 'writeGameContent', 'logDownload']);
+		const ACTOR = /^\w+\??: (Actor|TeamActor|GameActor)$/;
+		const offenders: string[] = [];
+		let checked = 0;
+		for (const file of services) {
+			const text = readFileSync(file, 'utf8');
+			for (const m of text.matchAll(/export async function (\w+)(?:<[^>]*>)?\(/g)) {
+				const params = parameters(text, m.index! + m[0].length - 1);
+				const end = text.indexOf('\n}\n', m.index!);
+				const writes = text.slice(m.index!, end).includes('logActivity(') || ['applyChanges', 'saveSettings', 'uploadArt', 'placeArt', 'restoreVersion', 'createApiToken', 'revokeApiToken', 'setMuted', 'addComment', 'resolveComment', 'giveVerdict', 'releaseProof', 'withdrawProof', 'saveScenario', 'runOdds', 'cancelOddsJob'].includes(m[1]);
+				if (!writes || ACTING_FOR_NOBODY.has(m[1])) continue;
+				checked++;
+				const ok = params.length >= 2 && params.length <= 3 && /^\w+: Db$/.test(params[0]) && ACTOR.test(params[1]);
+				if (!ok) offenders.push(`${rel(file)}: ${m[1]}(${params.join(', ')})`);
+			}
+		}
+		expect(checked).toBeGreaterThan(20);
+		expect(offenders).toEqual([]);
+	});
+
 	it('no engine folder imports itself in a circle', () => {
 		for (const engine of ENGINES) {
 			const files = filesUnder(join(SRC, 'lib', engine), (f) => f.endsWith('.ts') && !isTest(f));
@@ -112,3 +137,25 @@ describe('layers', () => {
 		}
 	});
 });
+
+/** The parameters of the function whose opening parenthesis stands at `open`, split at top-level commas. */
+function parameters(text: string, open: number): string[] {
+	const out: string[] = [];
+	let depth = 0;
+	let start = open + 1;
+	for (let i = open; i < text.length; i++) {
+		const c = text[i];
+		if ('([{<'.includes(c)) depth++;
+		else if (')]}>'.includes(c) && text[i - 1] !== '=') {
+			depth--;
+			if (depth === 0) {
+				out.push(text.slice(start, i));
+				break;
+			}
+		} else if (c === ',' && depth === 1) {
+			out.push(text.slice(start, i));
+			start = i + 1;
+		}
+	}
+	return out.map((p) => p.replace(/\s+/g, ' ').trim()).filter(Boolean);
+}

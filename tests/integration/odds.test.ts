@@ -102,8 +102,8 @@ describe('POST /api/v1/games/{gameId}/odds', () => {
 		const id = body.job.id;
 		const designer = w.callers.designer!.id;
 		await expect(oddsJobView(w.db, w.callers.reviewer!.id, id)).rejects.toMatchObject({ reason: 'not-found' });
-		await expect(cancelOddsJob(w.db, w.callers.owner!.id, id)).rejects.toMatchObject({ reason: 'not-found' });
-		const cancelled = await cancelOddsJob(w.db, designer, id);
+		await expect(cancelOddsJob(w.db, actorIn(w, 'owner'), { id })).rejects.toMatchObject({ reason: 'not-found' });
+		const cancelled = await cancelOddsJob(w.db, actorIn(w, 'designer'), { id });
 		expect(cancelled.state).toBe('cancelled');
 		// It stays cancelled: the worker notices and never writes an answer.
 		await new Promise((r) => setTimeout(r, 1500));
@@ -159,7 +159,7 @@ describe('saved scenarios', () => {
 
 describe('prices at a proof', () => {
 	it('prices every wager card of the snapshot, the same each time', async () => {
-		const proof = await cutProof(w.db, { gameId: w.gameId, userId: w.callers.designer!.id, userName: 'Dara', description: 'priced' });
+		const proof = await cutProof(w.db, actorIn(w, 'designer'), { description: 'priced' });
 		const snapshot = snapshotOf(proof);
 		const prices = await pricesAtProof(proof.id, snapshot);
 		expect(prices!.wagers).toHaveLength(snapshot.cards.filter((c) => c.data.type === 'wager').length);

@@ -4,7 +4,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openWorld, statusOf, type World } from './harness';
+import { openWorld, statusOf, type World, actorIn } from './harness';
 import { as, g, game } from './role-table';
 import { cutProof, releaseProof } from '$lib/server/proofs';
 import { saveProfile, setPressProfile, findProfile } from '$lib/server/printer-profiles';
@@ -24,8 +24,8 @@ let setupKind: string;
 beforeAll(async () => {
 	w = await openWorld();
 	const designer = w.callers.designer!;
-	const p = await cutProof(w.db, { gameId: w.gameId, userId: designer.id, userName: designer.name, description: 'for the press' });
-	proofId = (await releaseProof(w.db, p, { id: designer.id, name: designer.name })).id;
+	const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'for the press' });
+	proofId = (await releaseProof(w.db, actorIn(w, 'designer'), { proof: p })).id;
 	const gm = await game(w);
 	cardId = gm.cards[0].id;
 	setupKind = gm.kinds.find((k) => k.type === 'setup')!.id;
@@ -69,15 +69,15 @@ describe('PDF/X routes', () => {
 
 	it("a printer's own profile: checked on upload, then named by profile= in the output intent", async () => {
 		const printer = w.callers.printer!;
-		const profile = await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'Shop on coated', output: 'pdfx4' }, printer.id);
+		const profile = await saveProfile(w.db, actorIn(w, 'printer'), { ...DEFAULT_PROFILE, name: 'Shop on coated', output: 'pdfx4' });
 		// Not an ICC profile; an RGB display profile: refused, nothing stored.
-		await expect(setPressProfile(w.db, w.teamId, profile.id, new Uint8Array(500), { conditionIdentifier: 'X', condition: '', registryName: '', totalInkLimitPct: 300 }, printer.id)).rejects.toThrow(/not an ICC profile|too short/);
+		await expect(setPressProfile(w.db, actorIn(w, 'printer'), { id: profile.id, icc: new Uint8Array(500), condition: { conditionIdentifier: 'X', condition: '', registryName: '', totalInkLimitPct: 300 } })).rejects.toThrow(/not an ICC profile|too short/);
 		const srgb = new Uint8Array(readFileSync('/usr/share/color/icc/sRGB.icc'));
-		await expect(setPressProfile(w.db, w.teamId, profile.id, srgb, { conditionIdentifier: 'X', condition: '', registryName: '', totalInkLimitPct: 300 }, printer.id)).rejects.toThrow(/display profile|RGB/);
+		await expect(setPressProfile(w.db, actorIn(w, 'printer'), { id: profile.id, icc: srgb, condition: { conditionIdentifier: 'X', condition: '', registryName: '', totalInkLimitPct: 300 } })).rejects.toThrow(/display profile|RGB/);
 		expect((await findProfile(w.db, w.teamId, profile.id)).press.custom).toBe(false);
 
 		const icc = new Uint8Array(readFileSync(BUILTIN_PRESS_PROFILE_FILE));
-		const saved = await setPressProfile(w.db, w.teamId, profile.id, icc, { conditionIdentifier: 'SHOP-COATED-1', condition: 'The shop’s own coated stock', registryName: '', totalInkLimitPct: 310 }, printer.id);
+		const saved = await setPressProfile(w.db, actorIn(w, 'printer'), { id: profile.id, icc: icc, condition: { conditionIdentifier: 'SHOP-COATED-1', condition: 'The shop’s own coated stock', registryName: '', totalInkLimitPct: 310 } });
 		expect(saved.press).toMatchObject({ custom: true, conditionIdentifier: 'SHOP-COATED-1', totalInkLimitPct: 310 });
 		const res = await proofPress.GET(as(w, 'printer', { params: g(w, { proofId, cardId }), path: `/?output=pdfx4&profile=${profile.id}` }));
 		const r = checkPdfx(await bytesOf(res));

@@ -5,7 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openWorld, type World } from './harness';
+import { openWorld, type World, actorIn } from './harness';
 import { as, g, game } from './role-table';
 import { cutProof, releaseProof } from '$lib/server/proofs';
 import { saveProfile, setPressProfile } from '$lib/server/printer-profiles';
@@ -25,11 +25,11 @@ beforeAll(async () => {
 	w = await openWorld();
 	cardId = (await game(w)).cards[0].id;
 	const designer = w.callers.designer!;
-	const shop = await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'Corner shop', output: 'pdfx4' }, designer.id);
+	const shop = await saveProfile(w.db, actorIn(w, 'designer'), { ...DEFAULT_PROFILE, name: 'Corner shop', output: 'pdfx4' });
 	const icc = new Uint8Array(readFileSync(BUILTIN_PRESS_PROFILE_FILE));
-	await setPressProfile(w.db, w.teamId, shop.id, icc, { conditionIdentifier: 'CORNER-COATED', condition: 'The corner shop’s coated stock', registryName: '', totalInkLimitPct: 320 }, designer.id);
+	await setPressProfile(w.db, actorIn(w, 'designer'), { id: shop.id, icc: icc, condition: { conditionIdentifier: 'CORNER-COATED', condition: 'The corner shop’s coated stock', registryName: '', totalInkLimitPct: 320 } });
 	shopId = shop.id;
-	plainId = (await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'Built-in press' }, designer.id)).id;
+	plainId = (await saveProfile(w.db, actorIn(w, 'designer'), { ...DEFAULT_PROFILE, name: 'Built-in press' })).id;
 });
 afterAll(async () => w?.close());
 
@@ -57,8 +57,8 @@ describe('the game’s default press profile', () => {
 
 		expect(await conditionOf(await gamePress.GET(as(w, 'designer', { params: g(w, { cardId }), path: '/?output=pdfx4' })))).toBe('CORNER-COATED');
 		const d = w.callers.designer!;
-		const p = await cutProof(w.db, { gameId: w.gameId, userId: d.id, userName: d.name, description: 'default press' });
-		const proofId = (await releaseProof(w.db, p, { id: d.id, name: d.name })).id;
+		const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'default press' });
+		const proofId = (await releaseProof(w.db, actorIn(w, 'designer'), { proof: p })).id;
 		expect(await conditionOf(await proofPress.GET(as(w, 'printer', { params: g(w, { proofId, cardId }), path: '/?output=pdfx4' })))).toBe('CORNER-COATED');
 		expect(await conditionOf(await gamePress.GET(as(w, 'designer', { params: g(w, { cardId }), path: `/?output=pdfx4&profile=${plainId}` })))).toBe('FOGRA39');
 	});
@@ -80,7 +80,7 @@ describe('the game’s default press profile', () => {
 
 	it('a deleted printer profile leaves the game on the built-in profile', async () => {
 		const { deleteProfile } = await import('$lib/server/printer-profiles');
-		await deleteProfile(w.db, w.teamId, shopId, w.callers.designer!.id);
+		await deleteProfile(w.db, actorIn(w, 'designer'), { id: shopId });
 		const page = await settingsPage.load(as(w, 'designer', { params: g(w) }));
 		expect(page.pressProfileId).toBeNull();
 		expect(page.press.conditionIdentifier).toBe('FOGRA39');

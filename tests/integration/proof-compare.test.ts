@@ -14,7 +14,7 @@ afterAll(async () => w?.close());
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 const ev = (who: Who, path: string) => fakeEvent(w.callers[who], { params: { gameId: w.gameId }, path }) as any;
-const cut = () => cutProof(w.db, { gameId: w.gameId, userId: w.callers.designer!.id, userName: 'Dara', description: 'compare' });
+const cut = () => cutProof(w.db, actorIn(w, 'designer'), { description: 'compare' });
 
 describe('comparing two proofs inside a card', () => {
 	it('names the changed field and marks the changed pixels; an unchanged card differs by none', async () => {

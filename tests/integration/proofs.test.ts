@@ -44,7 +44,7 @@ async function mailTo(email: string) {
 
 describe('proofs', () => {
 	it('freeze the game: later edits change neither the faces of proof 1 nor what it holds', async () => {
-		const p1 = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'first round' });
+		const p1 = await cutProof(w.db, actorIn(w, 'designer'), { description: 'first round' });
 		const game = await loadGame(w.db, w.gameId);
 		const wager = game.cards.find((c) => c.data.type === 'wager')!;
 		const table = game.moneyTables.find((t) => wager.data.type === 'wager' && t.id === wager.data.moneyTableId)!;
@@ -57,7 +57,7 @@ describe('proofs', () => {
 			{ collection: 'card', id: movement.id, baseVersion: movement.version!, object: { ...movement, name: `${movement.name} (new)` } },
 			{ collection: 'moneyTable', id: table.id, baseVersion: table.version!, object: { ...table, rows: table.rows.map((r) => ({ ...r, coins: r.coins + 2 })) } }
 		], action: 'test' });
-		const p2 = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'second round' });
+		const p2 = await cutProof(w.db, actorIn(w, 'designer'), { description: 'second round' });
 
 		expect(await faceText(p1.id, wager.id)).toBe(before);
 		// Byte for byte: the proof's PDF is built from its snapshot, dated by the proof.
@@ -73,14 +73,14 @@ describe('proofs', () => {
 	});
 
 	it('tell reviewers a proof is ready, printers of a release, and not those who muted the game', async () => {
-		await setMuted(w.db, w.callers.artist!.id, w.gameId, true);
-		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'mail round' });
+		await setMuted(w.db, actorIn(w, 'artist'), { muted: true });
+		const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'mail round' });
 		const ready = await mailTo('reviewer@paddock.test');
 		expect(ready.some((m) => m.subject.includes(`Proof ${p.number}`) && m.text.includes(`/proofs/${p.number}`))).toBe(true);
-		await releaseProof(w.db, p, designer());
+		await releaseProof(w.db, actorIn(w, 'designer'), { proof: p });
 		const printer = await mailTo('printer@paddock.test');
 		expect(printer.some((m) => m.subject.includes('released for printing'))).toBe(true);
-		await addComment(w.db, p, { id: w.callers.reviewer!.id, name: 'Rue' }, { cardId: snapshotOf(p).cards[0].id, side: 'front', xMm: 3, yMm: 3, body: 'Colour is off' });
+		await addComment(w.db, actorIn(w, 'reviewer'), { proof: p, comment: { cardId: snapshotOf(p).cards[0].id, side: 'front', xMm: 3, yMm: 3, body: 'Colour is off' } });
 		expect((await mailTo('artist@paddock.test')).length).toBe(0);
 		expect((await mailTo('designer@paddock.test')).some((m) => m.text.includes('Colour is off'))).toBe(true);
 	});
@@ -90,27 +90,27 @@ describe('bad input writes nothing', () => {
 	const rows = async (t: typeof proofComments | typeof proofVerdicts | typeof proofs) => (await w.db.select({ n: count() }).from(t))[0].n;
 
 	it('a pin outside the card, or an empty comment', async () => {
-		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'pins' });
+		const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'pins' });
 		const card = snapshotOf(p).cards[0];
 		const before = await rows(proofComments);
-		await expect(addComment(w.db, p, designer(), { cardId: card.id, side: 'front', xMm: 500, yMm: 10, body: 'far away' })).rejects.toThrow(/outside the card/);
-		await expect(addComment(w.db, p, designer(), { cardId: 'no-such-card', side: 'front', xMm: 1, yMm: 1, body: 'x' })).rejects.toBeInstanceOf(Invalid);
+		await expect(addComment(w.db, actorIn(w, 'designer'), { proof: p, comment: { cardId: card.id, side: 'front', xMm: 500, yMm: 10, body: 'far away' } })).rejects.toThrow(/outside the card/);
+		await expect(addComment(w.db, actorIn(w, 'designer'), { proof: p, comment: { cardId: 'no-such-card', side: 'front', xMm: 1, yMm: 1, body: 'x' } })).rejects.toBeInstanceOf(Invalid);
 		const { CommentSchema } = await import('$lib/server/proofs');
 		expect(CommentSchema.safeParse({ cardId: card.id, xMm: 1, yMm: 1, body: '   ' }).success).toBe(false);
 		expect(await rows(proofComments)).toBe(before);
 	});
 
 	it('a verdict on a withdrawn proof', async () => {
-		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'withdrawn' });
-		const rel = await releaseProof(w.db, p, designer());
-		const gone = await withdrawProof(w.db, rel, designer(), 'wrong backs');
+		const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'withdrawn' });
+		const rel = await releaseProof(w.db, actorIn(w, 'designer'), { proof: p });
+		const gone = await withdrawProof(w.db, actorIn(w, 'designer'), { proof: rel, note: 'wrong backs' });
 		const before = await rows(proofVerdicts);
-		await expect(giveVerdict(w.db, gone, { id: w.callers.reviewer!.id, name: 'Rue' }, { verdict: 'approve', note: '' })).rejects.toThrow(/withdrawn/);
+		await expect(giveVerdict(w.db, actorIn(w, 'reviewer'), { proof: gone, verdict: 'approve', note: '' })).rejects.toThrow(/withdrawn/);
 		expect(await rows(proofVerdicts)).toBe(before);
 	});
 
 	it('a release by a non-designer', async () => {
-		const p = await cutProof(w.db, { gameId: w.gameId, userId: designer().id, userName: 'Dara', description: 'not yours' });
+		const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'not yours' });
 		const res = await releaseApi.POST(ev('reviewer', { params: { gameId: w.gameId, proofId: p.id } }));
 		expect(res.status).toBe(403);
 		const [after] = await w.db.select().from(proofs).where(eq(proofs.id, p.id));

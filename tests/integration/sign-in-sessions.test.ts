@@ -138,7 +138,7 @@ describe('sessions that end', () => {
 	it('API tokens are separate: ending sessions leaves them working', async () => {
 		const { createApiToken, userForToken } = await import('$lib/server/api-tokens');
 		const p = await person();
-		const { token } = await createApiToken(w.db, p.user.id, 'script');
+		const { token } = await createApiToken(w.db, { userId: p.user.id, name: p.user.name }, { name: 'script' });
 		const reset = (await startPasswordReset(w.db, p.email))!;
 		await finishPasswordReset(w.db, reset.token, 'yet-another-secret');
 		expect((await userForToken(w.db, token))?.id).toBe(p.user.id);

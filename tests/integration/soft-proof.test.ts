@@ -5,7 +5,7 @@
 import { readFileSync } from 'node:fs';
 import { Jimp } from 'jimp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openWorld, statusOf, type World } from './harness';
+import { openWorld, statusOf, type World, actorIn } from './harness';
 import { as, g, game } from './role-table';
 import { saveProfile, setPressProfile } from '$lib/server/printer-profiles';
 import { DEFAULT_PROFILE } from '$lib/schemas/printing';
@@ -56,14 +56,14 @@ describe('soft proof routes', () => {
 
 	it('uses the game’s default press profile when none is named, and a named one over it', async () => {
 		const designer = w.callers.designer!;
-		const shop = await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'Soft proof shop' }, designer.id);
+		const shop = await saveProfile(w.db, actorIn(w, 'designer'), { ...DEFAULT_PROFILE, name: 'Soft proof shop' });
 		const icc = new Uint8Array(readFileSync(BUILTIN_PRESS_PROFILE_FILE));
-		await setPressProfile(w.db, w.teamId, shop.id, icc, { conditionIdentifier: 'SHOP-COATED', condition: 'The shop’s coated stock', registryName: '', totalInkLimitPct: 320 }, designer.id);
+		await setPressProfile(w.db, actorIn(w, 'designer'), { id: shop.id, icc: icc, condition: { conditionIdentifier: 'SHOP-COATED', condition: 'The shop’s coated stock', registryName: '', totalInkLimitPct: 320 } });
 		await w.db.update(games).set({ pressProfileId: shop.id }).where(eq(games.id, w.gameId));
 		try {
 			const byDefault = await gameSoftProof.GET(as(w, 'designer', { params: g(w, { cardId }) }));
 			expect(byDefault.headers.get('x-paddock-press-condition')).toBe('SHOP-COATED');
-			const other = await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'Soft proof built-in' }, designer.id);
+			const other = await saveProfile(w.db, actorIn(w, 'designer'), { ...DEFAULT_PROFILE, name: 'Soft proof built-in' });
 			const named = await gameSoftProof.GET(as(w, 'designer', { params: g(w, { cardId }), path: `/?profile=${other.id}` }));
 			expect(named.headers.get('x-paddock-press-condition')).toBe('FOGRA39');
 		} finally {

@@ -7,7 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
-import { openWorld, fakeEvent, type World, type Who } from './harness';
+import { openWorld, fakeEvent, type World, type Who, actorIn } from './harness';
 import { loadGame } from '$lib/server/game-store';
 import { DEFAULT_PROFILE } from '$lib/schemas/printing';
 import { cutProof } from '$lib/server/proofs';
@@ -49,8 +49,8 @@ beforeAll(async () => {
 	w = await openWorld();
 	game = await loadGame(w.db, w.gameId);
 	const owner = w.callers.owner!;
-	proofId = (await cutProof(w.db, { gameId: w.gameId, userId: owner.id, userName: owner.name, description: 'Strict bodies' })).id;
-	profileId = (await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'Strict shop' }, owner.id)).id;
+	proofId = (await cutProof(w.db, actorIn(w, 'owner'), { description: 'Strict bodies' })).id;
+	profileId = (await saveProfile(w.db, actorIn(w, 'owner'), { ...DEFAULT_PROFILE, name: 'Strict shop' })).id;
 	versionId = (await historyOf(w.db, w.gameId, { collection: 'runner', objectId: game.runners[0].id, limit: 1 }))[0].id;
 });
 afterAll(async () => w?.close());

@@ -3,10 +3,12 @@ import { and, eq, isNull, desc } from 'drizzle-orm';
 import type { Db } from './db';
 import { apiTokens, users } from './db/schema';
 import { newToken, sha256 } from './auth/secrets';
+import type { Actor } from './actor';
 
 export const TOKEN_PREFIX = 'pdk_';
 
-export async function createApiToken(db: Db, userId: string, name: string) {
+export async function createApiToken(db: Db, actor: Actor, { name }: { name: string }) {
+	const { userId } = actor;
 	const token = newToken(TOKEN_PREFIX);
 	const [row] = await db
 		.insert(apiTokens)
@@ -29,7 +31,8 @@ export async function tokensOf(db: Db, userId: string) {
 		.orderBy(desc(apiTokens.createdAt));
 }
 
-export async function revokeApiToken(db: Db, userId: string, id: string): Promise<boolean> {
+export async function revokeApiToken(db: Db, actor: Actor, { id }: { id: string }): Promise<boolean> {
+	const { userId } = actor;
 	const rows = await db
 		.update(apiTokens)
 		.set({ revokedAt: new Date() })

@@ -10,7 +10,7 @@ import { createTeam } from './teams';
 import { createGameFrom } from './game-io';
 import { demoGameWithArt } from '$lib/demo/demo-art';
 import { demoScenarios } from '$lib/demo/pricing';
-import { gameActorOf } from './actor';
+import { gameActorOf, teamActorOf } from './actor';
 import { saveScenario } from './odds';
 import { saveProfile } from './printer-profiles';
 import { cutProof, releaseProof } from './proofs';
@@ -47,16 +47,16 @@ export async function seedDemo(db: Db): Promise<boolean> {
 	for (const role of DEMO_ROLES.filter((r) => r !== 'owner')) {
 		await db.insert(memberships).values({ teamId: team.id, userId: accounts.get(role)!, role });
 	}
-	await saveProfile(db, team.id, { ...DEFAULT_PROFILE, name: 'Office laser, A4 duplex', backOffsetXMm: 0.8, backOffsetYMm: -0.5 }, accounts.get('printer')!);
-	await saveProfile(db, team.id, { ...DEFAULT_PROFILE, name: 'Print shop, Letter, CMYK', paper: 'letter', layout: 'butted', marginMm: 6.35, colour: 'cmyk' }, accounts.get('printer')!);
+	const printer = teamActorOf({ id: accounts.get('printer')!, name: NAMES.printer }, team.id, 'printer');
+	await saveProfile(db, printer, { ...DEFAULT_PROFILE, name: 'Office laser, A4 duplex', backOffsetXMm: 0.8, backOffsetYMm: -0.5 });
+	await saveProfile(db, printer, { ...DEFAULT_PROFILE, name: 'Print shop, Letter, CMYK', paper: 'letter', layout: 'butted', marginMm: 6.35, colour: 'cmyk' });
 	const { game, art } = await demoGameWithArt();
 	const row = await createGameFrom(db, { teamId: team.id, userId: accounts.get('designer')!, game, art });
 	// The start-of-stage positions the money tables were priced on, saved so a visitor can re-run them.
 	const designerActor = gameActorOf({ id: accounts.get('designer')!, name: NAMES.designer }, 'designer', row);
 	for (const { name, scenario } of demoScenarios(game)) await saveScenario(db, designerActor, { name, scenario });
 	// A first proof, released, so a printer has something to print straight away.
-	const designer = { id: accounts.get('designer')!, name: NAMES.designer };
-	const proof = await cutProof(db, { gameId: row.id, userId: designer.id, userName: designer.name, description: 'First playtest print' });
-	await releaseProof(db, proof, designer);
+	const proof = await cutProof(db, designerActor, { description: 'First playtest print' });
+	await releaseProof(db, designerActor, { proof });
 	return true;
 }

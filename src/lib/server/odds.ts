@@ -198,7 +198,8 @@ const runningHere = new Map<string, { controller: AbortController; stopping: boo
 class OddsRunStopped extends Error {}
 
 /** Cancels a run, whichever process is computing it (that one notices within a moment). */
-export async function cancelOddsJob(db: Db, userId: string, id: string): Promise<JobView> {
+export async function cancelOddsJob(db: Db, actor: Actor, { id }: { id: string }): Promise<JobView> {
+	const { userId } = actor;
 	await findOddsJob(db, userId, id);
 	await db
 		.update(oddsJobs)

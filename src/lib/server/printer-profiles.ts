@@ -7,7 +7,7 @@ import { checkPressProfile } from '$lib/print/colour/icc';
 import { PressColour, type PressProfile } from '$lib/print/colour/cmm';
 import { BUILTIN_CONDITION, BUILTIN_PROFILE_NAME, builtinPressProfile } from '$lib/print/colour/press-profiles';
 import { logActivity } from './activity';
-import type { GameActor } from './actor';
+import type { GameActor, TeamActor } from './actor';
 import { NotFound, Conflict, Invalid } from './refusals';
 
 const fields = (p: PrinterProfile) => ({
@@ -98,7 +98,8 @@ export async function pressProfileOf(db: Db, teamId: string, id: string): Promis
  * (CMYK output profile, size cap) and LittleCMS must be able to build its transforms, so a
  * profile that cannot convert is refused here rather than at print time.
  */
-export async function setPressProfile(db: Db, teamId: string, id: string, icc: Uint8Array, condition: PressCondition, userId: string) {
+export async function setPressProfile(db: Db, actor: TeamActor, { id, icc, condition }: { id: string; icc: Uint8Array; condition: PressCondition }) {
+	const { teamId, userId } = actor;
 	await findProfile(db, teamId, id);
 	let description: string;
 	try {
@@ -125,7 +126,8 @@ export async function setPressProfile(db: Db, teamId: string, id: string, icc: U
 }
 
 /** Back to the built-in press profile. */
-export async function clearPressProfile(db: Db, teamId: string, id: string, userId: string) {
+export async function clearPressProfile(db: Db, actor: TeamActor, { id }: { id: string }) {
+	const { teamId, userId } = actor;
 	await findProfile(db, teamId, id);
 	const [row] = await db
 		.update(printerProfiles)
@@ -147,7 +149,8 @@ export async function findProfile(db: Db, teamId: string, id: string) {
 }
 
 /** Creates (no id) or saves (id + version) a profile. */
-export async function saveProfile(db: Db, teamId: string, p: PrinterProfile, userId: string) {
+export async function saveProfile(db: Db, actor: TeamActor, p: PrinterProfile) {
+	const { teamId, userId } = actor;
 	if (!p.id) {
 		const [row] = await db.insert(printerProfiles).values({ teamId, ...fields(p) }).returning();
 		await logActivity(db, { teamId, userId, action: 'profile.created', detail: { name: p.name } });
@@ -167,7 +170,8 @@ export async function saveProfile(db: Db, teamId: string, p: PrinterProfile, use
 	return asProfile(row);
 }
 
-export async function deleteProfile(db: Db, teamId: string, id: string, userId: string) {
+export async function deleteProfile(db: Db, actor: TeamActor, { id }: { id: string }) {
+	const { teamId, userId } = actor;
 	const gone = await db.delete(printerProfiles).where(and(eq(printerProfiles.teamId, teamId), eq(printerProfiles.id, id))).returning();
 	if (!gone.length) throw new NotFound('No such printer profile in this team');
 	await logActivity(db, { teamId, userId, action: 'profile.deleted', detail: { name: gone[0].name } });

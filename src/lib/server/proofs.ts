@@ -23,6 +23,7 @@ import { sendMail } from './mail';
 import { config } from './config';
 import { GameSchema, bleedMm, type Game } from '$lib/game/model';
 import { NotFound, Conflict, Invalid } from './refusals';
+import type { Actor, GameActor } from './actor';
 
 export type Proof = typeof proofs.$inferSelect;
 
@@ -82,7 +83,8 @@ async function tell(db: Db, gameId: string, recipients: { email: string }[], tem
 	for (const address of to) await sendMail(address, template, values);
 }
 
-export async function cutProof(db: Db, input: { gameId: string; userId: string; userName: string; description: string }) {
+export async function cutProof(db: Db, actor: GameActor, { description }: { description: string }) {
+	const input = { gameId: actor.gameId, userId: actor.userId, userName: actor.name, description };
 	const proof = await db.transaction(async (tx) => {
 		const t = tx as unknown as Db;
 		const snapshot = await loadGame(t, input.gameId);
@@ -236,12 +238,8 @@ export async function proofList(db: Db, gameId: string, { review, releasedOnly }
 	}));
 }
 
-export async function addComment(
-	db: Db,
-	proof: Proof,
-	author: { id: string; name: string },
-	input: z.infer<typeof CommentSchema>
-) {
+export async function addComment(db: Db, actor: Actor, { proof, comment: input }: { proof: Proof; comment: z.infer<typeof CommentSchema> }) {
+	const author = { id: actor.userId, name: actor.name };
 	if (proof.withdrawnAt) throw new Conflict('This proof is withdrawn; comment on a newer one.');
 	const game = snapshotOf(proof);
 	let values: typeof proofComments.$inferInsert;
@@ -304,7 +302,8 @@ export async function addComment(
 	return row;
 }
 
-export async function resolveComment(db: Db, proof: Proof, commentId: string, userId: string) {
+export async function resolveComment(db: Db, actor: Actor, { proof, commentId }: { proof: Proof; commentId: string }) {
+	const { userId } = actor;
 	const [row] = await db
 		.update(proofComments)
 		.set({ resolvedAt: new Date(), resolvedBy: userId })
@@ -321,7 +320,8 @@ export async function resolveComment(db: Db, proof: Proof, commentId: string, us
 	return row;
 }
 
-export async function giveVerdict(db: Db, proof: Proof, reviewer: { id: string; name: string }, input: z.infer<typeof VerdictSchema>) {
+export async function giveVerdict(db: Db, actor: Actor, { proof, ...input }: { proof: Proof } & z.infer<typeof VerdictSchema>) {
+	const reviewer = { id: actor.userId, name: actor.name };
 	if (proof.withdrawnAt) throw new Conflict('This proof is withdrawn; a verdict on it no longer counts.');
 	const [row] = await db.insert(proofVerdicts).values({ proofId: proof.id, reviewerId: reviewer.id, verdict: input.verdict, note: input.note }).returning();
 	const g = await gameRow(db, proof.gameId);
@@ -337,7 +337,8 @@ export async function giveVerdict(db: Db, proof: Proof, reviewer: { id: string; 
 	return row;
 }
 
-export async function releaseProof(db: Db, proof: Proof, by: { id: string; name: string }) {
+export async function releaseProof(db: Db, actor: Actor, { proof }: { proof: Proof }) {
+	const by = { id: actor.userId, name: actor.name };
 	if (proof.withdrawnAt) throw new Conflict('A withdrawn release cannot be released again; cut a new proof.');
 	if (proof.releasedAt) throw new Conflict('This proof is released already.');
 	const [row] = await db.update(proofs).set({ releasedAt: new Date(), releasedBy: by.id }).where(eq(proofs.id, proof.id)).returning();
@@ -353,7 +354,8 @@ export async function releaseProof(db: Db, proof: Proof, by: { id: string; name:
 	return row;
 }
 
-export async function withdrawProof(db: Db, proof: Proof, by: { id: string; name: string }, note: string) {
+export async function withdrawProof(db: Db, actor: Actor, { proof, note }: { proof: Proof; note: string }) {
+	const by = { id: actor.userId, name: actor.name };
 	if (!proof.releasedAt) throw new Conflict('Only a released proof can be withdrawn.');
 	if (proof.withdrawnAt) throw new Conflict('This release is withdrawn already.');
 	const [row] = await db
@@ -373,7 +375,8 @@ export async function withdrawProof(db: Db, proof: Proof, by: { id: string; name
 	return row;
 }
 
-export async function setMuted(db: Db, userId: string, gameId: string, muted: boolean) {
+export async function setMuted(db: Db, actor: GameActor, { muted }: { muted: boolean }) {
+	const { userId, gameId } = actor;
 	if (muted) await db.insert(mutes).values({ userId, gameId }).onConflictDoNothing();
 	else await db.delete(mutes).where(and(eq(mutes.userId, userId), eq(mutes.gameId, gameId)));
 }

@@ -5,6 +5,7 @@ import { teams, memberships, invitations, users, type Role } from './db/schema';
 import { newToken, sha256 } from './auth/secrets';
 import { logActivity } from './activity';
 import { NotFound, Conflict, Invalid, Refusal } from './refusals';
+import type { TeamActor } from './actor';
 
 export const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
@@ -60,10 +61,8 @@ export async function pendingInvitations(db: Db, teamId: string) {
 	return rows.filter((r) => !r.acceptedAt && r.expiresAt > new Date());
 }
 
-export async function invite(
-	db: Db,
-	input: { teamId: string; invitedBy: string; email: string; role: Role }
-) {
+export async function invite(db: Db, actor: TeamActor, { email: address, role }: { email: string; role: Role }) {
+	const input = { teamId: actor.teamId, invitedBy: actor.userId, email: address, role };
 	const email = input.email.trim().toLowerCase();
 	const members = await membersOf(db, input.teamId);
 	if (members.some((m) => m.email.toLowerCase() === email)) {
@@ -145,7 +144,8 @@ async function memberRole(db: Db, teamId: string, userId: string) {
 	return row.role;
 }
 
-export async function changeRole(db: Db, teamId: string, userId: string, role: Role, by: string) {
+export async function changeRole(db: Db, actor: TeamActor, { userId, role }: { userId: string; role: Role }) {
+	const { teamId, userId: by } = actor;
 	const current = await memberRole(db, teamId, userId);
 	if (current === 'owner' && role !== 'owner' && (await ownerCount(db, teamId)) <= 1) {
 		throw new Conflict('A team needs at least one owner. Make someone else owner first.');
@@ -157,7 +157,8 @@ export async function changeRole(db: Db, teamId: string, userId: string, role: R
 	await logActivity(db, { teamId, userId: by, action: 'member.role', detail: { userId, role } });
 }
 
-export async function removeMember(db: Db, teamId: string, userId: string, by: string) {
+export async function removeMember(db: Db, actor: TeamActor, { userId }: { userId: string }) {
+	const { teamId, userId: by } = actor;
 	const current = await memberRole(db, teamId, userId);
 	if (current === 'owner' && (await ownerCount(db, teamId)) <= 1) {
 		throw new Conflict('The last owner cannot be removed. Make someone else owner first.');

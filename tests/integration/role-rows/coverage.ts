@@ -1,7 +1,7 @@
 /** Rows of the role × route table: reads and saves beside the main areas' rows (mute, verdicts, print jobs, tables, runners). */
 import type { Row } from '../role-table';
 import { as, g, readers, designers, members } from '../role-table';
-import { statusOf, superformJson, type World } from '../harness';
+import { statusOf, superformJson, type World, actorIn } from '../harness';
 import { cutProof, releaseProof, proofsOf } from '$lib/server/proofs';
 import { newId } from '$lib/game/model';
 import * as muteApi from '../../../src/routes/api/v1/games/[gameId=id]/mute/+server';
@@ -14,7 +14,7 @@ import * as runnersPage from '../../../src/routes/(app)/games/[gameId=id]/runner
 
 const all = { default: 200, anonymous: 401, outsider: 404 };
 const designer = (w: World) => ({ id: w.callers.designer!.id, name: w.callers.designer!.name });
-const fresh = (w: World) => cutProof(w.db, { gameId: w.gameId, userId: designer(w).id, userName: 'Dara', description: 'coverage rows' });
+const fresh = (w: World) => cutProof(w.db, actorIn(w, 'designer'), { description: 'coverage rows' });
 async function firstCard(w: World) {
 	const [p] = await proofsOf(w.db, w.gameId, false);
 	return (p.snapshot as { cards: { id: string }[] }).cards[0].id;
@@ -35,7 +35,7 @@ export const rows: Row[] = [
 	{
 		route: 'GET /api/v1/games/{gameId}/proofs/{proofId}/cards/{cardId}/back.svg (released)',
 		run: async (w, who) => {
-			const p = await releaseProof(w.db, await fresh(w), designer(w));
+			const p = await releaseProof(w.db, actorIn(w, 'designer'), { proof: await fresh(w) });
 			const cardId = await firstCard(w);
 			return statusOf(() => proofBack.GET(as(w, who, { params: g(w, { proofId: p.id, cardId }) })));
 		},

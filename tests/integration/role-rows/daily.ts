@@ -1,7 +1,7 @@
 /** Rows of the role × route table: proof art, game deletion and copies, history and restore. */
 import type { Row } from '../role-table';
 import { as, g, game } from '../role-table';
-import { statusOf, type World } from '../harness';
+import { statusOf, type World, actorIn } from '../harness';
 import { cutProof, releaseProof } from '$lib/server/proofs';
 import * as proofArt from '../../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/art-files/[sha256]/+server';
 import * as pressColour from '../../../src/routes/api/v1/press-colour/+server';
@@ -13,8 +13,8 @@ let releasedId: string | undefined;
 async function released(w: World) {
 	if (releasedId) return releasedId;
 	const designer = { id: w.callers.designer!.id, name: w.callers.designer!.name };
-	const p = await cutProof(w.db, { gameId: w.gameId, userId: designer.id, userName: designer.name, description: 'daily rows' });
-	releasedId = (await releaseProof(w.db, p, designer)).id;
+	const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'daily rows' });
+	releasedId = (await releaseProof(w.db, actorIn(w, 'designer'), { proof: p })).id;
 	return releasedId;
 }
 const everyone = { default: 200, anonymous: 401, outsider: 404 };

@@ -1,7 +1,7 @@
 /** Rows of the role × route table: print files, printer profiles, print jobs, calibration. */
 import type { Row } from '../role-table';
 import { as, g, game, readers, members } from '../role-table';
-import { statusOf, type World } from '../harness';
+import { statusOf, type World, actorIn } from '../harness';
 import { cutProof, releaseProof } from '$lib/server/proofs';
 import { saveProfile } from '$lib/server/printer-profiles';
 import { DEFAULT_PROFILE } from '$lib/schemas/printing';
@@ -21,8 +21,8 @@ let releasedId: string | undefined;
 /** One released proof, made once (its files are built from the snapshot). */
 async function released(w: World) {
 	if (releasedId) return releasedId;
-	const p = await cutProof(w.db, { gameId: w.gameId, userId: designer(w).id, userName: 'Dara', description: 'print rows' });
-	releasedId = (await releaseProof(w.db, p, designer(w))).id;
+	const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'print rows' });
+	releasedId = (await releaseProof(w.db, actorIn(w, 'designer'), { proof: p })).id;
 	return releasedId;
 }
 /** The working game prints for readers; printers are sent to releases. */
@@ -105,7 +105,7 @@ export const rows: Row[] = [
 	{
 		route: 'PUT /api/v1/teams/{teamId}/printer-profiles/{profileId}',
 		run: async (w, who) => {
-			const p = await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'scratch' }, designer(w).id);
+			const p = await saveProfile(w.db, actorIn(w, 'designer'), { ...DEFAULT_PROFILE, name: 'scratch' });
 			return statusOf(() =>
 				profileApi.PUT(as(w, who, { method: 'PUT', params: { teamId: w.teamId, profileId: p.id }, json: { ...DEFAULT_PROFILE, name: 'scratch', version: p.version, marginMm: 6 } }))
 			);
@@ -115,7 +115,7 @@ export const rows: Row[] = [
 	{
 		route: 'DELETE /api/v1/teams/{teamId}/printer-profiles/{profileId} (made by the designer)',
 		run: async (w, who) => {
-			const p = await saveProfile(w.db, w.teamId, { ...DEFAULT_PROFILE, name: 'scratch' }, designer(w).id);
+			const p = await saveProfile(w.db, actorIn(w, 'designer'), { ...DEFAULT_PROFILE, name: 'scratch' });
 			return statusOf(() => profileApi.DELETE(as(w, who, { method: 'DELETE', params: { teamId: w.teamId, profileId: p.id } })));
 		},
 		// Intended: printers keep the team's printer profiles (product brief, roles), so a printer may

@@ -1,11 +1,11 @@
 /** Rows of the role × route table: the pixel difference of a card between two proofs. */
 import type { Row } from '../role-table';
 import { as, g, readers } from '../role-table';
-import { statusOf, type World } from '../harness';
+import { statusOf, type World, actorIn } from '../harness';
 import { cutProof, snapshotOf } from '$lib/server/proofs';
 import * as diffApi from '../../../src/routes/api/v1/games/[gameId=id]/proofs/compare/diff.png/+server';
 
-const cut = (w: World) => cutProof(w.db, { gameId: w.gameId, userId: w.callers.designer!.id, userName: 'Dara', description: 'compare rows' });
+const cut = (w: World) => cutProof(w.db, actorIn(w, 'designer'), { description: 'compare rows' });
 
 export const rows: Row[] = [
 	{

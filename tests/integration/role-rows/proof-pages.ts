@@ -1,7 +1,7 @@
 /** Rows of the role × route table: the proof pages (list, viewer, release page, comparison) and the activity log. */
 import type { Row } from '../role-table';
 import { as, g, readers, members } from '../role-table';
-import { statusOf, type World } from '../harness';
+import { statusOf, type World, actorIn } from '../harness';
 import { cutProof, releaseProof, withdrawProof } from '$lib/server/proofs';
 import * as proofsPage from '../../../src/routes/(app)/games/[gameId=id]/proofs/+page.server';
 import * as proofPage from '../../../src/routes/(app)/games/[gameId=id]/proofs/[number]/+page.server';
@@ -9,9 +9,9 @@ import * as comparePage from '../../../src/routes/(app)/games/[gameId=id]/proofs
 import * as activityPage from '../../../src/routes/(app)/games/[gameId=id]/activity/+page.server';
 
 const designer = (w: World) => ({ id: w.callers.designer!.id, name: w.callers.designer!.name });
-const fresh = (w: World) => cutProof(w.db, { gameId: w.gameId, userId: designer(w).id, userName: 'Dara', description: 'page table test' });
+const fresh = (w: World) => cutProof(w.db, actorIn(w, 'designer'), { description: 'page table test' });
 async function released(w: World) {
-	return releaseProof(w.db, await fresh(w), designer(w));
+	return releaseProof(w.db, actorIn(w, 'designer'), { proof: await fresh(w) });
 }
 
 /** Everyone in the team, printers included. */
@@ -40,7 +40,7 @@ export const rows: Row[] = [
 	{
 		route: 'load /games/{gameId}/proofs/{number} (withdrawn release: the printer learns it is withdrawn)',
 		run: async (w, who) => {
-			const p = await withdrawProof(w.db, await released(w), designer(w), 'table test');
+			const p = await withdrawProof(w.db, actorIn(w, 'designer'), { proof: await released(w), note: 'table test' });
 			return statusOf(() => proofPage.load(as(w, who, { params: g(w, { number: String(p.number) }) })));
 		},
 		expect: team

@@ -1,7 +1,7 @@
 /** Rows of the role × route table: proofs, comments, verdicts, releases. */
 import type { Row } from '../role-table';
 import { as, g, readers, members } from '../role-table';
-import { statusOf, type World } from '../harness';
+import { statusOf, type World, actorIn } from '../harness';
 import { cutProof, releaseProof, proofsOf } from '$lib/server/proofs';
 import * as proofsApi from '../../../src/routes/api/v1/games/[gameId=id]/proofs/+server';
 import * as proofApi from '../../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/+server';
@@ -16,11 +16,11 @@ import * as muteApi from '../../../src/routes/api/v1/games/[gameId=id]/mute/+ser
 
 const designer = (w: World) => ({ id: w.callers.designer!.id, name: w.callers.designer!.name });
 /** A fresh unreleased proof, cut by the designer. */
-const fresh = (w: World) => cutProof(w.db, { gameId: w.gameId, userId: designer(w).id, userName: 'Dara', description: 'table test' });
+const fresh = (w: World) => cutProof(w.db, actorIn(w, 'designer'), { description: 'table test' });
 /** A fresh released proof. */
 async function released(w: World) {
 	const p = await fresh(w);
-	return releaseProof(w.db, p, designer(w));
+	return releaseProof(w.db, actorIn(w, 'designer'), { proof: p });
 }
 const all = { default: 200, anonymous: 401, outsider: 404 };
 /** Unreleased proofs do not exist for printers. */

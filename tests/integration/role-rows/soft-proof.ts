@@ -1,7 +1,7 @@
 /** Rows of the role × route table: soft proofs of the working game, of a released proof, and of the editor's unsaved card. */
 import type { Row } from '../role-table';
 import { as, g, game, readers } from '../role-table';
-import { statusOf, type World } from '../harness';
+import { statusOf, type World, actorIn } from '../harness';
 import { cutProof, releaseProof } from '$lib/server/proofs';
 import * as gameSoftProof from '../../../src/routes/api/v1/games/[gameId=id]/cards/[cardId]/soft-proof.png/+server';
 import * as proofSoftProof from '../../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/cards/[cardId]/soft-proof.png/+server';
@@ -11,8 +11,8 @@ let releasedId: string | undefined;
 async function released(w: World) {
 	if (releasedId) return releasedId;
 	const d = w.callers.designer!;
-	const p = await cutProof(w.db, { gameId: w.gameId, userId: d.id, userName: d.name, description: 'soft proof rows' });
-	releasedId = (await releaseProof(w.db, p, { id: d.id, name: d.name })).id;
+	const p = await cutProof(w.db, actorIn(w, 'designer'), { description: 'soft proof rows' });
+	releasedId = (await releaseProof(w.db, actorIn(w, 'designer'), { proof: p })).id;
 	return releasedId;
 }
 /** The working game is soft-proofed for its readers; printers see releases only. */

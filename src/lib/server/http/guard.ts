@@ -8,6 +8,7 @@ import type { Role } from '../db/schema';
 import { loadGame } from '../game-store';
 import { gameAccess, may, roleIn, type GameRow, type Permission, type SignedIn } from '../access';
 import { gameActorOf, teamActorOf, type GameActor, type TeamActor } from '../actor';
+export { actorOf } from '../actor';
 import { NotAllowed, NotFound, SignInFirst } from '../refusals';
 import { refusedPage } from './answers';
 import type { Game } from '$lib/game/model';

@@ -16,11 +16,11 @@ export async function requireProof(
 	key: string,
 	permission: Permission = 'release.read'
 ) {
-	const { user, role, game } = await requireGameRole(db, locals, gameId, 'release.read');
+	const { user, role, game, actor } = await requireGameRole(db, locals, gameId, 'release.read');
 	const releasedOnly = !may(role, 'game.read');
 	const byNumber = /^\d{1,6}$/.test(key);
 	if (!byNumber && !isUuid(key)) throw new NotFound('No such proof');
 	const proof = await findProof(db, gameId, byNumber ? { number: Number(key) } : { id: key }, releasedOnly);
 	if (!may(role, permission)) throw new NotAllowed(`A ${role} may not do this`);
-	return { user, role, game, proof };
+	return { user, role, game, actor, proof };
 }

@@ -2,7 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { superValidate, message, setError } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { passwordChangeSchema, tokenSchema } from '$lib/schemas/account';
-import { requireUser } from '$lib/server/http/guard';
+import { actorOf, requireUser } from '$lib/server/http/guard';
 import { createApiToken, revokeApiToken, tokensOf } from '$lib/server/api-tokens';
 import { endSession, endSessions, openSessions } from '$lib/server/auth/sessions';
 import { changePassword } from '$lib/server/users';
@@ -33,13 +33,13 @@ export const actions = {
 		const user = requireUser(locals);
 		const form = await superValidate(request, zod4(tokenSchema));
 		if (!form.valid) return fail(400, { form });
-		const { token } = await createApiToken(await db(), user.id, form.data.name);
+		const { token } = await createApiToken(await db(), actorOf(user), { name: form.data.name });
 		return message(form, token);
 	},
 	revokeToken: async ({ request, locals }) => {
 		const user = requireUser(locals);
 		const id = String((await request.formData()).get('id') ?? '');
-		if (!isUuid(id) || !(await revokeApiToken(await db(), user.id, id))) {
+		if (!isUuid(id) || !(await revokeApiToken(await db(), actorOf(user), { id }))) {
 			return fail(404, { revokeError: 'No such token' });
 		}
 		return { revoked: true };

@@ -1,7 +1,7 @@
-import { fail } from '@sveltejs/kit';
+import { fail, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireRole, may } from '$lib/server/http/guard';
+import { requireRole, may, type TeamActor } from '$lib/server/http/guard';
 import { profilesOf, saveProfile, deleteProfile, setPressProfile, clearPressProfile } from '$lib/server/printer-profiles';
 import { findTeam } from '$lib/server/teams';
 import { PrinterProfileSchema, DEFAULT_PROFILE, PressConditionSchema } from '$lib/schemas/printing';
@@ -27,11 +27,11 @@ export const load = async ({ locals, params, url }) => {
 export const actions = {
 	save: async ({ locals, params, request }) => {
 		const d = await db();
-		const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
+		const { actor } = await requireRole(d, locals, params.teamId, 'profile.edit');
 		const form = await superValidate(request, zod4(PrinterProfileSchema));
 		if (!form.valid) return fail(400, { form });
 		try {
-			const saved = await saveProfile(d, params.teamId, form.data, user.id);
+			const saved = await saveProfile(d, actor, form.data);
 			form.data = saved;
 		} catch (e) {
 			const refused = answerFor(e);
@@ -43,7 +43,7 @@ export const actions = {
 	/** A printer's own ICC profile and printing condition for one profile: checked before it is kept. */
 	icc: async ({ locals, params, request }) => {
 		const d = await db();
-		const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
+		const { actor } = await requireRole(d, locals, params.teamId, 'profile.edit');
 		const data = await request.formData();
 		const id = String(data.get('id') ?? '');
 		if (!isUuid(id)) return fail(404, { iccError: 'No such printer profile' });
@@ -57,7 +57,7 @@ export const actions = {
 		});
 		if (!condition.success) return fail(400, { iccError: condition.error.issues.map((i) => i.message).join('; ') });
 		try {
-			await setPressProfile(d, params.teamId, id, new Uint8Array(await file.arrayBuffer()), condition.data, user.id);
+			await setPressProfile(d, actor, { id, icc: new Uint8Array(await file.arrayBuffer()), condition: condition.data });
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) return fail(refused.status, { iccError: refused.message });
@@ -65,32 +65,30 @@ export const actions = {
 		}
 		return { iccSaved: id };
 	},
-	iccReset: async ({ locals, params, request }) => {
-		const d = await db();
-		const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
-		const id = String((await request.formData()).get('id') ?? '');
-		if (!isUuid(id)) return fail(404, { iccError: 'No such printer profile' });
-		try {
-			await clearPressProfile(d, params.teamId, id, user.id);
-		} catch (e) {
-			const refused = answerFor(e);
-			if (refused) return fail(refused.status, { iccError: refused.message });
-			throw e;
-		}
-		return { iccSaved: id };
-	},
-	delete: async ({ locals, params, request }) => {
-		const d = await db();
-		const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
-		const id = String((await request.formData()).get('id') ?? '');
-		if (!isUuid(id)) return fail(404, { deleteError: 'No such printer profile' });
-		try {
-			await deleteProfile(d, params.teamId, id, user.id);
-		} catch (e) {
-			const refused = answerFor(e);
-			if (refused) return fail(refused.status, { deleteError: refused.message });
-			throw e;
-		}
-		return { deleted: id };
-	}
+	iccReset: (event) => onOneProfile(event, 'iccError', 'iccSaved', (d, actor, id) => clearPressProfile(d, actor, { id })),
+	delete: (event) => onOneProfile(event, 'deleteError', 'deleted', (d, actor, id) => deleteProfile(d, actor, { id }))
 };
+
+/**
+ * The opening and ending two actions share: the profile named by the form's `id`, one service
+ * call, and a refusal told under `errorKey` (or the id under `doneKey` when it went through).
+ */
+async function onOneProfile<E extends string, K extends string>(
+	{ locals, params, request }: RequestEvent<{ teamId: string }>,
+	errorKey: E,
+	doneKey: K,
+	run: (d: Awaited<ReturnType<typeof db>>, actor: TeamActor, id: string) => Promise<unknown>
+) {
+	const d = await db();
+	const { actor } = await requireRole(d, locals, params.teamId, 'profile.edit');
+	const id = String((await request.formData()).get('id') ?? '');
+	if (!isUuid(id)) return fail(404, { [errorKey]: 'No such printer profile' } as Record<E, string>);
+	try {
+		await run(d, actor, id);
+	} catch (e) {
+		const refused = answerFor(e);
+		if (refused) return fail(refused.status, { [errorKey]: refused.message } as Record<E, string>);
+		throw e;
+	}
+	return { [doneKey]: id } as Record<K, string>;
+}

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { api } from '$lib/server/http/api';
-import { requireUser } from '$lib/server/http/guard';
+import { actorOf, requireUser } from '$lib/server/http/guard';
 import { cancelOddsJob, oddsJobView } from '$lib/server/odds';
 import { db } from '$lib/server/runtime';
 
@@ -14,5 +14,5 @@ export const GET: RequestHandler = api(async ({ locals, params }) => {
 /** Cancels the run, whichever process is computing it. */
 export const DELETE: RequestHandler = api(async ({ locals, params }) => {
 	const user = requireUser(locals);
-	return json(await cancelOddsJob(await db(), user.id, params.jobId));
+	return json(await cancelOddsJob(await db(), actorOf(user), { id: params.jobId }));
 });

@@ -15,8 +15,8 @@ export const GET: RequestHandler = api(async ({ locals, params }) => {
 /** `{ muted: true }` stops this game's e-mail to the caller; false starts it again. */
 export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user } = await requireGameRole(d, locals, params.gameId, 'release.read');
+	const { actor } = await requireGameRole(d, locals, params.gameId, 'release.read');
 	const { muted } = await readJson(request, MuteSchema);
-	await setMuted(d, user.id, params.gameId, muted);
+	await setMuted(d, actor, { muted });
 	return json({ muted } satisfies ApiAnswer<typeof MuteSchema>);
 });

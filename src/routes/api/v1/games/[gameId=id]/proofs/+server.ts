@@ -25,8 +25,8 @@ export const GET: RequestHandler = api(async ({ locals, params }) => {
 
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user } = await requireGameRole(d, locals, params.gameId, 'proof.cut');
+	const { actor } = await requireGameRole(d, locals, params.gameId, 'proof.cut');
 	const { description } = await readJson(request, CutSchema);
-	const proof = await cutProof(d, { gameId: params.gameId, userId: user.id, userName: user.name, description });
+	const proof = await cutProof(d, actor, { description });
 	return json({ id: proof.id, number: proof.number } satisfies ApiAnswer<typeof ProofCutSchema>, { status: 201 });
 });

@@ -9,10 +9,10 @@ import { inviteSchema } from '$lib/schemas/account';
 
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user } = await requireRole(d, locals, params.teamId, 'members.manage');
+	const { user, actor } = await requireRole(d, locals, params.teamId, 'members.manage');
 	const input = await readJson(request, inviteSchema);
 	const team = (await findTeam(d, params.teamId))!;
-	const { invitation, token } = await invite(d, { ...input, teamId: team.id, invitedBy: user.id });
+	const { invitation, token } = await invite(d, actor, input);
 	await mailInvitation({ to: invitation.email, inviter: user.name, team: team.name, role: invitation.role, token, expiresAt: invitation.expiresAt });
 	return json(
 		{ invitation: { id: invitation.id, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt } },

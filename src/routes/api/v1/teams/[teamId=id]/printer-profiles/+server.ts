@@ -14,8 +14,8 @@ export const GET: RequestHandler = api(async ({ locals, params }) => {
 
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
+	const { actor } = await requireRole(d, locals, params.teamId, 'profile.edit');
 	const input = await readJson(request, PrinterProfileSchema);
-	const profile = await saveProfile(d, params.teamId, { ...input, id: undefined }, user.id);
+	const profile = await saveProfile(d, actor, { ...input, id: undefined });
 	return json({ profile }, { status: 201 });
 });

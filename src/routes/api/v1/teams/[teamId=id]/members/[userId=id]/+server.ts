@@ -8,15 +8,15 @@ import { roleChangeSchema } from '$lib/schemas/account';
 
 export const PATCH: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user } = await requireRole(d, locals, params.teamId, 'members.manage');
+	const { actor } = await requireRole(d, locals, params.teamId, 'members.manage');
 	const { role } = await readJson(request, roleChangeSchema);
-	await changeRole(d, params.teamId, params.userId, role, user.id);
+	await changeRole(d, actor, { userId: params.userId, role });
 	return json({ ok: true });
 });
 
 export const DELETE: RequestHandler = api(async ({ locals, params }) => {
 	const d = await db();
-	const { user } = await requireRole(d, locals, params.teamId, 'members.manage');
-	await removeMember(d, params.teamId, params.userId, user.id);
+	const { actor } = await requireRole(d, locals, params.teamId, 'members.manage');
+	await removeMember(d, actor, { userId: params.userId });
 	return json({ ok: true });
 });

@@ -9,15 +9,15 @@ import { db } from '$lib/server/runtime';
 /** Saves a profile; `version` in the body is the version the editor started from. */
 export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
+	const { actor } = await requireRole(d, locals, params.teamId, 'profile.edit');
 	const input = await readJson(request, PrinterProfileSchema);
-	const profile = await saveProfile(d, params.teamId, { ...input, id: params.profileId }, user.id);
+	const profile = await saveProfile(d, actor, { ...input, id: params.profileId });
 	return json({ profile });
 });
 
 export const DELETE: RequestHandler = api(async ({ locals, params }) => {
 	const d = await db();
-	const { user } = await requireRole(d, locals, params.teamId, 'profile.edit');
-	await deleteProfile(d, params.teamId, params.profileId, user.id);
+	const { actor } = await requireRole(d, locals, params.teamId, 'profile.edit');
+	await deleteProfile(d, actor, { id: params.profileId });
 	return json({ ok: true });
 });

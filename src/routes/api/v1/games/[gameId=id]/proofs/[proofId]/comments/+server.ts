@@ -16,8 +16,8 @@ export const GET: RequestHandler = api(async ({ locals, params, url }) => {
 
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { proof, user } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.comment');
+	const { proof, actor } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.comment');
 	const input = await readJson(request, CommentSchema);
-	const comment = await addComment(d, proof, user, input);
+	const comment = await addComment(d, actor, { proof, comment: input });
 	return json({ comment }, { status: 201 });
 });

@@ -7,7 +7,7 @@ import { db } from '$lib/server/runtime';
 
 export const POST: RequestHandler = api(async ({ locals, params }) => {
 	const d = await db();
-	const { proof, user } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.release');
-	const released = await releaseProof(d, proof, user);
+	const { proof, actor } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.release');
+	const released = await releaseProof(d, actor, { proof });
 	return json({ proof: { id: released.id, number: released.number, releasedAt: released.releasedAt } });
 });

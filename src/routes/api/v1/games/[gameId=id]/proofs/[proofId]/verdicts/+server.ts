@@ -13,8 +13,8 @@ export const GET: RequestHandler = api(async ({ locals, params }) => {
 
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { proof, user } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.verdict');
+	const { proof, actor } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.verdict');
 	const input = await readJson(request, VerdictSchema);
-	const verdict = await giveVerdict(d, proof, user, input);
+	const verdict = await giveVerdict(d, actor, { proof, ...input });
 	return json({ verdict }, { status: 201 });
 });

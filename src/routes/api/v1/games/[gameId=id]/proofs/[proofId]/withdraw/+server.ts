@@ -7,10 +7,10 @@ import { db } from '$lib/server/runtime';
 
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { proof, user } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.release');
+	const { proof, actor } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.release');
 	// The note is optional: a body is read whenever one is sent, chunked or not.
 	const hasBody = request.headers.has('content-type') || Number(request.headers.get('content-length') ?? 0) > 0;
 	const { note } = hasBody ? await readJson(request, WithdrawSchema) : { note: '' };
-	const withdrawn = await withdrawProof(d, proof, user, note);
+	const withdrawn = await withdrawProof(d, actor, { proof, note });
 	return json({ proof: { id: withdrawn.id, number: withdrawn.number, withdrawnAt: withdrawn.withdrawnAt } });
 });

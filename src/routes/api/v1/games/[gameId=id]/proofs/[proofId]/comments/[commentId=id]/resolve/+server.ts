@@ -7,7 +7,7 @@ import { db } from '$lib/server/runtime';
 
 export const POST: RequestHandler = api(async ({ locals, params }) => {
 	const d = await db();
-	const { proof, user } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.comment');
-	const comment = await resolveComment(d, proof, params.commentId, user.id);
+	const { proof, actor } = await requireProof(d, locals, params.gameId, params.proofId, 'proof.comment');
+	const comment = await resolveComment(d, actor, { proof, commentId: params.commentId });
 	return json({ comment });
 });
