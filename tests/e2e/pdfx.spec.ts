@@ -69,6 +69,8 @@ test('a designer shows a proof as it will print, and chooses the game’s press 
 
 	await page.goto(`/games/${gameId}/proofs/1`);
 	await hydrated(page);
+	// Colour choices belong to a card opened large from the grid.
+	await page.getByTestId('card-thumb').first().click();
 	await page.getByTestId('as-printed').first().check();
 	await expect(page.getByTestId('soft-proof-legend')).toContainText('ΔE2000 3');
 	const face = page.locator('img[src*="soft-proof.png"]').first();
