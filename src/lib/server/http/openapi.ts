@@ -126,7 +126,7 @@ const PATHS: Record<string, Record<string, Operation>> = {
 		put: op('Save an object read at `version` (art: its status and slot only)', { 200: answer('The object, with its new version') }, ObjectSaveSchema.or(ArtSaveSchema)),
 		delete: op('Delete an object (?version=N)', { 200: answer('Deleted') })
 	},
-	'/api/v1/games/{gameId}/history': { get: op("An object's saved versions (?collection=&id=&limit=)", { 200: answer('The versions') }) },
+	'/api/v1/games/{gameId}/history': { get: op("Saved versions of the game's objects and settings (?collection=runners, money-tables, kinds, cards, art or settings; &objectId=&limit=)", { 200: answer('The versions') }) },
 	'/api/v1/games/{gameId}/history/{versionId}/restore': { post: op('Restore a version as a new version (stale restores refused like stale saves)', { 201: answer('The restored object') }, RestoreSchema) },
 	'/api/v1/games/{gameId}/settings': { put: op('Save the game settings read at `version`', { 200: answer('The settings') }, SettingsRequestSchema) },
 	'/api/v1/games/{gameId}/art/upload': {
