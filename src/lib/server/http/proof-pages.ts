@@ -6,7 +6,7 @@ import { requireProof } from './proof-access';
 import type { Permission } from './guard';
 import type { Db } from '$lib/server/db';
 import { bleedMm, safeMm, type Game } from '$lib/game/model';
-import type { ProofCard } from '$lib/components/proofs/types';
+import type { ProofCard } from '$lib/schemas/proofs';
 import { refusedPage } from './answers';
 import { cardSummary } from '$lib/game/card-rows';
 import { compareGames, type ProofComparison } from '$lib/game/compare';
