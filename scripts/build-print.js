@@ -14,6 +14,7 @@ const CLI_EXTERNAL = ['@resvg/resvg-wasm', 'wawoff2', 'lcms-wasm', 'jimp', '@pdf
 const root = new URL('..', import.meta.url).pathname;
 
 export async function buildPrint({ quiet = false } = {}) {
+	/** @type {import('esbuild').BuildOptions} */
 	const common = {
 		absWorkingDir: root,
 		bundle: true,
