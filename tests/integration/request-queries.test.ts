@@ -11,6 +11,9 @@ import * as appLayout from '../../src/routes/(app)/+layout.server';
 import * as gameLayout from '../../src/routes/(app)/games/[gameId=id]/+layout.server';
 import * as tablesPage from '../../src/routes/(app)/games/[gameId=id]/money-tables/+page.server';
 import * as runnersPage from '../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
+import * as kindPage from '../../src/routes/(app)/games/[gameId=id]/kinds/[kindId]/+page.server';
+import { withSaved } from '$lib/components/save-in-place';
+import type { Card } from '$lib/game/model';
 
 type Query = (...args: unknown[]) => Promise<unknown>;
 /** Transaction brackets are the driver's, not the request's: PGlite sends none through `query`. */
@@ -98,5 +101,43 @@ describe('queries per request', () => {
 		expect(n).toBe(0);
 		expect(page!.runners.find((r) => r.id === runner.id)).toMatchObject({ name: 'Renamed again', version: runner.version! + 1 });
 		expect((await gameLayout.load(event)).game.version).toBe((await loadGame(world.db, world.gameId)).version);
+	});
+
+	it('a card save answers what the page shows, so the browser loads nothing after it', async () => {
+		const game = await loadGame(world.db, world.gameId);
+		const card = game.cards.find((c) => c.data.type === 'movement')!;
+		const kindId = card.kindId;
+		const params = { gameId: world.gameId, kindId };
+		const path = `/games/${world.gameId}/kinds/${kindId}?card=${card.id}`;
+		// The page as the browser holds it before the save.
+		const shown = await kindPage.load(fakeEvent(world.callers.designer, { path, params }) as never);
+		const save = fakeEvent(world.callers.designer, { path: `${path}&/saveCard`, params, form: superformJson({ ...card, copies: card.copies + 2 }) });
+		let answer: { form: { data: Card; message: { tone: string } }; saved: Card } | undefined;
+		const n = await counted(async () => {
+			answer = (await kindPage.actions.saveCard(save as never)) as never;
+		});
+		// The same bound as any object save: the answer costs no extra read.
+		expect(n).toBeLessThanOrEqual(9);
+		expect(answer!.saved).toMatchObject({ id: card.id, copies: card.copies + 2, version: card.version! + 1 });
+		// The form carries the new version: the next save from it is checked against the saved card.
+		expect(answer!.form.data).toEqual(answer!.saved);
+		expect(answer!.form.message.tone).not.toBe('error');
+		// The page's list with the answer applied is what a fresh load would show.
+		const fresh = await kindPage.load(fakeEvent(world.callers.designer, { path, params }) as never);
+		expect(withSaved(shown.cards, answer!.saved)).toEqual(fresh.cards);
+		// And the next save from the answered form goes through (no false conflict).
+		const again = fakeEvent(world.callers.designer, { path: `${path}&/saveCard`, params, form: superformJson({ ...answer!.form.data, copies: card.copies }) });
+		const second = (await kindPage.actions.saveCard(again as never)) as unknown as { saved: Card };
+		expect(second.saved).toMatchObject({ copies: card.copies, version: card.version! + 2 });
+	});
+
+	it('a stale save still meets the conflict', async () => {
+		const game = await loadGame(world.db, world.gameId);
+		const runner = game.runners[0];
+		const stale = { ...runner, version: runner.version! - 1, name: 'Stale' };
+		const event = request(`/games/${world.gameId}/runners?/save`, { form: superformJson(stale) });
+		const answer = (await runnersPage.actions.save(event)) as unknown as { status: number; data: { form: { message: { tone: string } } } };
+		expect(answer.status).toBe(409);
+		expect(answer.data.form.message.tone).toBe('error');
 	});
 });

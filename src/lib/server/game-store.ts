@@ -289,13 +289,13 @@ const storedSettings = (s: Settings) => ({
 /**
  * Changes the game's settings, version-checked like an object. Each key given replaces the stored
  * one (given as undefined: removed); keys not given are kept, so the rogue runner's form and the
- * race rules' form do not undo each other.
+ * race rules' form do not undo each other. Answers the settings' new version and the game as saved.
  */
 export async function saveSettings(
 	db: Db,
 	by: GameActor,
 	{ settings, baseVersion, restoredFrom }: { settings: Settings; baseVersion: number | null; restoredFrom?: number }
-): Promise<{ version: number }> {
+): Promise<{ version: number; game: Game }> {
 	const { gameId } = by;
 	return db.transaction(async (tx) => {
 		const [row] = await tx.select().from(gameSettings).where(eq(gameSettings.gameId, gameId)).for('update');
@@ -330,7 +330,8 @@ export async function saveSettings(
 			userId: by.userId,
 			action: restoredFrom !== undefined ? 'settings.restored' : 'game.settings'
 		});
-		return { version: current + 1 };
+		// The game as written too, so the caller answers from it rather than reading it again.
+		return { version: current + 1, game: { ...game, version: game.version! + 1 } };
 	});
 }
 

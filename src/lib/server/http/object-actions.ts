@@ -7,7 +7,7 @@ import { fail, type RequestEvent } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { keepSavedGame, requireGameRole } from './guard';
-import { applyChanges, loadGame, OBJECT_SCHEMAS } from '../game-store';
+import { applyChanges, COLLECTION_FIELD, loadGame, OBJECT_SCHEMAS } from '../game-store';
 import { formSchema } from '$lib/schemas/known-keys';
 import { editPermission } from './game-access';
 import type { Collection } from '$lib/schemas/collections';
@@ -26,6 +26,11 @@ export function savedNote(gameId: string, warnings: ReadinessItem[], what = 'Sav
 	};
 }
 
+/**
+ * Saves one object from its editor's form. The answer carries what the page shows of it: the form
+ * holds the object as saved (with its new version, so the next save is checked against it) and
+ * `saved` the same object for the page's lists, so the browser needs no reload after a save.
+ */
 export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, collection: Collection) {
 	const d = await db();
 	const access = await requireGameRole(d, event.locals, event.params.gameId, editPermission(collection));
@@ -39,14 +44,17 @@ export async function saveObjectAction(event: RequestEvent<{ gameId: string }>, 
 			changes: [{ collection, id: object.id, baseVersion: version ?? null, object }],
 			action: `${collection}.saved`
 		});
-		const { saveWarnings: _warnings, ...savedGame } = saved;
-		keepSavedGame(event.locals, access, savedGame);
 	} catch (e) {
 		const refused = answerFor(e);
 		if (refused) return message(form, { text: refused.message, tone: 'error' } satisfies FormNote, { status: refused.status });
 		throw e;
 	}
-	return message(form, savedNote(access.game.id, saved.saveWarnings));
+	const { saveWarnings, ...savedGame } = saved;
+	keepSavedGame(event.locals, access, savedGame);
+	const written = (savedGame[COLLECTION_FIELD[collection]] as { id: string }[]).find((o) => o.id === object.id)!;
+	form.data = written as typeof form.data;
+	form.message = savedNote(access.game.id, saveWarnings);
+	return { form, saved: written };
 }
 
 export async function deleteObjectAction(event: RequestEvent<{ gameId: string }>, collection: Collection) {

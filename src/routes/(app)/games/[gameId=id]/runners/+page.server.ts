@@ -1,7 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { requireGame, requireGameRole } from '$lib/server/http/guard';
+import { keepSavedGame, requireGame, requireGameRole } from '$lib/server/http/guard';
 import { saveSettings } from '$lib/server/game-store';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/http/object-actions';
 import { db } from '$lib/server/runtime';
@@ -41,20 +41,25 @@ const blankRogue = async (): Promise<RogueRunner> => ({
 export const actions = {
 	save: (event) => saveObjectAction(event, 'runner'),
 	/** The rogue runner lives in the game's settings, versioned like an object. */
-	saveRogue: async ({ locals, params, request }) => {
+	saveRogue: async (event) => {
 		const d = await db();
-		const { actor } = await requireGameRole(d, locals, params.gameId, 'game.edit');
-		const form = await superValidate(request, zod4(RogueRunnerSchema), { id: 'rogue' });
+		const access = await requireGameRole(d, event.locals, event.params.gameId, 'game.edit');
+		const form = await superValidate(event.request, zod4(RogueRunnerSchema), { id: 'rogue' });
 		if (!form.valid) return fail(400, { rogueForm: form });
 		const { version, ...rogueRunner } = form.data;
+		let saved;
 		try {
-			await saveSettings(d, actor, { settings: { rogueRunner }, baseVersion: version ?? 0 });
+			saved = await saveSettings(d, access.actor, { settings: { rogueRunner }, baseVersion: version ?? 0 });
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) return message(form, refused.message, { status: refused.status });
 			throw e;
 		}
-		return message(form, { text: 'Saved.', tone: 'success' as const });
+		keepSavedGame(event.locals, access, saved.game);
+		// The answer holds the rogue runner as saved, with the settings' new version for the next save.
+		form.data = saved.game.rogueRunner!;
+		form.message = { text: 'Saved.', tone: 'success' as const };
+		return { rogueForm: form, saved: saved.game.rogueRunner };
 	},
 	delete: (event) => deleteObjectAction(event, 'runner')
 };

@@ -5,7 +5,6 @@ import { requireGame, requireGameRole } from '$lib/server/http/guard';
 import { applyChanges, loadGame, type Change } from '$lib/server/game-store';
 import { saveObjectAction, deleteObjectAction } from '$lib/server/http/object-actions';
 import { db } from '$lib/server/runtime';
-import { cardCount } from '$lib/game/deck-check';
 import { CardKindSchema, CardSchema, type Card, type Game } from '$lib/game/model';
 import { blankCard } from '$lib/game/kind-defaults';
 import {
@@ -52,7 +51,6 @@ export const load = async ({ locals, params, url }) => {
 		view,
 		kind,
 		cards,
-		totals: { designs: cards.length, cards: cardCount(cards) },
 		isNewCard: isNew,
 		runners: game.runners,
 		rogue: game.rogueRunner ?? null,
