@@ -29,28 +29,29 @@ function countQueries(db: unknown) {
 			return query(...a);
 		};
 	};
-	const client = (db as { $client: { query: Query; transaction?: Query; connect?: (...a: unknown[]) => Promise<{ query: Query }> } }).$client;
-	wrap(client);
+	const client = (db as { $client: { query: Query; transaction?: Query; connect?: (...a: unknown[]) => unknown } }).$client;
 	const wrapped = new WeakSet<object>();
-	if (client.transaction) {
-		const transaction = client.transaction.bind(client);
-		client.transaction = (fn) =>
-			transaction((tx: { query: Query }) => {
-				if (!wrapped.has(tx)) (wrapped.add(tx), wrap(tx));
-				return (fn as (tx: unknown) => Promise<unknown>)(tx);
-			});
+	const watch = <T extends object>(conn: T): T => {
+		if (conn && !wrapped.has(conn)) (wrapped.add(conn), wrap(conn as unknown as { query: Query }));
+		return conn;
+	};
+	if (!client.connect) {
+		// Embedded: one client, and a transaction hands out its own.
+		wrap(client);
+		if (client.transaction) {
+			const transaction = client.transaction.bind(client);
+			client.transaction = (fn) => transaction((tx: object) => (fn as (tx: unknown) => Promise<unknown>)(watch(tx)));
+		}
+		return;
 	}
-	if (client.connect) {
-		const connect = client.connect.bind(client);
-		// The pool's own `query` checks a connection out with a callback: that one is counted already.
-		client.connect = (...a: unknown[]) => {
-			if (a.length) return connect(...a);
-			return connect().then((conn) => {
-				if (!wrapped.has(conn)) (wrapped.add(conn), wrap(conn));
-				return conn;
-			});
-		};
-	}
+	// A pool: every statement runs on one of its connections (the pool's own `query` checks one out
+	// with a callback), so each connection is counted once, however it was checked out.
+	const connect = client.connect.bind(client);
+	client.connect = (...a: unknown[]) => {
+		const done = a[0] as ((err: unknown, conn: object, release: unknown) => void) | undefined;
+		if (typeof done === 'function') return connect((err: unknown, conn: object, release: unknown) => done(err, conn && watch(conn), release));
+		return (connect() as Promise<object>).then(watch);
+	};
 }
 
 let world: World;

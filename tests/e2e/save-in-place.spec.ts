@@ -1,0 +1,114 @@
+import { test, expect, type Page, type Request } from '@playwright/test';
+import { signIn, hydrated, demoGameId } from './helpers';
+
+/** Every reload of page data SvelteKit makes (its load functions answer at `__data.json`). */
+function dataReloads(page: Page): Request[] {
+	const seen: Request[] = [];
+	page.on('request', (r) => {
+		if (new URL(r.url()).pathname.endsWith('/__data.json')) seen.push(r);
+	});
+	return seen;
+}
+
+async function openMovementCard(page: Page, gameId: string, cardId?: string): Promise<string> {
+	await page.goto(`/games/${gameId}/kinds`);
+	await page.getByRole('link', { name: 'Movement cards' }).click();
+	await expect(page).toHaveURL(new RegExp(`/games/${gameId}/kinds/[^/?]+$`));
+	const kindPath = new URL(page.url()).pathname;
+	if (cardId) await page.goto(`${kindPath}?card=${cardId}`);
+	await hydrated(page);
+	return kindPath;
+}
+
+const cardRow = (page: Page, name: string) =>
+	page.getByRole('table', { name: 'Cards of this kind' }).getByRole('row').filter({ has: page.getByRole('link', { name, exact: true }) });
+
+/** Saves the card and reads the action's answer (SvelteKit sends a refusal as `failure` with its status). */
+async function save(page: Page, button = 'Save the card'): Promise<{ type: string; status: number }> {
+	const answer = page.waitForResponse((r) => r.request().method() === 'POST' && r.url().includes('/saveCard'));
+	await page.getByRole('button', { name: button }).click();
+	return (await answer).json();
+}
+
+test('a card save shows the saved card without reloading the page; the next save is checked against it, and a stale one still meets the conflict', async ({
+	page,
+	browser,
+	baseURL
+}) => {
+	test.setTimeout(120_000);
+	await signIn(page, 'designer@paddock.test');
+	const gameId = await demoGameId(page);
+	const kindPath = await openMovementCard(page, gameId);
+	// The second card of the kind, opened by its address.
+	const second = page.getByRole('table', { name: 'Cards of this kind' }).getByRole('row').nth(2).getByRole('link');
+	const cardId = new URL((await second.getAttribute('href'))!, page.url()).searchParams.get('card')!;
+	await openMovementCard(page, gameId, cardId);
+
+	const name = page.getByRole('textbox', { name: /^Card name/ });
+	const copies = page.getByRole('spinbutton', { name: 'Copies printed' });
+	const before = Number(await copies.inputValue());
+	const reloads = dataReloads(page);
+
+	await name.fill('Steady trot');
+	await copies.fill(String(before + 2));
+	expect(await save(page)).toMatchObject({ type: 'success', status: 200 });
+	await expect(page.getByRole('status').filter({ hasText: 'Saved.' })).toBeVisible();
+	// The card list shows the saved card from the save's answer.
+	await expect(cardRow(page, 'Steady trot')).toBeVisible();
+	await expect(cardRow(page, 'Steady trot').getByRole('cell').filter({ hasText: String(before + 2) }).first()).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'Edit “Steady trot”' })).toBeVisible();
+	await page.screenshot({ path: 'test-results/save-in-place-after-save.png', fullPage: true });
+
+	// A second person opens the same card now (at the version just saved).
+	const other = await browser.newContext({ baseURL });
+	const stale = await other.newPage();
+	await signIn(stale, 'owner@paddock.test');
+	await openMovementCard(stale, gameId, cardId);
+	await expect(stale.getByRole('textbox', { name: /^Card name/ })).toHaveValue('Steady trot');
+
+	// The first person saves again from the answered form: its version is the saved one, so no false conflict.
+	await copies.fill(String(before + 1));
+	expect(await save(page)).toMatchObject({ type: 'success', status: 200 });
+	await expect(page.getByRole('alert')).toHaveCount(0);
+	await expect(cardRow(page, 'Steady trot').getByRole('cell').filter({ hasText: String(before + 1) }).first()).toBeVisible();
+
+	// No load ran again after either save.
+	expect(reloads.map((r) => r.url())).toEqual([]);
+
+	// The second person's save is now stale: refused, with the reason, and nothing of theirs written.
+	await stale.getByRole('textbox', { name: /^Card name/ }).fill('Late change');
+	expect(await save(stale)).toMatchObject({ type: 'failure', status: 409 });
+	await expect(stale.getByRole('alert').filter({ hasText: 'Someone saved this card after you opened it' })).toBeVisible();
+	await stale.screenshot({ path: 'test-results/save-in-place-stale.png', fullPage: true });
+	await other.close();
+
+	// The saved form is not dirty: leaving asks nothing.
+	await page.getByRole('link', { name: 'Runners', exact: true }).click();
+	await expect(page).toHaveURL(`/games/${gameId}/runners`);
+	await expect(page.getByTestId('unsaved-prompt')).not.toBeVisible();
+
+	// What was saved is what the server holds.
+	await page.goto(`${kindPath}?card=${cardId}`);
+	await expect(page.getByRole('textbox', { name: /^Card name/ })).toHaveValue('Steady trot');
+	await expect(page.getByRole('spinbutton', { name: 'Copies printed' })).toHaveValue(String(before + 1));
+});
+
+test('a new card saved in place becomes the card the editor edits', async ({ page }) => {
+	test.setTimeout(120_000);
+	await signIn(page, 'designer@paddock.test');
+	const gameId = await demoGameId(page);
+	const kindPath = await openMovementCard(page, gameId);
+	await page.goto(`${kindPath}?card=new`);
+	await hydrated(page);
+	const reloads = dataReloads(page);
+	await page.getByRole('textbox', { name: /^Card name/ }).fill('Quick start');
+	expect(await save(page, 'Add the card')).toMatchObject({ type: 'success', status: 200 });
+	await expect(cardRow(page, 'Quick start')).toBeVisible();
+	// The address names the new card, and the editor now edits it rather than adding another.
+	await expect(page).toHaveURL(new RegExp(`card=[0-9a-f-]{36}`));
+	await expect(page.getByRole('button', { name: 'Save the card' })).toBeVisible();
+	await page.getByRole('spinbutton', { name: 'Copies printed' }).fill('3');
+	expect(await save(page)).toMatchObject({ type: 'success', status: 200 });
+	await expect(cardRow(page, 'Quick start')).toHaveCount(1);
+	expect(reloads.map((r) => r.url())).toEqual([]);
+});
