@@ -13,6 +13,8 @@ import * as tablesPage from '../../src/routes/(app)/games/[gameId=id]/money-tabl
 import * as runnersPage from '../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
 import * as kindPage from '../../src/routes/(app)/games/[gameId=id]/kinds/[kindId]/+page.server';
 import { withSaved } from '$lib/components/save-in-place';
+import * as objectApi from '../../src/routes/api/v1/games/[gameId=id]/[collection=collection]/[objectId]/+server';
+import * as settingsApi from '../../src/routes/api/v1/games/[gameId=id]/settings/+server';
 import type { Card } from '$lib/game/model';
 
 type Query = (...args: unknown[]) => Promise<unknown>;
@@ -140,5 +142,38 @@ describe('queries per request', () => {
 		const answer = (await runnersPage.actions.save(event)) as unknown as { status: number; data: { form: { message: { tone: string } } } };
 		expect(answer.status).toBe(409);
 		expect(answer.data.form.message.tone).toBe('error');
+	});
+
+	it('the API answers a save with the object as written, read in the same pass', async () => {
+		const runner = (await loadGame(world.db, world.gameId)).runners[3];
+		const { version, ...body } = runner;
+		const put = request(`/api/v1/games/${world.gameId}/runners/${runner.id}`, {
+			method: 'PUT',
+			params: { gameId: world.gameId, collection: 'runners', objectId: runner.id },
+			json: { ...body, name: 'Renamed by script', version }
+		});
+		let res: Response | undefined;
+		const n = await counted(async () => {
+			res = await objectApi.PUT(put);
+		});
+		expect(n).toBeLessThanOrEqual(9);
+		expect(res!.status).toBe(200);
+		expect((await res!.json()).runner).toMatchObject({ id: runner.id, name: 'Renamed by script', version: version! + 1 });
+	});
+
+	it('the settings API answers the settings as written and their version for the next save', async () => {
+		const game = await loadGame(world.db, world.gameId);
+		const put = (version: number, name: string) =>
+			settingsApi.PUT(
+				request(`/api/v1/games/${world.gameId}/settings`, {
+					method: 'PUT',
+					json: { version, rogueRunner: { ...game.rogueRunner!, version: undefined, name } }
+				})
+			);
+		const first = await put(game.rogueRunner!.version!, 'Rogue by script');
+		expect(first.status).toBe(200);
+		const answer = await first.json();
+		expect(answer.settings.rogueRunner).toMatchObject({ name: 'Rogue by script', version: answer.version });
+		expect((await put(answer.version, 'Rogue again')).status).toBe(200);
 	});
 });

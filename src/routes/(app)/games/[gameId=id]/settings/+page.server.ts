@@ -28,7 +28,12 @@ export const actions = {
 		if (!parsed.success) return fail(400, { error: parsed.error.issues[0].message });
 		try {
 			const press = await setGamePressProfile(d, actor, { profileId: parsed.data.profile || null });
-			return { saved: `The game prints PDF/X for ${press.conditionIdentifier} (${press.profileName}) unless a printer profile is chosen.` };
+			// The answer holds what the page shows of the choice, so the browser loads nothing again.
+			return {
+				saved: `The game prints PDF/X for ${press.conditionIdentifier} (${press.profileName}) unless a printer profile is chosen.`,
+				press,
+				pressProfileId: parsed.data.profile || null
+			};
 		} catch (e) {
 			const refused = answerFor(e);
 			if (refused) return fail(refused.status, { error: refused.message });

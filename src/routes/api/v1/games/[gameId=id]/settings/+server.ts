@@ -12,6 +12,8 @@ export const PUT: RequestHandler = api(async ({ locals, params, request }) => {
 	const { actor } = await requireGameRole(d, locals, params.gameId, 'game.edit');
 	const body = await readJson(request, SettingsRequestSchema);
 	const { version, ...settings } = body;
-	await saveSettings(d, actor, { settings, baseVersion: version });
-	return json({ ok: true });
+	const saved = await saveSettings(d, actor, { settings, baseVersion: version });
+	// The settings as written and their version, for the next save's check.
+	const { rogueRunner, raceRules } = saved.game;
+	return json({ ok: true, settings: { ...(rogueRunner ? { rogueRunner } : {}), ...(raceRules ? { raceRules } : {}) }, version: saved.version });
 });
