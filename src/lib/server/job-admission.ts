@@ -53,7 +53,7 @@ export class PrintQueueFull extends Busy {
 		readonly open: number,
 		readonly retryAfterS: number
 	) {
-		super(`The print queue is full (${open} builds waiting or running); try again in ${retryAfterS} s`);
+		super(`The print queue is full (${open} ${open === 1 ? 'build' : 'builds'} waiting or running); try again in ${retryAfterS} s`);
 	}
 }
 
