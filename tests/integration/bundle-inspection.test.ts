@@ -39,7 +39,7 @@ const gameCount = async () => (await w.db.select({ n: count() }).from(games).whe
 
 async function refused(zip: Uint8Array) {
 	const before = await gameCount();
-	const e = await importBundle(w.db, { teamId: w.teamId, userId: w.callers.designer!.id, zip }).then(
+	const e = await importBundle(w.db, actorIn(w, 'designer'), { zip }).then(
 		() => null,
 		(x) => x
 	);
@@ -75,7 +75,7 @@ describe('bundle import inspects art', () => {
 		const png = new PNG({ width: 640, height: 320 });
 		png.data.fill(90);
 		const bytes = new Uint8Array(PNG.sync.write(png));
-		const row = await importBundle(w.db, { teamId: w.teamId, userId: w.callers.designer!.id, zip: await bundleWith(bytes, 'image/png', 'fine.png') });
+		const row = await importBundle(w.db, actorIn(w, 'designer'), { zip: await bundleWith(bytes, 'image/png', 'fine.png') });
 		const { game } = await exportBundle(w.db, row.id);
 		const extra = game.art.find((a) => a.id === 'art-extra')!;
 		expect([extra.widthPx, extra.heightPx]).toEqual([640, 320]);

@@ -5,6 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { count, eq } from 'drizzle-orm';
 import { openWorld, fakeEvent, statusOf, type World, actorIn } from './harness';
+import { actorOf } from '$lib/server/actor';
 import { acceptInvitation, changeRole, invite, removeMember } from '$lib/server/teams';
 import { NotFound } from '$lib/server/refusals';
 import { invitations, users, games, caughtMail, memberships } from '$lib/server/db/schema';
@@ -47,23 +48,23 @@ describe('invitations', () => {
 		expect(mail.subject).toContain('Mossbank Games');
 		const token = mail.text.match(/\/invite\/(\S+)/)![1];
 		const joiner = await createUser(w.db, { email: 'new.artist@studio.test', name: 'New Artist', password: 'brushes-and-ink' });
-		await acceptInvitation(w.db, token, joiner);
+		await acceptInvitation(w.db, actorOf(joiner), { token });
 		const [m] = await w.db.select().from(memberships).where(eq(memberships.userId, joiner.id));
 		expect(m.role).toBe('artist');
-		await expect(acceptInvitation(w.db, token, joiner)).rejects.toThrow(/used already/);
+		await expect(acceptInvitation(w.db, actorOf(joiner), { token })).rejects.toThrow(/used already/);
 	});
 
 	it('an expired invitation is refused with a clear message', async () => {
 		const { invitation, token } = await invite(w.db, actorIn(w, 'owner'), { email: 'late@x.test', role: 'reviewer' });
 		await w.db.update(invitations).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(invitations.id, invitation.id));
 		const late = await createUser(w.db, { email: 'late@x.test', name: 'Late', password: 'too-late-again' });
-		await expect(acceptInvitation(w.db, token, late)).rejects.toThrow(/expired/);
+		await expect(acceptInvitation(w.db, actorOf(late), { token })).rejects.toThrow(/expired/);
 	});
 
 	it('an unknown token and the wrong account are refused', async () => {
-		await expect(acceptInvitation(w.db, 'inv_nonsense', w.callers.artist!)).rejects.toBeInstanceOf(NotFound);
+		await expect(acceptInvitation(w.db, actorOf(w.callers.artist!), { token: 'inv_nonsense' })).rejects.toBeInstanceOf(NotFound);
 		const { token } = await invite(w.db, actorIn(w, 'owner'), { email: 'someone@x.test', role: 'reviewer' });
-		await expect(acceptInvitation(w.db, token, w.callers.outsider!)).rejects.toThrow(/sent to someone@x.test/);
+		await expect(acceptInvitation(w.db, actorOf(w.callers.outsider!), { token })).rejects.toThrow(/sent to someone@x.test/);
 	});
 
 	it('inviting a member again answers 409 and writes nothing', async () => {

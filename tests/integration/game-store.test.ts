@@ -4,6 +4,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openWorld, type World, actorIn } from './harness';
+import { teamActorOf } from '$lib/server/actor';
 import { loadGame, applyChanges } from '$lib/server/game-store';
 import { Invalid } from '$lib/server/refusals';
 import { exportBundle, importBundle } from '$lib/server/game-io';
@@ -55,7 +56,7 @@ describe('game store', () => {
 
 	it('exports a bundle that imports into another team as the same game', async () => {
 		const { game, zip } = await exportBundle(w.db, w.gameId);
-		const row = await importBundle(w.db, { teamId: w.outsiderTeamId, userId: w.callers.outsider!.id, zip });
+		const row = await importBundle(w.db, teamActorOf(w.callers.outsider!, w.outsiderTeamId, 'owner'), { zip });
 		const copy = await loadGame(w.db, row.id);
 		expect(strip({ ...copy, slug: 'x' })).toEqual(strip({ ...game, slug: 'x' }));
 		const again = await exportBundle(w.db, row.id);
@@ -65,10 +66,10 @@ describe('game store', () => {
 	it('refuses a damaged or foreign zip and creates nothing', async () => {
 		const { zip } = await exportBundle(w.db, w.gameId);
 		const before = (await w.db.select().from(games)).length;
-		const by = { teamId: w.teamId, userId: w.callers.designer!.id };
-		await expect(importBundle(w.db, { ...by, zip: zip.slice(0, zip.length - 100) })).rejects.toBeInstanceOf(BundleError);
+		const by = actorIn(w, 'designer');
+		await expect(importBundle(w.db, by, { zip: zip.slice(0, zip.length - 100) })).rejects.toBeInstanceOf(BundleError);
 		const foreign = zipSync({ 'readme.txt': strToU8('not a game') });
-		await expect(importBundle(w.db, { ...by, zip: foreign })).rejects.toThrow(/game/i);
+		await expect(importBundle(w.db, by, { zip: foreign })).rejects.toThrow(/game/i);
 		expect((await w.db.select().from(games)).length).toBe(before);
 	});
 });

@@ -60,7 +60,7 @@ export async function openWorld(): Promise<World> {
 		password: 'outsider-pass-1'
 	});
 	callers.outsider = { id: outsider.id, email: outsider.email, name: outsider.name };
-	const outsiderTeam = await createTeam(database.db, outsider.id, 'Elsewhere Games');
+	const outsiderTeam = await createTeam(database.db, { userId: outsider.id, name: outsider.name }, { name: 'Elsewhere Games' });
 	const [game] = await database.db.select().from(games);
 	return {
 		db: database.db,

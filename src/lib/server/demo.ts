@@ -43,7 +43,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
 		const user = await createUser(db, { email: demoEmail(role), name: NAMES[role], password: DEMO_PASSWORD });
 		accounts.set(role, user.id);
 	}
-	const team = await createTeam(db, accounts.get('owner')!, 'Mossbank Games');
+	const team = await createTeam(db, { userId: accounts.get('owner')!, name: NAMES.owner }, { name: 'Mossbank Games' });
 	for (const role of DEMO_ROLES.filter((r) => r !== 'owner')) {
 		await db.insert(memberships).values({ teamId: team.id, userId: accounts.get(role)!, role });
 	}

@@ -4,7 +4,8 @@ import type { Db } from './db';
 import { artVersions } from './db/schema';
 import { readBundle, writeBundle } from '$lib/game/bundle';
 import type { Game } from '$lib/game/model';
-import { createGame, type Game as GameRow } from './games';
+import { insertGame, type Game as GameRow } from './games';
+import type { TeamActor } from './actor';
 import { loadGame, writeGameContent, gameProblems } from './game-store';
 import { Invalid } from './refusals';
 import { storeArtFile, readArtFile } from './art-files';
@@ -53,10 +54,8 @@ export async function createGameFrom(
 	for (const file of inspected.values()) await storeArtFile(db, file);
 	return db.transaction(async (tx) => {
 		const t = tx as unknown as Db;
-		const row = await createGame(t, {
-			teamId: input.teamId,
+		const row = await insertGame(t, input, {
 			name: input.game.name,
-			userId: input.userId,
 			bleedStandard: input.game.bleedStandard,
 			defaultCardSize: input.game.defaultSize.preset === 'custom' ? 'poker' : input.game.defaultSize.preset
 		});
@@ -85,10 +84,10 @@ export async function exportBundle(db: Db, gameId: string): Promise<{ game: Game
 }
 
 /** Imports a bundle as a new game of the team; a damaged or foreign zip throws BundleError. */
-export async function importBundle(db: Db, input: { teamId: string; userId: string; zip: Uint8Array }) {
-	const { game, art } = readBundle(input.zip);
-	const row = await createGameFrom(db, { teamId: input.teamId, userId: input.userId, game, art });
-	await logActivity(db, { teamId: input.teamId, gameId: row.id, userId: input.userId, action: 'game.imported', detail: { name: game.name } });
+export async function importBundle(db: Db, actor: TeamActor, { zip }: { zip: Uint8Array }) {
+	const { game, art } = readBundle(zip);
+	const row = await createGameFrom(db, { teamId: actor.teamId, userId: actor.userId, game, art });
+	await logActivity(db, { teamId: actor.teamId, gameId: row.id, userId: actor.userId, action: 'game.imported', detail: { name: game.name } });
 	return row;
 }
 

@@ -3,6 +3,7 @@ import { and, eq, asc } from 'drizzle-orm';
 import type { Db } from './db';
 import { games } from './db/schema';
 import { logActivity } from './activity';
+import type { TeamActor } from './actor';
 
 export type Game = typeof games.$inferSelect;
 
@@ -21,29 +22,35 @@ export async function gamesOf(db: Db, teamId: string) {
 	return db.select().from(games).where(eq(games.teamId, teamId)).orderBy(asc(games.name));
 }
 
-/** Creates the game with a slug unique in its team (a suffix is added when taken). */
-export async function createGame(
-	db: Db,
-	input: {
-		teamId: string;
-		name: string;
-		userId: string;
-		bleedStandard?: 'metric' | 'us';
-		defaultCardSize?: string;
-	}
-): Promise<Game> {
+/** What a new game starts from. */
+export interface NewGame {
+	name: string;
+	bleedStandard?: 'metric' | 'us';
+	defaultCardSize?: string;
+}
+
+/** A member creates a game in their team. */
+export function createGame(db: Db, actor: TeamActor, input: NewGame): Promise<Game> {
+	return insertGame(db, { teamId: actor.teamId, userId: actor.userId }, input);
+}
+
+/**
+ * Inserts the game row with a slug unique in its team (a suffix is added when taken). The seed,
+ * imports and copies call it with the team and the person the game is logged for.
+ */
+export async function insertGame(db: Db, owner: { teamId: string; userId: string }, input: NewGame): Promise<Game> {
 	const base = slugify(input.name);
 	for (let n = 1; ; n++) {
 		const slug = n === 1 ? base : `${base}-${n}`;
 		const [taken] = await db
 			.select({ id: games.id })
 			.from(games)
-			.where(and(eq(games.teamId, input.teamId), eq(games.slug, slug)));
+			.where(and(eq(games.teamId, owner.teamId), eq(games.slug, slug)));
 		if (taken) continue;
 		const [game] = await db
 			.insert(games)
 			.values({
-				teamId: input.teamId,
+				teamId: owner.teamId,
 				name: input.name.trim(),
 				slug,
 				bleedStandard: input.bleedStandard ?? 'metric',
@@ -51,9 +58,9 @@ export async function createGame(
 			})
 			.returning();
 		await logActivity(db, {
-			teamId: input.teamId,
+			teamId: owner.teamId,
 			gameId: game.id,
-			userId: input.userId,
+			userId: owner.userId,
 			action: 'game.created',
 			detail: { name: game.name }
 		});

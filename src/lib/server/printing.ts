@@ -9,6 +9,7 @@ import { findProfile, pressProfileOf } from './printer-profiles';
 import { Busy, Invalid, NotFound } from './refusals';
 import { logActivity } from './activity';
 import type { Db } from './db';
+import type { GameActor } from './actor';
 import type { Game } from '$lib/game/model';
 import { printPool, PrintBusyError, type PrintJob, type PrintJobResult } from '$lib/print/pool';
 import { PNG_DPI_DEFAULT, PNG_DPI_MAX, PNG_DPI_MIN, zipPngParts } from '$lib/print/png-job';
@@ -30,6 +31,8 @@ export interface PrintSource {
 	gameId: string;
 	teamId: string;
 	userId: string;
+	/** Who asked for the print: downloads are logged in their name. */
+	actor: GameActor;
 	/** "proof 3" or "working copy", printed in the sheet label. */
 	versionLabel: string;
 	proofNumber?: number;
@@ -109,13 +112,13 @@ export async function runPrint(
 	}
 }
 
-export async function logDownload(db: Db, source: PrintSource, what: string) {
+export async function logDownload(db: Db, actor: GameActor, { what, proofNumber }: { what: string; proofNumber?: number }) {
 	await logActivity(db, {
-		teamId: source.teamId,
-		gameId: source.gameId,
-		userId: source.userId,
+		teamId: actor.teamId,
+		gameId: actor.gameId,
+		userId: actor.userId,
 		action: 'print.downloaded',
-		detail: { what, ...(source.proofNumber ? { proof: source.proofNumber } : {}) }
+		detail: { what, ...(proofNumber ? { proof: proofNumber } : {}) }
 	});
 }
 

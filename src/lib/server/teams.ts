@@ -5,11 +5,13 @@ import { teams, memberships, invitations, users, type Role } from './db/schema';
 import { newToken, sha256 } from './auth/secrets';
 import { logActivity } from './activity';
 import { NotFound, Conflict, Invalid, Refusal } from './refusals';
-import type { TeamActor } from './actor';
+import type { Actor, TeamActor } from './actor';
 
 export const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
-export async function createTeam(db: Db, ownerId: string, name: string) {
+/** A signed-in person starts a team and is its first owner. */
+export async function createTeam(db: Db, actor: Actor, { name }: { name: string }) {
+	const ownerId = actor.userId;
 	return db.transaction(async (tx) => {
 		const [team] = await tx.insert(teams).values({ name }).returning();
 		await tx.insert(memberships).values({ teamId: team.id, userId: ownerId, role: 'owner' });
@@ -97,9 +99,11 @@ export async function findInvitation(db: Db, token: string) {
 	return { ...invitation, teamName: row.teamName };
 }
 
-export async function acceptInvitation(db: Db, token: string, user: { id: string; email: string }) {
+/** The signed-in person accepts an invitation sent to their own address. */
+export async function acceptInvitation(db: Db, actor: Actor, { token }: { token: string }) {
 	const invitation = await findInvitation(db, token);
-	if (invitation.email !== user.email.toLowerCase()) {
+	const [user] = await db.select({ id: users.id, email: users.email }).from(users).where(eq(users.id, actor.userId));
+	if (!user || invitation.email !== user.email.toLowerCase()) {
 		throw new Invalid(`This invitation was sent to ${invitation.email}. Sign in with that address to accept it.`
 		);
 	}

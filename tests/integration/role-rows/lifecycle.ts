@@ -1,7 +1,7 @@
 /** Rows of the role × route table: deleting and duplicating a game. */
 import type { Row } from '../role-table';
 import { as, g, onlyOwner, designers } from '../role-table';
-import { statusOf, type World } from '../harness';
+import { actorIn, statusOf, type World } from '../harness';
 import { createGame } from '$lib/server/games';
 import * as gameApi from '../../../src/routes/api/v1/games/[gameId=id]/+server';
 import * as duplicateApi from '../../../src/routes/api/v1/games/[gameId=id]/duplicate/+server';
@@ -10,7 +10,7 @@ import * as overviewPage from '../../../src/routes/(app)/games/[gameId=id]/+page
 
 /** A throw-away game of the team, so a caller allowed to delete deletes only it. */
 async function scratchGame(w: World, who: string) {
-	return createGame(w.db, { teamId: w.teamId, name: `Scratch for ${who}`, userId: w.callers.owner!.id });
+	return createGame(w.db, actorIn(w, 'owner'), { name: `Scratch for ${who}` });
 }
 
 export const rows: Row[] = [

@@ -42,7 +42,7 @@ export async function sheetsPdf(event: Ev) {
 	const options = await printOptions(d, source, event.url.searchParams);
 	const { onProgress: _none, ...plain } = options;
 	const result = await runPrint({ type: 'sheets', isolated: !!source.proofNumber, game: source.game, art: await artBytes(source.game), options: plain });
-	await logDownload(d, source, 'sheets');
+	await logDownload(d, source.actor, { what: 'sheets', proofNumber: source.proofNumber });
 	return fileResponse(result.bytes, 'application/pdf', sheetsName(source, options), result.warnings);
 }
 
@@ -67,7 +67,7 @@ export async function pressPdf(event: Ev) {
 		cardId,
 		options: { colour, cropMarks: marks, date: source.date, ...(pdfx ? { pdfx } : {}) }
 	});
-	await logDownload(d, source, `press:${cardId}`);
+	await logDownload(d, source.actor, { what: `press:${cardId}`, proofNumber: source.proofNumber });
 	return fileResponse(result.bytes, 'application/pdf', pressName(source, cardId), result.warnings);
 }
 
@@ -76,6 +76,6 @@ export async function cardsZip(event: Ev) {
 	const source = await printSource(d, event.locals, event.params.gameId, event.params.proofId);
 	const dpi = pngDpi(event.url.searchParams.get('dpi'));
 	const result = await buildPngZip(source.game, await artBytes(source.game), { dpi, isolated: !!source.proofNumber });
-	await logDownload(d, source, 'pngs');
+	await logDownload(d, source.actor, { what: 'pngs', proofNumber: source.proofNumber });
 	return fileResponse(result.bytes, 'application/zip', pngZipName(source, dpi), result.warnings);
 }

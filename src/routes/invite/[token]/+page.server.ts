@@ -1,7 +1,7 @@
 import { error, fail, redirect } from '@sveltejs/kit';
 import { db } from '$lib/server/runtime';
 import { acceptInvitation, findInvitation } from '$lib/server/teams';
-import { requireUser } from '$lib/server/http/guard';
+import { actorOf, requireUser } from '$lib/server/http/guard';
 import { answerFor } from '$lib/server/http/answers';
 
 async function lookUp(token: string) {
@@ -28,7 +28,7 @@ export const actions = {
 	accept: async ({ params, locals }) => {
 		const user = requireUser(locals);
 		try {
-			const invitation = await acceptInvitation(await db(), params.token, user);
+			const invitation = await acceptInvitation(await db(), actorOf(user), { token: params.token });
 			redirect(303, `/teams/${invitation.teamId}`);
 		} catch (e) {
 			const refused = answerFor(e);

@@ -27,22 +27,22 @@ export const load = async ({ locals, params }) => {
 export const actions = {
 	createGame: async ({ request, locals, params }) => {
 		const d = await db();
-		const { user } = await requireRole(d, locals, params.teamId, 'game.create');
+		const { actor } = await requireRole(d, locals, params.teamId, 'game.create');
 		const form = await superValidate(request, zod4(gameCreateSchema));
 		if (!form.valid) return fail(400, { form });
-		const game = await createGame(d, { ...form.data, teamId: params.teamId, userId: user.id });
+		const game = await createGame(d, actor, form.data);
 		redirect(303, `/games/${game.id}`);
 	},
 	importGame: async ({ request, locals, params }) => {
 		const d = await db();
-		const { user } = await requireRole(d, locals, params.teamId, 'game.create');
+		const { actor } = await requireRole(d, locals, params.teamId, 'game.create');
 		const declared = Number(request.headers.get('content-length') ?? 0);
 		if (declared > MAX_BUNDLE_UNCOMPRESSED_BYTES) return fail(413, { importError: 'The bundle is too large.' });
 		const file = (await request.formData()).get('bundle');
 		if (!(file instanceof File) || file.size === 0) return fail(400, { importError: 'Choose a game bundle (.zip) to import.' });
 		let gameId: string;
 		try {
-			gameId = (await importBundle(d, { teamId: params.teamId, userId: user.id, zip: new Uint8Array(await file.arrayBuffer()) })).id;
+			gameId = (await importBundle(d, actor, { zip: new Uint8Array(await file.arrayBuffer()) })).id;
 		} catch (e) {
 			if (e instanceof BundleError || e instanceof Refusal) return fail(400, { importError: `Nothing was imported: ${e.message}` });
 			throw e;

@@ -1,7 +1,7 @@
 import type { RequestHandler } from './$types';
 import { json } from '@sveltejs/kit';
 import { api, readJson } from '$lib/server/http/api';
-import { requireUser } from '$lib/server/http/guard';
+import { actorOf, requireUser } from '$lib/server/http/guard';
 import { db } from '$lib/server/runtime';
 import { createTeam, membershipsOf } from '$lib/server/teams';
 import { teamSchema } from '$lib/schemas/account';
@@ -14,6 +14,6 @@ export const GET: RequestHandler = api(async ({ locals }) => {
 export const POST: RequestHandler = api(async ({ locals, request }) => {
 	const user = requireUser(locals);
 	const input = await readJson(request, teamSchema);
-	const team = await createTeam(await db(), user.id, input.name);
+	const team = await createTeam(await db(), actorOf(user), input);
 	return json({ team: { id: team.id, name: team.name } }, { status: 201 });
 });

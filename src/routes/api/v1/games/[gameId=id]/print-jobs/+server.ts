@@ -15,11 +15,11 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	if (input.kind === 'pngs') {
 		const kinds = input.query.kinds ? input.query.kinds.split(',').filter(Boolean) : undefined;
 		const job = await startPngJob(d, source, { dpi: pngDpi(input.query.dpi), kinds });
-		await logDownload(d, source, 'pngs');
+		await logDownload(d, source.actor, { what: 'pngs', proofNumber: source.proofNumber });
 		return json(jobState(job), { status: 202 });
 	}
 	const options = await printOptions(d, source, new URLSearchParams(input.query));
 	const job = await startSheetJob(d, source, options);
-	await logDownload(d, source, 'sheets');
+	await logDownload(d, source.actor, { what: 'sheets', proofNumber: source.proofNumber });
 	return json(jobState(job), { status: 202 });
 });

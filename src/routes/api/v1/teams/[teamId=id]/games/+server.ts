@@ -23,8 +23,8 @@ export const GET: RequestHandler = api(async ({ locals, params }) => {
 
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user } = await requireRole(d, locals, params.teamId, 'game.create');
+	const { actor } = await requireRole(d, locals, params.teamId, 'game.create');
 	const input = await readJson(request, gameCreateSchema);
-	const game = await createGame(d, { ...input, teamId: params.teamId, userId: user.id });
+	const game = await createGame(d, actor, input);
 	return json({ game: publicGame(game) }, { status: 201 });
 });

@@ -10,7 +10,7 @@ import { Invalid, Refusal } from '$lib/server/refusals';
 /** A game bundle as the request body (application/zip) or as the `file` of a multipart form. */
 export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	const d = await db();
-	const { user } = await requireRole(d, locals, params.teamId, 'game.create');
+	const { actor } = await requireRole(d, locals, params.teamId, 'game.create');
 	let zip: Uint8Array;
 	if ((request.headers.get('content-type') ?? '').startsWith('multipart/form-data')) {
 		const declared = Number(request.headers.get('content-length') ?? 0);
@@ -23,7 +23,7 @@ export const POST: RequestHandler = api(async ({ locals, params, request }) => {
 	}
 	if (zip.byteLength === 0) throw new Invalid('The request has no bundle in it');
 	try {
-		const game = await importBundle(d, { teamId: params.teamId, userId: user.id, zip });
+		const game = await importBundle(d, actor, { zip });
 		return json({ id: game.id, name: game.name, slug: game.slug }, { status: 201 });
 	} catch (e) {
 		if (e instanceof BundleError) throw new Invalid(e.message, undefined, 'bad_bundle');
