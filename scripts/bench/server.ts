@@ -166,6 +166,12 @@ export async function sheetJob(s: Session, url: string, query: Record<string, st
  * them editing a card now and then (new faces for the caches), a sheet build every ~20 s and a
  * PNG zip every ~2 min.
  */
+/** A card from the list as the save takes it: without the fields the list adds for reading. */
+function withoutListFields(card: Session['cards'][number]) {
+	const { kind: _kind, kindName: _name, ...own } = card as typeof card & { kind?: string; kindName?: string };
+	return own;
+}
+
 export async function mixedLoad(server: Server, s: Session, ms: number, clients = 4) {
 	const end = Date.now() + ms;
 	const etags = new Map<string, string>();
@@ -192,7 +198,8 @@ export async function mixedLoad(server: Server, s: Session, ms: number, clients 
 			const res = await fetch(`${server.url}/api/v1/games/${s.gameId}/cards/${card.id}`, {
 				method: 'PUT',
 				headers: { ...s.headers, 'content-type': 'application/json' },
-				body: JSON.stringify({ ...card, name: `${card.name.replace(/ \(\d+\)$/, '')} (${++edits})` })
+				// The list adds the kind's type and name for reading; a save sends the card's own fields only.
+				body: JSON.stringify({ ...withoutListFields(card), name: `${card.name.replace(/ \(\d+\)$/, '')} (${++edits})` })
 			});
 			const saved = (await res.json()) as { card?: { version: number; name: string } };
 			if (saved.card) Object.assign(card, { version: saved.card.version, name: saved.card.name });

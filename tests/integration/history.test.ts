@@ -87,6 +87,22 @@ describe('history and restore', () => {
 		expect((await restore('owner', deleted.id, null)).status).toBe(409);
 	});
 
+	it('a restore of something deleted since it was looked at is stale (409), and a missing version is named', async () => {
+		const id = 'history-gone';
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id, baseVersion: null, object: { id, name: 'Gone soon', rows: [], otherCoins: 0 } }], action: 'test' });
+		const table = (await loadGame(w.db, w.gameId)).moneyTables.find((t) => t.id === id)!;
+		const [saved] = await historyOf(w.db, w.gameId, { collection: 'moneyTable', objectId: id, limit: 5 });
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id, baseVersion: table.version, remove: true }], action: 'test' });
+		// The person still sees version 1 in front of them.
+		const stale = await restore('designer', saved.id, table.version!);
+		expect(stale.status).toBe(409);
+		expect(stale.body.error!.message).toMatch(/deleted after you opened its history/);
+		const missing = await restoreApi.POST(ev('designer', { method: 'POST', params: { gameId: w.gameId, versionId: saved.id }, json: {} }));
+		expect(missing.status).toBe(400);
+		expect(((await missing.json()) as { error: { message: string } }).error.message).toMatch(/null when it is deleted/);
+		expect((await loadGame(w.db, w.gameId)).moneyTables.some((t) => t.id === id)).toBe(false);
+	});
+
 	it("answers 404 to another team's caller, 403 to those who may not edit it, and changes nothing", async () => {
 		const now = (await loadGame(w.db, w.gameId)).runners[0];
 		const first = (await historyOf(w.db, w.gameId, { collection: 'runner', objectId: now.id, limit: 500 })).at(-1)!;

@@ -198,6 +198,10 @@ export async function applyChanges(
 					});
 				}
 				if (change.baseVersion !== null && !row) {
+					// A restore of something deleted since the person looked: their view is stale, not the object missing.
+					if (change.restoredFrom !== undefined) {
+						throw new Conflict(`This ${NOUN[change.collection]} was deleted after you opened its history (you saw version ${change.baseVersion}). Reload the history to restore it as a deleted ${NOUN[change.collection]}.`);
+					}
 					throw new NotFound(`No ${NOUN[change.collection]} with id ${change.id}`);
 				}
 				if (row && change.baseVersion !== null && row.version !== change.baseVersion) {

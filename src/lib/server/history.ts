@@ -45,7 +45,8 @@ export const HistoryQuerySchema = z.object({
 });
 
 /** `version`: the object's version the person saw (null when they saw it deleted). */
-export const RestoreSchema = z.strictObject({ version: z.int().min(1).nullable() });
+const SEEN_VERSION = 'Give "version": the version of the object you saw, as a whole number, or null when it is deleted.';
+export const RestoreSchema = z.strictObject({ version: z.int({ error: SEEN_VERSION }).min(1, SEEN_VERSION).nullable() });
 
 /** What to restore: one stored version, and the version of the object the caller saw. */
 export type RestoreRequest = z.infer<typeof RestoreSchema> & { versionId: string };
