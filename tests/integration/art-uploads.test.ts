@@ -324,8 +324,18 @@ describe('valid uploads', () => {
 				params: g(w),
 				form: { __superform_id: 'placement', ...superformJson({ id: pebble.id, status: 'final', assignment: { scope: 'kind', targetId: 'kd-setup', slot: 'backArt' }, version: pebble.version }) }
 			})
-		)) as { form: { message: string } };
+		)) as {
+			form: { message: string; data: { version: number } };
+			saved: { art: { id: string; version: number; place: string | null }[]; places: { options: { key: string; holder: { id: string } | null }[] }[] };
+		};
 		expect(result.form.message).toMatch(/^Saved\. It prints on Setup cards · Card back \(shared by every card\)\. “setup-back-v3\.png” no longer prints there/);
+		// The answer holds what the page shows after the move, so the browser needs no reload: the new
+		// version for the next save, where each piece now prints, and who holds the place.
+		expect(result.form.data.version).toBe(pebble.version! + 1);
+		expect(result.saved.art.find((a) => a.id === pebble.id)).toMatchObject({ version: pebble.version! + 1, place: 'Setup cards · Card back (shared by every card)' });
+		expect(result.saved.art.find((a) => a.id === first.id)?.place).toBeNull();
+		const place = result.saved.places.flatMap((p) => p.options).find((o) => o.holder?.id === pebble.id);
+		expect(place).toBeDefined();
 		const after = await loadGame(w.db, w.gameId);
 		expect(after.art.find((a) => a.id === first.id)?.assignment).toBeNull();
 		expect(after.art.find((a) => a.id === pebble.id)?.assignment).toEqual({ scope: 'kind', targetId: 'kd-setup', slot: 'backArt' });

@@ -202,7 +202,10 @@ export async function placeAction(event: ArtEvent) {
 	try {
 		const { art, displaced, game: after } = await placeArt(d, actor, form.data);
 		const where = art.assignment ? `It prints on ${describeAssignment(after, art.assignment)}.` : 'It is not assigned to a slot.';
-		return message(form, `Saved. ${where}${displacedNote(displaced)}`);
+		// The form stands for the piece as saved, so the next save is checked against its new version.
+		form.data = { id: art.id, status: art.status, assignment: art.assignment ?? null, version: art.version };
+		form.message = `Saved. ${where}${displacedNote(displaced)}`;
+		return { form, game: after };
 	} catch (e) {
 		const refused = answerFor(e);
 		if (refused) return message(form, refused.message, { status: refused.status });

@@ -7,18 +7,13 @@ import { ArtPlacementSchema, ReplaceFormSchema, UploadFormSchema } from '$lib/sc
 import { artPlaces, artPrintChecks, describeAssignment, placeKey } from '$lib/art/placement';
 import { MAX_ART_BYTES } from '$lib/art/inspect';
 import { MIN_PRINT_DPI } from '$lib/game/art-check';
-import type { ArtAssignment } from '$lib/game/model';
+import type { ArtAssignment, Game } from '$lib/game/model';
 import { loadFonts } from '$lib/print/fonts';
 import { db } from '$lib/server/runtime';
 
-/** The game's art, where each piece prints and how sharp, its files over time, and the forms. */
-export const load = async ({ locals, params, url }) => {
-	const d = await db();
-	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
-	const gameId = params.gameId;
+/** What the page shows of each piece and of each place, from the game (the load's and a placement's answer). */
+async function artView(game: Game) {
 	const checks = artPrintChecks(game, await loadFonts());
-	const versions = await artVersionsByArt(d, gameId);
-
 	const art = game.art.map((a) => {
 		const check = checks.get(a.id)!;
 		const worst = check.worst;
@@ -37,29 +32,43 @@ export const load = async ({ locals, params, url }) => {
 				ok: worst ? worst.resolution.ok : true,
 				neededPx: worst?.resolution.neededPx ?? null,
 				warnings: worst?.resolution.warnings ?? []
-			},
-			versions: (versions.get(a.id) ?? []).map((v) => ({
-				number: v.number,
-				sha256: v.sha256,
-				fileName: v.fileName,
-				createdAt: v.createdAt,
-				uploadedBy: v.uploadedBy,
-				widthPx: v.widthPx,
-				heightPx: v.heightPx,
-				dpiX: v.dpiX,
-				bytes: v.bytes
-			}))
+			}
 		};
 	});
 
 	// The slot picker, grouped; each place says which art holds it now (the first assigned).
-	const groups: { group: string; options: { key: string; label: string; assignment: ArtAssignment; holder: { id: string; fileName: string } | null }[] }[] = [];
+	const places: { group: string; options: { key: string; label: string; assignment: ArtAssignment; holder: { id: string; fileName: string } | null }[] }[] = [];
 	for (const p of artPlaces(game)) {
 		const holder = game.art.find((a) => a.assignment && placeKey(a.assignment) === p.key);
-		let group = groups.find((g) => g.group === p.group);
-		if (!group) groups.push((group = { group: p.group, options: [] }));
+		let group = places.find((g) => g.group === p.group);
+		if (!group) places.push((group = { group: p.group, options: [] }));
 		group.options.push({ key: p.key, label: p.label, assignment: p.assignment, holder: holder ? { id: holder.id, fileName: holder.fileName } : null });
 	}
+	return { art, places };
+}
+export type ArtView = Awaited<ReturnType<typeof artView>>;
+
+/** The game's art, where each piece prints and how sharp, its files over time, and the forms. */
+export const load = async ({ locals, params, url }) => {
+	const d = await db();
+	const { doc: game } = await requireGame(d, locals, params.gameId, 'game.read');
+	const versions = await artVersionsByArt(d, params.gameId);
+	const view = await artView(game);
+	const art = view.art.map((a) => ({
+		...a,
+		versions: (versions.get(a.id) ?? []).map((v) => ({
+			number: v.number,
+			sha256: v.sha256,
+			fileName: v.fileName,
+			createdAt: v.createdAt,
+			uploadedBy: v.uploadedBy,
+			widthPx: v.widthPx,
+			heightPx: v.heightPx,
+			dpiX: v.dpiX,
+			bytes: v.bytes
+		}))
+	}));
+	const groups = view.places;
 
 	const selected = art.find((a) => a.id === url.searchParams.get('art')) ?? art[0] ?? null;
 	const took = url.searchParams.getAll('took').map((id) => game.art.find((a) => a.id === id)?.fileName).filter(Boolean);
@@ -95,5 +104,9 @@ export const load = async ({ locals, params, url }) => {
 export const actions = {
 	upload: uploadAction,
 	replace: replaceAction,
-	save: placeAction
+	/** A placement changes where pieces print and which places they hold: the answer carries both. */
+	save: async (event) => {
+		const answer = await placeAction(event);
+		return 'game' in answer ? { form: answer.form, saved: await artView(answer.game) } : answer;
+	}
 };
