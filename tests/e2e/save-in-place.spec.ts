@@ -116,3 +116,30 @@ test('a new card saved in place becomes the card the editor edits', async ({ pag
 	await expect(cardRow(page, 'Quick start')).toHaveCount(1);
 	expect(reloads.map((r) => r.url())).toEqual([]);
 });
+
+test('an art placement saved in place shows where the piece prints now, and the next save is checked against it', async ({ page }) => {
+	test.setTimeout(120_000);
+	await signIn(page, 'artist@paddock.test');
+	const gameId = await demoGameId(page);
+	await page.goto(`/games/${gameId}/art`);
+	await hydrated(page);
+	const printsOn = page.locator('dt', { hasText: 'Prints on' }).locator('xpath=following-sibling::dd[1]');
+	await expect(printsOn).not.toHaveText('Not assigned');
+	const reloads = dataReloads(page);
+	const saveArt = async () => {
+		const answer = page.waitForResponse((r) => r.request().method() === 'POST' && r.url().includes('/save'));
+		await page.getByRole('button', { name: 'Save status and slot' }).click();
+		return (await answer).json();
+	};
+
+	await page.getByLabel('Slot', { exact: true }).selectOption({ label: 'Not yet (assign it later)' });
+	expect(await saveArt()).toMatchObject({ type: 'success' });
+	await expect(page.getByText(/^Saved\. It is not assigned to a slot\./)).toBeVisible();
+	await expect(printsOn).toHaveText('Not assigned');
+
+	await page.getByLabel('Status', { exact: true }).selectOption('sketch');
+	expect(await saveArt()).toMatchObject({ type: 'success' });
+	await expect(page.getByText(/^Saved\./)).toBeVisible();
+	expect(reloads.map((r) => r.url())).toEqual([]);
+	await page.screenshot({ path: 'test-results/save-in-place-art.png', fullPage: true });
+});
