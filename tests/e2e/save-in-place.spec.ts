@@ -132,12 +132,12 @@ test('an art placement saved in place shows where the piece prints now, and the 
 		return (await answer).json();
 	};
 
-	await page.getByLabel('Slot', { exact: true }).selectOption({ label: 'Not yet (assign it later)' });
+	await page.getByRole('combobox', { name: /^Slot/ }).selectOption({ label: 'Not yet (assign it later)' });
 	expect(await saveArt()).toMatchObject({ type: 'success' });
 	await expect(page.getByText(/^Saved\. It is not assigned to a slot\./)).toBeVisible();
 	await expect(printsOn).toHaveText('Not assigned');
 
-	await page.getByLabel('Status', { exact: true }).selectOption('sketch');
+	await page.getByRole('combobox', { name: /^Status/ }).selectOption('sketch');
 	expect(await saveArt()).toMatchObject({ type: 'success' });
 	await expect(page.getByText(/^Saved\./)).toBeVisible();
 	expect(reloads.map((r) => r.url())).toEqual([]);
