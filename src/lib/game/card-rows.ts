@@ -3,7 +3,7 @@
  * money tables by name), sorting by a column and a text filter. Plain data in and out, so the
  * browser table and the server's import preview read the cards the same way.
  */
-import { type Card, type CardKind, type MoneyTable, type RogueRunner, type Runner } from './model';
+import { type Card, type CardKind, type MoneyTable, type RogueRunner, type Runner, type RunnerLook } from './model';
 import { BET_LABEL, TILE_ROLE_LABEL } from './labels';
 
 export interface Column {
@@ -26,7 +26,7 @@ export interface CardRow {
 }
 
 export interface RowContext {
-	runners: readonly Pick<Runner, 'id' | 'name' | 'colourHex' | 'symbol'>[];
+	runners: readonly RunnerLook[];
 	rogue?: Pick<RogueRunner, 'name'> | null;
 	moneyTables: readonly Pick<MoneyTable, 'id' | 'name' | 'rows' | 'otherCoins'>[];
 }

@@ -70,6 +70,8 @@ export const RunnerSchema = z.strictObject({
 	version: VersionSchema
 });
 export type Runner = z.infer<typeof RunnerSchema>;
+/** What a runner looks like wherever it is shown: its name, colour and symbol. */
+export type RunnerLook = Pick<Runner, 'id' | 'name' | 'colourHex' | 'symbol'>;
 
 /** The wrong-way runner: like a runner, but outside the finishing order. */
 export const RogueRunnerSchema = RunnerSchema.omit({ sortOrder: true });
