@@ -137,7 +137,9 @@ test('an art placement saved in place shows where the piece prints now, and the 
 	await expect(page.getByText(/^Saved\. It is not assigned to a slot\./)).toBeVisible();
 	await expect(printsOn).toHaveText('Not assigned');
 
-	await page.getByRole('combobox', { name: /^Status/ }).selectOption('sketch');
+	// The page has other Status fields (upload, replace): take the one in the placement's own form.
+	const placement = page.locator('form', { has: page.getByRole('button', { name: 'Save status and slot' }) });
+	await placement.getByRole('combobox', { name: /^Status/ }).selectOption('sketch');
 	expect(await saveArt()).toMatchObject({ type: 'success' });
 	await expect(page.getByText(/^Saved\./)).toBeVisible();
 	expect(reloads.map((r) => r.url())).toEqual([]);
