@@ -68,7 +68,7 @@ async function queueJob(db: Db, source: PrintSource, request: SheetRequest | Png
 	const row = await admitPrintJob(db, async (tx) => {
 		const [inserted] = await tx
 			.insert(printJobs)
-			.values({ userId: source.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, fileName })
+			.values({ userId: source.actor.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, fileName })
 			.returning(FOLLOWED);
 		return inserted;
 	});
@@ -101,7 +101,7 @@ async function finishedAlready(db: Db, source: PrintSource, request: SheetReques
 		const [row] = await tx
 			.insert(printJobs)
 			.values({
-				userId: source.userId,
+				userId: source.actor.userId,
 				gameId: source.gameId,
 				request: done.request,
 				fileName,

@@ -30,8 +30,7 @@ export interface PrintSource {
 	game: Game;
 	gameId: string;
 	teamId: string;
-	userId: string;
-	/** Who asked for the print: downloads are logged in their name. */
+	/** Who asked for the print: jobs and downloads are logged in their name. */
 	actor: GameActor;
 	/** "proof 3" or "working copy", printed in the sheet label. */
 	versionLabel: string;

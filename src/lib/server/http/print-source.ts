@@ -12,12 +12,11 @@ import type { Db } from '../db';
 /** The working game (readers of the game) or a proof (printers: released proofs only). */
 export async function printSource(db: Db, locals: App.Locals, gameId: string, proofKey?: string): Promise<PrintSource> {
 	if (proofKey) {
-		const { proof, user, game, actor } = await requireProof(db, locals, gameId, proofKey);
+		const { proof, game, actor } = await requireProof(db, locals, gameId, proofKey);
 		return {
 			game: snapshotOf(proof),
 			gameId,
 			teamId: game.teamId,
-			userId: user.id,
 			actor,
 			versionLabel: `proof ${proof.number}`,
 			proofNumber: proof.number,
@@ -27,12 +26,11 @@ export async function printSource(db: Db, locals: App.Locals, gameId: string, pr
 	}
 	const { role } = await requireGameRole(db, locals, gameId, 'release.read');
 	if (!may(role, 'game.read')) throw new NotAllowed('Printers print released proofs; open the proof to download its files');
-	const { user, game, doc, actor } = await requireGame(db, locals, gameId, 'release.read');
+	const { game, doc, actor } = await requireGame(db, locals, gameId, 'release.read');
 	return {
 		game: doc,
 		gameId,
 		teamId: game.teamId,
-		userId: user.id,
 		actor,
 		versionLabel: `working copy v${game.version}`,
 		date: new Date().toISOString().slice(0, 10),
