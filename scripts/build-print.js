@@ -9,7 +9,40 @@ import { join } from 'node:path';
 import { build } from 'esbuild';
 
 /** Packages the CLI loads from node_modules: WebAssembly beside their JavaScript, or loaded lazily. */
-const CLI_EXTERNAL = ['@resvg/resvg-wasm', 'wawoff2', 'lcms-wasm', 'jimp', '@pdf-lib/fontkit'];
+const CLI_EXTERNAL = ['@resvg/resvg-wasm', 'wawoff2', 'lcms-wasm', 'jimp'];
+
+/**
+ * fontkit inside the CLI's bundle, so the V8 code cache covers it too (compiling its 1.2 MB was a
+ * good part of a first run), still started only on first use: esbuild evaluates a module that
+ * is reached by `require` when it is first required. Its WOFF2 decoder's dictionary is unpacked
+ * on first use too, not at start: the CLI hands fontkit TrueType only (../src/lib/print/fonts.ts).
+ * @type {import('esbuild').Plugin}
+ */
+const fontkitInBundle = {
+	name: 'fontkit-in-bundle',
+	setup(b) {
+		b.onResolve({ filter: /\/fontkit-module$/ }, () => ({ path: 'fontkit-module', namespace: 'paddock-cli' }));
+		b.onLoad({ filter: /.*/, namespace: 'paddock-cli' }, () => ({
+			resolveDir: root,
+			loader: 'js',
+			contents: `let fontkit;\nexport function fontkitModule() {\n\treturn (fontkit ??= require('@pdf-lib/fontkit').default);\n}\n`
+		}));
+		b.onLoad({ filter: /@pdf-lib[\\/]fontkit[\\/]dist[\\/]fontkit\.es\.js$/ }, async (args) => {
+			let code = readFileSync(args.path, 'utf8');
+			/** @param {string} from @param {string} to */
+			const once = (from, to) => {
+				if (code.split(from).length !== 2) throw new Error(`build-print: fontkit changed (${JSON.stringify(from.slice(0, 40))} is not there once); review fontkitInBundle`);
+				code = code.replace(from, to);
+			};
+			once('dictionary.init(BrotliDecompressBuffer);\n', '');
+			once(
+				'function BrotliDecompress(input, output) {\n',
+				'var dictionaryReady = false;\nfunction BrotliDecompress(input, output) {\n  if (!dictionaryReady) { dictionaryReady = true; dictionary.init(BrotliDecompressBuffer); }\n'
+			);
+			return { contents: code, loader: 'js' };
+		});
+	}
+};
 
 const root = new URL('..', import.meta.url).pathname;
 
@@ -40,6 +73,7 @@ export async function buildPrint({ quiet = false } = {}) {
 			// ES module builds where a package has one, so unused parts can be left out.
 			mainFields: ['module', 'main'],
 			define: { 'import.meta.url': '__paddockUrl' },
+			plugins: [fontkitInBundle],
 			banner: { js: "const __paddockUrl = require('node:url').pathToFileURL(__filename).href;" }
 		}).then(writeLauncher)
 	]);

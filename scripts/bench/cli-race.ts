@@ -5,9 +5,9 @@
  * pre-rendered at 300 dpi (./chromium-sheets.ts; the pre-render is not counted for chromium).
  *
  * The CLI runs two ways in each round: warm, with its disk cache from the earlier runs (a user's
- * repeat run: the target), and cold, with an empty cache directory (a machine's first run, and
- * what every run cost before the cache). Target: the warm CLI at least 5× faster (median of the
- * paired ratios); the cold ratio is printed beside it.
+ * repeat run), and cold, with an empty cache directory (a machine's first run: every face laid
+ * out and drawn, every picture encoded; the demo art itself is kept, as it is made once).
+ * Target, for each: the CLI at least 5× faster than chromium (median of the paired ratios).
  */
 import { spawn } from 'node:child_process';
 import { mkdirSync, mkdtempSync, rmSync, statSync } from 'node:fs';
@@ -95,10 +95,12 @@ export async function benchCliRace(demo: Game, art: Map<string, Uint8Array>, job
 			cliMedianMs: r1(median(cli)),
 			cliColdMedianMs: r1(median(cold)),
 			chromiumMedianMs: r1(median(chromium)),
-			/** The target's figure: the warm CLI (a repeat run, its cache filled). */
+			/** A repeat run (its cache filled). */
 			ratio: r1(ratio),
+			/** A first run (an empty cache). */
 			coldRatio: r1(coldRatio),
 			met: ratio >= 5,
+			coldMet: coldRatio >= 5,
 			facesPrerendered: sheets.faces,
 			prerenderMs: r1(sheets.prerenderMs),
 			cliPdfBytes: statSync(join(dir, 'cli.pdf')).size,
@@ -110,7 +112,7 @@ export async function benchCliRace(demo: Game, art: Map<string, Uint8Array>, job
 				`${result.cliColdMedianMs.toFixed(0)} ms with an empty cache; chromium --print-to-pdf median ${result.chromiumMedianMs.toFixed(0)} ms ` +
 				`(its ${sheets.faces} face PNGs pre-rendered beforehand, ${result.prerenderMs.toFixed(0)} ms, not counted).\n` +
 				`  CLI ≥ 5× faster than chromium, whole process, repeat run (median of paired ratios): ${result.ratio}× — ${result.met ? 'met' : 'NOT met'}\n` +
-				`  the same with an empty cache (a machine's first run): ${result.coldRatio}×`
+				`  CLI ≥ 5× faster than chromium, whole process, first run with an empty cache: ${result.coldRatio}× — ${result.coldMet ? 'met' : 'NOT met'}`
 		);
 		return result;
 	} finally {

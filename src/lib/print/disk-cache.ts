@@ -145,13 +145,14 @@ export class PrintDiskCache implements EncodedImageStore {
 		if (memo) return memo;
 		const parts = unpack(this.read('pixels', key));
 		if (!parts) return undefined;
-		const head = parts.head as { widthPx: number; heightPx: number; channels: 1 | 3 | 4; maxInkPct?: number; alpha: boolean };
+		const head = parts.head as { widthPx: number; heightPx: number; channels: 1 | 3 | 4; maxInkPct?: number; alpha: boolean; pngRows?: true };
 		if (parts.blobs.length !== (head.alpha ? 2 : 1)) return undefined;
 		const pixels: EncodedPixels = {
 			widthPx: head.widthPx,
 			heightPx: head.heightPx,
 			channels: head.channels,
 			...(head.maxInkPct !== undefined && { maxInkPct: head.maxInkPct }),
+			...(head.pngRows === true && { pngRows: true }),
 			colour: parts.blobs[0],
 			alpha: head.alpha ? parts.blobs[1] : null
 		};

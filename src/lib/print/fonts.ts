@@ -8,6 +8,7 @@ import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import type { FontWeight } from './display-list';
 import { FONT_FILES as FILES } from './font-files';
+import { fontkitModule } from './fontkit-module';
 import type { MeasuringFont } from './typeface';
 
 export { FONT_FAMILY } from './font-files';
@@ -54,7 +55,7 @@ export function loadFontFiles(): Promise<FontFiles> {
 export function loadFonts(): Promise<FontSet> {
 	loading ??= (async () => {
 		const files = await loadFontFiles();
-		const fontkit = require('@pdf-lib/fontkit') as typeof import('@pdf-lib/fontkit');
+		const fontkit = fontkitModule();
 		const withMetrics = (f: FontFile): LoadedFont => ({ ...f, metrics: fontkit.create(Buffer.from(f.ttf)) });
 		return { regular: withMetrics(files.regular), bold: withMetrics(files.bold) };
 	})();

@@ -17,15 +17,7 @@
  * string's glyphs. The next run embeds the font and places those strings from that record, and
  * loads fontkit (slow to start) only when it meets a string it has not shaped before.
  */
-import { createRequire } from 'node:module';
-import type fontkitTypes from '@pdf-lib/fontkit';
-
-type Fontkit = typeof fontkitTypes;
-let fontkitModule: Fontkit | undefined;
-/** fontkit, loaded on first use (synchronously: pdf-lib asks for shaping synchronously). */
-function fontkit(): Fontkit {
-	return (fontkitModule ??= createRequire(import.meta.url)('@pdf-lib/fontkit') as Fontkit);
-}
+import { fontkitModule as fontkit, type Fontkit } from './fontkit-module';
 
 /** Enough for every string of a large game; past it the memo starts over rather than grow without bound. */
 const MAX_SHAPED_STRINGS = 50_000;

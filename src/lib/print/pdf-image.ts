@@ -1,13 +1,15 @@
 /**
  * Images as PDF image XObjects, each written once per document.
  *
- * JPEG goes in as it is (DCTDecode, no re-encoding). PNG is decoded to pixels and written as
- * our own FlateDecode image (ISO 32000-1 §8.9.5), with the alpha channel as a separate soft
- * mask (§11.6.5.3) only when the picture has transparency. This is smaller and much faster
- * than a general-purpose embedder that re-packs every PNG the same way.
+ * JPEG goes in as it is (DCTDecode, no re-encoding). An 8-bit PNG keeps its filtered rows
+ * (FlateDecode with PNG predictors, ISO 32000-1 §7.4.4.4), split into colour and a separate soft
+ * mask (§11.6.5.3) only when the picture has transparency; any other PNG is decoded to pixels
+ * and written as our own FlateDecode image (§8.9.5). Much faster than a general-purpose
+ * embedder that re-packs every PNG the same way.
  */
 import { createRequire } from 'node:module';
-import { deflateSync, inflateSync } from 'node:zlib';
+import { promisify } from 'node:util';
+import { deflate, deflateSync, inflate, inflateSync } from 'node:zlib';
 import { PDFDocument, PDFName, PDFRef } from 'pdf-lib';
 import type { ImageAsset } from './display-list';
 import type { PressColour } from './colour/cmm';
@@ -262,6 +264,11 @@ export interface EncodedPixels {
 	/** zlib streams (ISO 32000-1 §7.4.4 FlateDecode) of the colour samples and of the alpha, if any. */
 	colour: Uint8Array;
 	alpha: Uint8Array | null;
+	/**
+	 * The streams hold PNG-filtered rows (each row led by its filter type), undone by the reader
+	 * through the PNG predictors (ISO 32000-1 §7.4.4.4, Predictor 15); absent: plain samples.
+	 */
+	pngRows?: true;
 }
 
 /**
@@ -290,18 +297,162 @@ export function encodePixels(png: DecodedPng): EncodedPixels {
 export function writeEncodedImage(doc: PDFDocument, pixels: EncodedPixels): PDFRef {
 	const { context } = doc;
 	const common = { Type: 'XObject', Subtype: 'Image', Width: pixels.widthPx, Height: pixels.heightPx, BitsPerComponent: 8 };
+	const rows = (colors: number) => (pixels.pngRows ? { DecodeParms: { Predictor: 15, Colors: colors, BitsPerComponent: 8, Columns: pixels.widthPx } } : {});
 	let smask: PDFRef | undefined;
 	if (pixels.alpha) {
-		smask = context.register(context.stream(pixels.alpha, { ...common, ColorSpace: 'DeviceGray', Filter: 'FlateDecode' }));
+		smask = context.register(context.stream(pixels.alpha, { ...common, ColorSpace: 'DeviceGray', Filter: 'FlateDecode', ...rows(1) }));
 	}
 	return context.register(
 		context.stream(pixels.colour, {
 			...common,
 			ColorSpace: pixels.channels === 1 ? 'DeviceGray' : pixels.channels === 4 ? 'DeviceCMYK' : 'DeviceRGB',
 			Filter: 'FlateDecode',
+			...rows(pixels.channels),
 			...(smask ? { SMask: smask } : {})
 		})
 	);
+}
+
+/**
+ * An 8-bit, non-interlaced grey or RGB PNG (with or without alpha, no tRNS key colour) as image
+ * streams whose rows keep the PNG's own filters, for the reader to undo (PNG predictors, ISO
+ * 32000-1 §7.4.4.4): the rows are never unfiltered here. Without alpha the PNG's zlib stream goes
+ * in as it is. With alpha each filtered row is split into its colour and alpha bytes: a PNG
+ * filter predicts every byte from the same channel of the pixel to the left and above (PNG spec
+ * §9.2, bytes `bpp` apart), so the colour bytes with the row's filter type are that row filtered
+ * as colour alone, and the alpha bytes likewise. Only the alpha is unfiltered (one byte a pixel),
+ * to leave out a mask that is opaque everywhere. Null for any other PNG (decode it instead).
+ *
+ * Two steps, so a caller can run the second on libuv's threads: the rows split (`split`), then
+ * compressed (`compress`), each with Node's zlib, sync or async.
+ */
+interface SplitRows {
+	head: Omit<EncodedPixels, 'colour' | 'alpha'>;
+	/** The colour rows: compressed already (the PNG's own stream), or to compress. */
+	colour: { zlib: Uint8Array } | { rows: Uint8Array };
+	alphaRows: Uint8Array | null;
+}
+
+async function splitPngRows(bytes: Uint8Array, inflate: (b: Uint8Array) => Uint8Array | Promise<Uint8Array>): Promise<SplitRows | null> {
+	const png = readPngChunks(bytes);
+	if (!png || png.depth !== 8 || png.interlace !== 0 || png.transparency || png.palette) return null;
+	const channels: 1 | 3 | undefined = png.type === 0 || png.type === 4 ? 1 : png.type === 2 || png.type === 6 ? 3 : undefined;
+	if (!channels) return null;
+	const { width, height } = png;
+	const head = { widthPx: width, heightPx: height, channels, pngRows: true as const };
+	const stream = concat(png.data);
+	// Inflated even when it goes in as it is: a damaged stream is refused here, not left to the reader.
+	const raw = await inflate(stream);
+	const bpp = png.type === 0 || png.type === 2 ? channels : channels + 1;
+	const stride = width * bpp;
+	if (raw.length < height * (stride + 1)) throw new Error('PNG image data is too short');
+	for (let y = 0; y < height; y++) if (raw[y * (stride + 1)] > 4) throw new Error(`bad PNG filter ${raw[y * (stride + 1)]}`);
+	if (png.type === 0 || png.type === 2) return { head, colour: { zlib: stream }, alphaRows: null };
+
+	const colour = new Uint8Array(height * (width * channels + 1));
+	const alphaRows = new Uint8Array(height * (width + 1));
+	for (let y = 0, r = 0, c = 0, a = 0; y < height; y++) {
+		colour[c++] = alphaRows[a++] = raw[r++];
+		if (channels === 3)
+			for (let x = 0; x < width; x++, r += 4, c += 3) {
+				colour[c] = raw[r];
+				colour[c + 1] = raw[r + 1];
+				colour[c + 2] = raw[r + 2];
+				alphaRows[a++] = raw[r + 3];
+			}
+		else for (let x = 0; x < width; x++, r += 2) (colour[c++] = raw[r]), (alphaRows[a++] = raw[r + 1]);
+	}
+	// Opaque everywhere? Unfiltered a row at a time; the first see-through pixel settles it.
+	let opaque = true;
+	let prior = new Uint8Array(width);
+	let row = new Uint8Array(width);
+	for (let y = 0; y < height && opaque; y++) {
+		unfilterRow(alphaRows, y * (width + 1), row, prior, y === 0, width, 1);
+		for (let x = 0; x < width; x++) if (row[x] !== 255) opaque = false;
+		[prior, row] = [row, prior];
+	}
+	return { head, colour: { rows: colour }, alphaRows: opaque ? null : alphaRows };
+}
+
+async function compressRows(split: SplitRows, deflate: (b: Uint8Array) => Uint8Array | Promise<Uint8Array>): Promise<EncodedPixels> {
+	const [colour, alpha] = await Promise.all([
+		'zlib' in split.colour ? split.colour.zlib : deflate(split.colour.rows),
+		split.alphaRows ? deflate(split.alphaRows) : null
+	]);
+	return { ...split.head, colour, alpha };
+}
+
+interface PngChunks {
+	width: number;
+	height: number;
+	depth: number;
+	type: number;
+	interlace: number;
+	palette?: Uint8Array;
+	transparency?: Uint8Array;
+	data: Uint8Array[];
+}
+
+function readPngChunks(bytes: Uint8Array): PngChunks | null {
+	for (let i = 0; i < 8; i++) if (bytes[i] !== PNG_SIGNATURE[i]) return null;
+	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+	const png: PngChunks = { width: 0, height: 0, depth: 0, type: 0, interlace: 0, data: [] };
+	for (let at = 8; at + 8 <= bytes.length; ) {
+		const length = view.getUint32(at);
+		const name = String.fromCharCode(bytes[at + 4], bytes[at + 5], bytes[at + 6], bytes[at + 7]);
+		const body = bytes.subarray(at + 8, at + 8 + length);
+		if (name === 'IHDR') {
+			png.width = view.getUint32(at + 8);
+			png.height = view.getUint32(at + 12);
+			png.depth = body[8];
+			png.type = body[9];
+			png.interlace = body[12];
+		} else if (name === 'PLTE') png.palette = body;
+		else if (name === 'tRNS') png.transparency = body;
+		else if (name === 'IDAT') png.data.push(body);
+		else if (name === 'IEND') break;
+		at += 12 + length;
+	}
+	return png.width && png.height && png.data.length ? png : null;
+}
+
+// Inflated rows are read once and dropped: no copy out of the Buffer.
+const syncZlib = { inflate: (b: Uint8Array): Uint8Array => inflateSync(b), deflate: (b: Uint8Array) => new Uint8Array(deflateSync(b, { level: 6 })) };
+const inflateAsync = promisify(inflate);
+const deflateAsync = promisify(deflate);
+const asyncZlib = {
+	inflate: (b: Uint8Array): Promise<Uint8Array> => inflateAsync(b),
+	deflate: async (b: Uint8Array) => new Uint8Array(await deflateAsync(b, { level: 6 }))
+};
+
+/** A PNG asset's pixels for a plain (not press) document: its rows as they are where it can, else decoded. */
+async function encodePngAsset(asset: ImageAsset): Promise<EncodedPixels> {
+	const split = await splitPngRows(asset.bytes, syncZlib.inflate);
+	if (split) return compressRows(split, syncZlib.deflate);
+	return encodePixels(decodePng(asset.bytes) ?? (await decodePngSlowly(asset.bytes)));
+}
+
+/**
+ * Starts encoding the PNG pictures the store does not hold yet. Resolves once their rows are
+ * split (the part on this thread), with `compressed`, which resolves when the compression, on
+ * libuv's threads meanwhile, is done and the store holds them: a caller lays out faces in
+ * between and finds the pictures ready when it draws. Pictures that need decoding, or fail, are
+ * left to the document (which reports a damaged one where it draws it).
+ */
+export async function encodeImagesAhead(assets: Iterable<ImageAsset>, store: EncodedImageStore): Promise<{ compressed: Promise<void> }> {
+	const todo = [...assets].filter((a) => a.mime === 'image/png' && !store.get(pixelKey(a)));
+	const split = await Promise.all(todo.map((asset) => splitPngRows(asset.bytes, asyncZlib.inflate).catch(() => null)));
+	const compressed = Promise.all(
+		split.map(async (rows, i) => {
+			if (!rows) return;
+			try {
+				store.set(pixelKey(todo[i]), await compressRows(rows, asyncZlib.deflate));
+			} catch {
+				// Left to the document.
+			}
+		})
+	).then(() => undefined);
+	return { compressed };
 }
 
 /** Writes decoded pixels as a FlateDecode image XObject (plus soft mask) and returns its ref. */
@@ -409,7 +560,7 @@ export class PdfImageCache {
 		const key = pixelKey(asset);
 		let pixels = this.store?.get(key);
 		if (!pixels) {
-			pixels = encodePixels(decodePng(asset.bytes) ?? (await decodePngSlowly(asset.bytes)));
+			pixels = await encodePngAsset(asset);
 			this.store?.set(key, pixels);
 		}
 		return writeEncodedImage(this.doc, pixels);

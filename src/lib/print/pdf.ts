@@ -34,7 +34,6 @@ import {
 	type Color
 } from 'pdf-lib';
 import { deflateSync } from 'node:zlib';
-import { zlibSync } from 'fflate';
 import type { Colour, DisplayItem, FaceLayout, FontWeight, ImageAsset } from './display-list';
 import { faceHeightMm, faceWidthMm } from './display-list';
 import type { FontFiles } from './fonts';
@@ -333,18 +332,15 @@ export class PdfFaceWriter {
 			else if (key !== PDFName.of('ProcSet') && !(dict && dict.entries().length === 0))
 				throw new Error(`a face uses page resources of type ${key.decodeText()}, which forms do not carry`);
 		}
-		let text = '';
-		for (const p of parts) for (let i = 0; i < p.length; i += 8192) text += String.fromCharCode(...p.subarray(i, i + 8192));
+		let text = Buffer.concat(parts).toString('latin1');
 		if (renames.size) {
 			const pattern = new RegExp(`/(${[...renames.keys()].map(escapeRegExp).join('|')})(?=[\\s/\\[\\]<>(){}%]|$)`, 'g');
 			text = text.replace(pattern, (_, name: string) => `/${renames.get(name)}`);
 		}
-		const bytes = new Uint8Array(text.length);
-		for (let i = 0; i < text.length; i++) bytes[i] = text.charCodeAt(i);
 		const form: KeptForm = {
 			colour: this.colour,
 			fonts: [this.fontSet.regular.ttf, this.fontSet.bold.ttf],
-			content: zlibSync(bytes, { level: 6 }),
+			content: new Uint8Array(deflateSync(Buffer.from(text, 'latin1'))),
 			images,
 			texts: face.items.flatMap((i) => (i.type === 'text' && i.text ? [[i.weight, i.text] as [FontWeight, string]] : []))
 		};
@@ -552,7 +548,7 @@ export async function drawIntoForm(
 	const bytes = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
 	parts.reduce((at, p) => (bytes.set(p, at), at + p.length), 0);
 	return doc.context.register(
-		doc.context.stream(zlibSync(bytes, { level: 6 }), {
+		doc.context.stream(new Uint8Array(deflateSync(bytes)), {
 			Type: 'XObject',
 			Subtype: 'Form',
 			BBox: [0, 0, widthPt, heightPt],

@@ -11,7 +11,8 @@ import { paperSize, type PaperSpec } from './paper';
 import { countPages, planSheets } from './sheet-plan';
 import { buildSheetPdf } from './sheets';
 import type { PdfxTarget } from './pdfx';
-import { renderGameFaces, type RenderedCard, selectKinds, sizeKey, fmtMm } from './job';
+import { loadGameImages, renderGameFaces, type RenderedCard, selectKinds, sizeKey, fmtMm } from './job';
+import { encodeImagesAhead } from './pdf-image';
 import { pressBuild, pictureWords, inkWarning } from './press-checks';
 
 /** A sheet PDF request: what to print and how (./options.ts), and how this run reports. */
@@ -89,6 +90,9 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 	const report = (pagesDone: number) => options.onProgress?.(faceDone + pagesDone, faceTotal + pageTotal);
 	const disk = options.disk;
 	keepFontRecords(disk && fontRecordsIn(disk));
+	// A process that prints one file (the CLI, with its disk cache) compresses the pictures on
+	// libuv's threads while this one lays out the faces. Press files convert theirs (./press.ts).
+	const picturesAhead = disk && !options.pdfx ? encodeImagesAhead((await loadGameImages(game, art, cache)).images.values(), disk) : undefined;
 	const faces = await renderGameFaces(game, art, {
 		kinds: kinds.map((k) => k.id),
 		cache,
@@ -108,6 +112,7 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 	pageTotal = count.total;
 	const ink: string[] = [];
 	const fonts = await loadFontFiles();
+	await (await picturesAhead)?.compressed;
 	// Forms are kept for plain RGB or CMYK; a press file draws its own (subset fonts, the profile's colours).
 	const keepForms = disk && !options.pdfx ? sheetOptions.colour : undefined;
 	const drawn = keepForms ? restoreForms(disk!, distinctFaces(faces.cards), keepForms, fonts) : undefined;

@@ -24,24 +24,48 @@ export interface TextBox {
 	hMm: number;
 }
 
-// Advance widths in font units do not depend on the size, so one cache serves every size tried.
-const unitCache = new WeakMap<FontMetrics, Map<string, number>>();
+// Advance widths and ink boxes in font units do not depend on the size, so one cache serves every size tried.
+interface Measured {
+	units: number;
+	/** The glyphs' outline box, asked for by the safe-area check only (so filled in on first ask). */
+	ink?: InkBox;
+}
+/** A box in font units, y up (fontkit's bbox). */
+export interface InkBox {
+	minX: number;
+	minY: number;
+	maxX: number;
+	maxY: number;
+}
+const unitCache = new WeakMap<FontMetrics, Map<string, Measured>>();
 /** Texts measured per font before the cache starts over (a long-lived server sees ever new names). */
 const MAX_MEASURED_TEXTS = 20_000;
 
-function advanceUnits(font: FontMetrics, text: string): number {
+function measured(font: FontMetrics, text: string): Measured {
 	let cache = unitCache.get(font);
 	if (!cache) {
 		cache = new Map();
 		unitCache.set(font, cache);
 	}
-	let units = cache.get(text);
-	if (units === undefined) {
-		units = text === '' ? 0 : font.layout(text).advanceWidth;
+	let entry = cache.get(text);
+	if (entry === undefined) {
+		entry = { units: text === '' ? 0 : font.layout(text).advanceWidth };
 		if (cache.size >= MAX_MEASURED_TEXTS) cache.clear();
-		cache.set(text, units);
+		cache.set(text, entry);
 	}
-	return units;
+	return entry;
+}
+
+const advanceUnits = (font: FontMetrics, text: string): number => measured(font, text).units;
+
+/** The outline box of `text`'s shaped glyphs, in font units: shaped once per text, not once per face. */
+export function inkBoxUnits(font: FontMetrics, text: string): InkBox {
+	const entry = measured(font, text);
+	if (!entry.ink) {
+		const { minX, minY, maxX, maxY } = font.layout(text).bbox;
+		entry.ink = { minX, minY, maxX, maxY };
+	}
+	return entry.ink;
 }
 
 /** Width of `text` set in `font` at `sizePt`, in mm (shaped advance width, kerning included). */

@@ -5,7 +5,7 @@
 import type { Colour, DisplayItem, FaceLayout, TextItem } from '../display-list';
 import type { MeasuringFonts } from '../typeface';
 import { pathBounds } from '../symbols';
-import { fitText, ptToMm, type FitOptions, type FitResult, type TextBox } from '../text';
+import { fitText, inkBoxUnits, ptToMm, type FitOptions, type FitResult, type TextBox } from '../text';
 import type { FracBox } from './templates';
 
 export type Box = TextBox;
@@ -123,7 +123,7 @@ export class FaceBuilder {
 	/** The glyphs' own outline box (not the line box), so big numerals are judged by their ink. */
 	private inkBounds(item: TextItem) {
 		const font = this.fonts[item.weight].metrics;
-		const bbox = font.layout(item.text).bbox;
+		const bbox = inkBoxUnits(font, item.text);
 		const k = ptToMm(item.sizePt) / font.unitsPerEm;
 		return {
 			x0: item.xMm + bbox.minX * k,
