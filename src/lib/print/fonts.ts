@@ -8,7 +8,7 @@ import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import type { FontWeight } from './display-list';
 import { FONT_FILES as FILES } from './font-files';
-import { fontkitModule } from './fontkit-module';
+import { parsedFont } from './pdf-fontkit';
 import type { MeasuringFont } from './typeface';
 
 export { FONT_FAMILY } from './font-files';
@@ -55,8 +55,8 @@ export function loadFontFiles(): Promise<FontFiles> {
 export function loadFonts(): Promise<FontSet> {
 	loading ??= (async () => {
 		const files = await loadFontFiles();
-		const fontkit = fontkitModule();
-		const withMetrics = (f: FontFile): LoadedFont => ({ ...f, metrics: fontkit.create(Buffer.from(f.ttf)) });
+		// The same parsed font the PDFs embed (./pdf-fontkit.ts): one parse, its tables read once.
+		const withMetrics = (f: FontFile): LoadedFont => ({ ...f, metrics: parsedFont(f.ttf) });
 		return { regular: withMetrics(files.regular), bold: withMetrics(files.bold) };
 	})();
 	return loading;

@@ -34,6 +34,8 @@ interface SharedFont {
 	/** Per string: the run, and its glyphs the cmap does not reach (usually none). */
 	shaped: Map<string, { run: Run; beyondCmap: Glyph[] }>;
 	cmapGlyphs: Set<number>;
+	/** Answered from a kept record, not parsed from the file. */
+	fromRecord?: true;
 }
 
 const fonts = new Map<string, SharedFont>();
@@ -112,6 +114,22 @@ export const sharedFontkit = {
 		return forDocument(shared, key);
 	}
 };
+
+/**
+ * The fontkit font of these TrueType bytes, parsed once for measuring (the layout) and for the
+ * documents alike: the tables shaping reads and the glyphs it loads are then read once, not
+ * twice. A font answered from a record is no parsed font: measuring then parses its own.
+ */
+export function parsedFont(bytes: Uint8Array): Font {
+	const key = `${fileKey(bytes)}:`;
+	let shared = fonts.get(key);
+	if (!shared) {
+		shared = share(fontkit().create(bytes));
+		fonts.set(key, shared);
+		if (records) changed.add(key);
+	}
+	return shared.fromRecord ? fontkit().create(bytes) : shared.font;
+}
 
 /* --------------------------------------------------------- kept records */
 
@@ -246,5 +264,5 @@ function fromRecord(r: FontRecord, bytes: Uint8Array): SharedFont {
 		const glyphs = ids.map((id) => glyphById.get(id)!) as unknown as Glyph[];
 		shaped.set(k, { run: { glyphs } as unknown as Run, beyondCmap: glyphs.filter((g) => !cmapGlyphs.has(g.id) && g.codePoints.length) });
 	}
-	return { font: recorded as unknown as Font, shaped, cmapGlyphs };
+	return { font: recorded as unknown as Font, shaped, cmapGlyphs, fromRecord: true };
 }

@@ -1,4 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
+import { demoGame } from '../demo/demo';
 import { loadFonts, type FontSet } from './fonts';
 import { fitText, fitTitle, measureTextMm, MM_PER_PT, textLine, wrapText, type TextBox } from './text';
 
@@ -161,3 +162,27 @@ describe('fitTitle', () => {
 	});
 });
 
+
+describe('widths of lines of words', () => {
+	it('a line of ASCII words measures exactly as fontkit shapes the whole line (every line wrapping tries, demo texts)', () => {
+		// Wrapping measures each candidate line; words are measured once and summed (see wordUnits).
+		const texts = new Set<string>();
+		const collect = (v: unknown): void => {
+			if (typeof v === 'string') texts.add(v);
+			else if (Array.isArray(v)) v.forEach(collect);
+			else if (v && typeof v === 'object') Object.values(v).forEach(collect);
+		};
+		collect(demoGame());
+		let lines = 0;
+		for (const weight of ['regular', 'bold'] as const)
+			for (const text of texts) {
+				const words = text.split(/\s+/).filter(Boolean);
+				for (let n = 2; n <= words.length; n++) {
+					const line = words.slice(0, n).join(' ');
+					expect(measureTextMm(fonts[weight].metrics, line, 10), line).toBe(fontkitWidthMm(weight, line, 10));
+					lines++;
+				}
+			}
+		expect(lines).toBeGreaterThan(500);
+	});
+});

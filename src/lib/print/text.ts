@@ -49,11 +49,28 @@ function measured(font: FontMetrics, text: string): Measured {
 	}
 	let entry = cache.get(text);
 	if (entry === undefined) {
-		entry = { units: text === '' ? 0 : font.layout(text).advanceWidth };
+		entry = { units: text === '' ? 0 : ASCII_WORDS.test(text) ? wordUnits(font, text) : font.layout(text).advanceWidth };
 		if (cache.size >= MAX_MEASURED_TEXTS) cache.clear();
 		cache.set(text, entry);
 	}
 	return entry;
+}
+
+/** Printable ASCII words with one space between them. */
+const ASCII_WORDS = /^[!-~]+(?: [!-~]+)+$/;
+
+/**
+ * Such a text's width is its words' and spaces' widths: the shipped typeface shapes nothing
+ * across a space between printable ASCII characters (no kerning pair or ligature spans one:
+ * checked pair by pair in ./pdf-fontkit.test.ts; the sheet label relies on it too), and font-unit
+ * advances are whole numbers, so the sum equals the shaped line's width exactly. Wrapping tries
+ * a line with one word more at each step: this way each word is shaped once, not every line.
+ */
+function wordUnits(font: FontMetrics, text: string): number {
+	const words = text.split(' ');
+	let units = (words.length - 1) * measured(font, ' ').units;
+	for (const word of words) units += measured(font, word).units;
+	return units;
 }
 
 const advanceUnits = (font: FontMetrics, text: string): number => measured(font, text).units;
