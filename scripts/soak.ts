@@ -1,39 +1,111 @@
 /**
- * `npx tsx scripts/soak.ts [--minutes 30] [--port 4430] [--build-dir build]`: the server under the benchmark's mixed
- * HTTP load (scripts/bench/server.ts) for a long while, its RSS sampled every 10 s. Prints start,
- * peak and end, and writes every sample to soak-results.json. Memory must level off at the
- * caches' bounds, not keep growing.
+ * `npx tsx scripts/soak.ts [--minutes 30] [--port 4430] [--build-dir build] [--quiet-seconds 90]`:
+ * the server under the benchmark's mixed HTTP load (scripts/bench/server.ts) for a long while,
+ * its RSS sampled every 10 s, then through a quiet spell after the load (the extra print workers
+ * stop after a quiet minute). Prints RSS at the start, its peak, at the end of the load and after
+ * the quiet spell; whether "after" is under the target; and whether the growth stayed within the
+ * caches' byte bounds. Every sample goes to soak-results.json.
  */
 import { writeFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import { parseArgs } from 'node:util';
-import { mixedLoad, signIn, sleep, startServer } from './bench/server';
+import { mixedLoad, signIn, sleep, startServer, type Vitals } from './bench/server';
 
-const { values } = parseArgs({ options: { minutes: { type: 'string' }, port: { type: 'string' }, 'build-dir': { type: 'string' } } });
+const TARGET_MB = 450;
+const MB = 2 ** 20;
+
+const { values } = parseArgs({
+	options: { minutes: { type: 'string' }, port: { type: 'string' }, 'build-dir': { type: 'string' }, 'quiet-seconds': { type: 'string' } }
+});
 const minutes = Number(values.minutes ?? 30);
+const quietSeconds = Number(values['quiet-seconds'] ?? 90);
 const server = await startServer(Number(values.port ?? 4430), values['build-dir']);
+
+interface Sample {
+	s: number;
+	phase: 'start' | 'load' | 'quiet';
+	rssMb: number;
+	heapMb: number;
+	externalMb: number;
+	arrayBuffersMb: number;
+	faceCacheMb: number;
+	printWorkers: number;
+	loopP99Ms: number;
+	load: number;
+}
+
 try {
 	const session = await signIn(server.url);
-	for (let i = 0; i < 240 && !(await server.vitals()).printWorkersWarm; i++) await sleep(500);
-	const samples: { s: number; rssMb: number; load: number; faceCacheMb?: number; loopP99Ms?: number }[] = [];
+	let vitals: Vitals = await server.vitals();
+	for (let i = 0; i < 240 && !vitals.printWorkersWarm; i++) {
+		await sleep(500);
+		vitals = await server.vitals();
+	}
+	const samples: Sample[] = [];
 	const t0 = Date.now();
-	const sample = async () => {
-		const v = await server.vitals();
-		samples.push({ s: Math.round((Date.now() - t0) / 1000), rssMb: server.rssMb(), load: Math.round(loadavg()[0] * 10) / 10, faceCacheMb: Math.round(v.faceCache.bytes / 2 ** 20), loopP99Ms: v.loopDelayMs.p99 });
-		const last = samples.at(-1)!;
-		console.log(`${String(last.s).padStart(5)} s  RSS ${last.rssMb} MB  face cache ${last.faceCacheMb} MB  loop p99 ${last.loopP99Ms} ms  load ${last.load}`);
+	const sample = async (phase: Sample['phase']) => {
+		const v = (vitals = await server.vitals());
+		const x: Sample = {
+			s: Math.round((Date.now() - t0) / 1000),
+			phase,
+			rssMb: server.rssMb(),
+			heapMb: v.heapMb,
+			externalMb: v.externalMb,
+			arrayBuffersMb: v.arrayBuffersMb,
+			faceCacheMb: Math.round(v.faceCache.bytes / MB),
+			printWorkers: v.printWorkers,
+			loopP99Ms: v.loopDelayMs.p99,
+			load: Math.round(loadavg()[0] * 10) / 10
+		};
+		samples.push(x);
+		console.log(
+			`${String(x.s).padStart(5)} s ${phase.padEnd(5)}  RSS ${x.rssMb} MB  heap ${x.heapMb} MB  external ${x.externalMb} MB (buffers ${x.arrayBuffersMb})  face cache ${x.faceCacheMb} MB  print workers ${x.printWorkers}  loop p99 ${x.loopP99Ms} ms  load ${x.load}`
+		);
+		return x;
 	};
-	await sample();
-	const timer = setInterval(() => void sample(), 10_000);
+	const start = await sample('start');
+	const timer = setInterval(() => void sample('load'), 10_000);
 	const load = await mixedLoad(server, session, minutes * 60_000);
 	clearInterval(timer);
-	// After the load: let the last builds finish and the heap settle.
-	await sleep(20_000);
-	await sample();
-	const rss = samples.map((x) => x.rssMb);
-	const summary = { minutes, startMb: rss[0], peakMb: Math.max(...rss), endMb: rss.at(-1), load, samples };
+	const endOfLoad = await sample('load');
+	// The quiet spell: every 10 s for `quietSeconds`, and on until the extra workers have stopped.
+	const quietUntil = Date.now() + quietSeconds * 1000;
+	let after = endOfLoad;
+	while (Date.now() < quietUntil || (vitals.printWorkers > vitals.printWorkersIdle && Date.now() < quietUntil + 120_000)) {
+		await sleep(10_000);
+		after = await sample('quiet');
+	}
+
+	const peakMb = Math.max(...samples.map((x) => x.rssMb));
+	const loads = samples.map((x) => x.load);
+	// What the caches may hold once the load is over: the face cache and each print worker still started.
+	const bounds = { faceCacheMb: vitals.faceCache.maxBytes / MB, printCachesMb: (vitals.printWorkersIdle * vitals.printCacheMaxBytes) / MB };
+	const boundsMb = bounds.faceCacheMb + bounds.printCachesMb;
+	const growthMb = after.rssMb - start.rssMb;
+	const summary = {
+		minutes,
+		startMb: start.rssMb,
+		peakMb,
+		endOfLoadMb: endOfLoad.rssMb,
+		afterQuietMb: after.rssMb,
+		quietSeconds: after.s - endOfLoad.s,
+		afterUnderTarget: after.rssMb < TARGET_MB,
+		growthMb,
+		cacheBoundsMb: { ...bounds, sum: boundsMb },
+		growthWithinBounds: growthMb <= boundsMb,
+		loadAverage: { min: Math.min(...loads), max: Math.max(...loads), mean: Math.round((loads.reduce((a, b) => a + b, 0) / loads.length) * 10) / 10 },
+		load,
+		samples
+	};
 	writeFileSync('soak-results.json', JSON.stringify(summary, null, '\t') + '\n');
-	console.log(`Soak ${minutes} min: RSS start ${summary.startMb} MB, peak ${summary.peakMb} MB, end ${summary.endMb} MB; ${load.requests} requests, ${load.edits} edits, ${load.builds} builds, ${load.errors} errors`);
+	console.log(
+		`Soak ${minutes} min: RSS start ${start.rssMb} MB, peak ${peakMb} MB, end of load ${endOfLoad.rssMb} MB, after ${summary.quietSeconds} s quiet ${after.rssMb} MB` +
+			` (load average ${summary.loadAverage.min}–${summary.loadAverage.max}, mean ${summary.loadAverage.mean}); ${load.requests} requests, ${load.edits} edits, ${load.builds} builds, ${load.errors} errors`
+	);
+	console.log(`  after the quiet spell: ${after.rssMb} MB (target < ${TARGET_MB} MB) — ${summary.afterUnderTarget ? 'met' : 'NOT met'}`);
+	console.log(
+		`  growth start → after: ${growthMb} MB; caches' byte bounds ${boundsMb} MB (face cache ${bounds.faceCacheMb} + ${vitals.printWorkersIdle} print worker × ${vitals.printCacheMaxBytes / MB}) — ${summary.growthWithinBounds ? 'within' : 'BEYOND'}`
+	);
 } finally {
 	await server.stop();
 }

@@ -14,10 +14,21 @@ const ROOT = new URL('../..', import.meta.url).pathname;
 
 export interface Vitals {
 	rssMb: number;
+	/** The main thread's V8 heap, used and reserved. */
 	heapMb: number;
+	heapTotalMb: number;
+	/** Memory outside the heap held by JavaScript objects; of it, ArrayBuffers (Buffers, typed arrays). */
+	externalMb: number;
+	arrayBuffersMb: number;
 	loopDelayMs: { p50: number; p99: number; max: number };
-	faceCache: { entries: number; bytes: number };
+	faceCache: { entries: number; bytes: number; maxBytes: number };
 	printWorkersWarm: boolean;
+	/** Print worker threads started now, kept while idle, and at most. */
+	printWorkers: number;
+	printWorkersIdle: number;
+	printWorkersMax: number;
+	/** Each print worker's cache budget. */
+	printCacheMaxBytes: number;
 }
 
 export interface Server {
@@ -178,8 +189,20 @@ export async function mixedLoad(server: Server, s: Session, ms: number, clients 
 	let requests = 0;
 	let errors = 0;
 	const pick = <T>(xs: T[]) => xs[Math.floor(Math.random() * xs.length)];
+	// A request that fails outright (a reset connection) counts as an error; the client carries on.
+	const lost = new Map<string, number>();
+	const survive = async (step: () => Promise<void>) => {
+		try {
+			await step();
+		} catch (e) {
+			errors++;
+			const why = String((e as Error & { cause?: Error }).cause?.message ?? (e as Error).message);
+			lost.set(why, (lost.get(why) ?? 0) + 1);
+			await sleep(1000);
+		}
+	};
 	const reader = async () => {
-		while (Date.now() < end) {
+		while (Date.now() < end) await survive(async () => {
 			const card = pick(s.cards);
 			const path = Math.random() < 0.5 ? `/api/v1/games/${s.gameId}/cards/${card.id}/face.svg` : pick(['/api/v1/me', `/games/${s.gameId}`, `/api/v1/games/${s.gameId}/cards`]);
 			const tag = etags.get(path);
@@ -188,11 +211,11 @@ export async function mixedLoad(server: Server, s: Session, ms: number, clients 
 			if (res.headers.get('etag')) etags.set(path, res.headers.get('etag')!);
 			requests++;
 			if (res.status >= 500) errors++;
-		}
+		});
 	};
 	let edits = 0;
 	const editor = async () => {
-		while (Date.now() < end) {
+		while (Date.now() < end) await survive(async () => {
 			await sleep(5000);
 			const card = pick(s.cards);
 			const res = await fetch(`${server.url}/api/v1/games/${s.gameId}/cards/${card.id}`, {
@@ -204,21 +227,21 @@ export async function mixedLoad(server: Server, s: Session, ms: number, clients 
 			const saved = (await res.json()) as { card?: { version: number; name: string } };
 			if (saved.card) Object.assign(card, { version: saved.card.version, name: saved.card.name });
 			else errors++;
-		}
+		});
 	};
 	let builds = 0;
 	const printer = async () => {
 		let n = 0;
-		while (Date.now() < end) {
+		while (Date.now() < end) await survive(async () => {
 			await sleep(20_000);
 			const kind = ++n % 6 === 0 ? 'pngs' : 'sheets';
 			const r = await sheetJob(s, server.url, { paper: pick(['a4', 'letter']), duplex: 'long', sets: String(1 + (n % 3)) }, kind);
 			builds++;
 			if (r.status >= 500 && r.status !== 503) errors++;
-		}
+		});
 	};
 	await Promise.all([...Array.from({ length: clients }, reader), editor(), printer()]);
-	return { requests, edits, builds, errors };
+	return { requests, edits, builds, errors, failures: Object.fromEntries(lost) };
 }
 
 /* ------------------------------------------------------------ the section */

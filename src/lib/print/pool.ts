@@ -225,6 +225,10 @@ export class PrintPool implements PrintRunner {
 	get running(): number {
 		return Math.min(this.size, this.inFlight - this.piscina.queueSize);
 	}
+	/** Worker threads started now (idle ones stop after a quiet spell). */
+	get threads(): number {
+		return this.piscina.threads.length;
+	}
 	get waiting(): number {
 		return this.piscina.queueSize;
 	}

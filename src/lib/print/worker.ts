@@ -14,6 +14,7 @@ import { buildCardsPngZip, renderPngPart } from './png-job';
 import { buildGamePdf } from './sheet-job';
 import { resvgReady } from './png';
 import { lowerThreadPriority } from '../threads/priority';
+import { collectWhenQuiet } from '../threads/quiet-gc';
 import type { PrintJob, PrintJobResult, ProgressMessage, WorkerData, WorkerFailure, WorkerTask } from './pool';
 
 const PROGRESS_EVERY_MS = 100;
@@ -27,6 +28,9 @@ if (budget) printCache.resize(budget);
 // Warm before the first job: fonts decompressed and parsed, resvg's wasm compiled.
 await Promise.all([loadFonts(), resvgReady()]);
 parentPort?.postMessage({ warm: true });
+
+// A build leaves garbage behind; a worker that stays started gives it back between builds.
+collectWhenQuiet();
 
 /** Bytes that own their whole buffer, so the buffer can be handed over without taking anything else. */
 function own(bytes: Uint8Array): Uint8Array {

@@ -9,6 +9,7 @@ import { configureMail } from './mail';
 import { config } from './config';
 import { printPool, closePrintPool } from '$lib/print/pool';
 import { watchVitals } from './vitals';
+import { collectWhenQuiet } from '$lib/threads/quiet-gc';
 import { warmRecentGames } from './print-warmup';
 import { defineJob, jobQueue, sharedQueue, useJobQueue } from './job-queue';
 import { buildQueuedJob, failJob } from './print-jobs';
@@ -72,14 +73,18 @@ async function start(): Promise<Runtime> {
 		.then(() => warmRecentGames(database.db, pool))
 		.catch((e) => console.error('warming the print workers failed:', e))
 		.finally(() => (printWarm = true));
-	watchVitals(() => ({ printWorkersWarm: printWarm }));
+	// The print caches' bounds ride along, so a soak can tell growth within them from a leak.
+	watchVitals(() => ({ printWorkersWarm: printWarm, printWorkers: pool.threads, printWorkersIdle: pool.idleSize, printWorkersMax: pool.size, printCacheMaxBytes: WORKER_CACHE_BYTES }));
 	defineJobs(database.db);
 	if (config.databaseUrl) useJobQueue(await sharedQueue(config.databaseUrl));
 	else await closeJobsLeftOpen(database.db);
 	const stopSweeping = startSweeping(database.db);
+	// After a busy spell the heap's garbage goes back to the system once requests stop.
+	const stopCollecting = collectWhenQuiet();
 	const runtime: Runtime = { database, stopCatcher: mail.stop, catching: mail.catching };
 	const stop = async () => {
 		stopSweeping();
+		stopCollecting();
 		// Running builds finish (or, past the wait, are left for another process to retry); odds
 		// runs, which can be long, stop now (taken up again elsewhere on a shared queue).
 		stopOddsRunsHere();

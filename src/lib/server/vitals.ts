@@ -18,7 +18,9 @@ export function watchVitals(more: () => Record<string, unknown> = () => ({})): v
 		const vitals = {
 			rssMb: Math.round(m.rss / 2 ** 20),
 			heapMb: Math.round(m.heapUsed / 2 ** 20),
+			heapTotalMb: Math.round(m.heapTotal / 2 ** 20),
 			externalMb: Math.round(m.external / 2 ** 20),
+			arrayBuffersMb: Math.round(m.arrayBuffers / 2 ** 20),
 			loopDelayMs: { p50: ms(loop.percentile(50)), p99: ms(loop.percentile(99)), max: ms(loop.max) },
 			faceCache: faceCacheStats(),
 			...more()
