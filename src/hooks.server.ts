@@ -3,7 +3,6 @@ import { sequence } from '@sveltejs/kit/hooks';
 import { authHandle } from '$lib/server/http/authjs';
 import { knowClient, cookiePolicy, signInLimitAnswer } from '$lib/server/http/request-hooks';
 import { startRuntime, db, StartupError } from '$lib/server/runtime';
-import { findUser } from '$lib/server/users';
 import { userForToken } from '$lib/server/api-tokens';
 import { apiError } from '$lib/server/http/api';
 import { refuseControlCharacters } from '$lib/server/http/form-text';
@@ -40,10 +39,10 @@ const identify: Handle = async ({ event, resolve }) => {
 		if (!event.locals.user) return apiError(401, 'This API token is unknown or revoked');
 		event.locals.via = 'token';
 	} else {
+		// The session check (./lib/server/http/authjs.ts) read the person from the database just now.
 		const session = await event.locals.auth();
-		const id = session?.user?.id;
-		const user = id ? await findUser(await db(), id) : undefined;
-		if (user) {
+		const user = session?.user;
+		if (user?.id && user.email && typeof user.name === 'string') {
 			event.locals.user = { id: user.id, email: user.email, name: user.name };
 			event.locals.via = 'cookie';
 			event.locals.sessionId = session?.sessionId;

@@ -14,7 +14,7 @@ import { findUserByEmail } from '../users';
 import { checkPassword } from '../auth/passwords';
 import { signInRefused, recordFailure, WINDOW_MS } from '../auth/throttle';
 import { currentClient } from '../auth/client-address';
-import { SESSION_MAX_AGE_S, endSession, sessionIsOpen, startSession } from '../auth/sessions';
+import { SESSION_MAX_AGE_S, endSession, openSessionUser, startSession } from '../auth/sessions';
 
 const credentials = z.object({ email: z.string().trim().email(), password: z.string().min(1).max(200) });
 
@@ -57,12 +57,18 @@ export const { handle: authHandle, signIn, signOut } = SvelteKitAuth(async () =>
 				token.sid = await startSession(d, user.id, currentClient());
 				return token;
 			}
-			// Every later read: the session must still be open (null ends the cookie).
-			if (typeof token.sid !== 'string' || !token.sub || !(await sessionIsOpen(d, token.sid, token.sub))) return null;
+			// Every later read: the session must still be open (null ends the cookie). The name and
+			// address come from the same read, so the request needs no second look-up.
+			const person = typeof token.sid === 'string' && token.sub ? await openSessionUser(d, token.sid, token.sub) : null;
+			if (!person) return null;
+			token.name = person.name;
+			token.email = person.email;
 			return token;
 		},
 		session({ session, token }) {
 			if (token.sub) session.user.id = token.sub;
+			if (typeof token.name === 'string') session.user.name = token.name;
+			if (typeof token.email === 'string') session.user.email = token.email;
 			if (typeof token.sid === 'string') session.sessionId = token.sid;
 			return session;
 		}
