@@ -121,6 +121,12 @@ describe('a PNG zip', () => {
 		const a = new Uint8Array(await ((await fileApi.GET(as(w, 'designer', { params: { jobId: first.id } }))) as Response).arrayBuffer());
 		const b = new Uint8Array(await ((await fileApi.GET(as(w, 'designer', { params: { jobId: again.id } }))) as Response).arrayBuffer());
 		expect(b).toEqual(a);
+		// Anything else asked (another resolution) is built, not answered from that file.
+		const res = (await queueApi.POST(as(w, 'designer', { params: g(w), json: { kind: 'pngs', proof: '1', query: { kinds: kind, dpi: '150' } } }))) as Response;
+		expect(res.status).toBe(202);
+		const other = (await res.json()) as { id: string; state: string };
+		expect(other.state).toBe('queued');
+		expect((await waitDone(other.id)).state).toBe('done');
 	}, 600_000);
 
 	it('reports one total from its first progress to its last, so the bar never moves back', async () => {

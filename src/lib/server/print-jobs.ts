@@ -8,6 +8,7 @@
  * date), in isolation from any worker cache, so a retry after a crash makes the same bytes; and
  * only the first build to finish is recorded, so a job never ends with two different files.
  */
+import { createHash } from 'node:crypto';
 import { and, desc, eq, getTableColumns, gt, isNotNull, lt, ne, sql } from 'drizzle-orm';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
@@ -25,8 +26,8 @@ import type { ApiAnswer, PrintJobSchema } from '$lib/schemas/api';
  * A job as followed and downloaded: its row without the request (the whole game as data), which
  * only the build reads; a poll every few hundred ms must not fetch and parse the game.
  */
-const { request: _request, ...FOLLOWED } = getTableColumns(printJobs);
-export type PrintJobRow = Omit<typeof printJobs.$inferSelect, 'request'>;
+const { request: _request, requestSha256: _requestSha256, ...FOLLOWED } = getTableColumns(printJobs);
+export type PrintJobRow = Omit<typeof printJobs.$inferSelect, 'request' | 'requestSha256'>;
 
 interface SheetRequest {
 	type: 'sheets';
@@ -62,13 +63,16 @@ export async function startPngJob(db: Db, source: PrintSource, options: PngJobOp
 
 async function queueJob(db: Db, source: PrintSource, request: SheetRequest | PngRequest, fileName: string): Promise<PrintJobRow> {
 	await db.delete(printJobs).where(lt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS)));
-	const again = await finishedAlready(db, source, request, fileName);
+	// The request is the whole game as data: compared by its hash, an indexed column, not as JSON.
+	// Its keys come in one order (the game read in position order, the options as their schema parsed them).
+	const requestSha256 = createHash('sha256').update(JSON.stringify(request)).digest('hex');
+	const again = await finishedAlready(db, source, requestSha256, fileName);
 	if (again) return again;
 	// A full queue refuses now (503), before the row is written, rather than as a failed job later.
 	const row = await admitPrintJob(db, async (tx) => {
 		const [inserted] = await tx
 			.insert(printJobs)
-			.values({ userId: source.actor.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, fileName })
+			.values({ userId: source.actor.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, requestSha256, fileName })
 			.returning(FOLLOWED);
 		return inserted;
 	});
@@ -81,7 +85,7 @@ async function queueJob(db: Db, source: PrintSource, request: SheetRequest | Png
  * a new job, already done, on that file. A second download of a proof's sheets or PNGs is then
  * at once. Under the sweep's shared lock, so the file cannot go between finding and naming it.
  */
-async function finishedAlready(db: Db, source: PrintSource, request: SheetRequest | PngRequest, fileName: string): Promise<PrintJobRow | null> {
+async function finishedAlready(db: Db, source: PrintSource, requestSha256: string, fileName: string): Promise<PrintJobRow | null> {
 	return holdingJobFiles(db, async (tx) => {
 		const [done] = await tx
 			.select()
@@ -89,10 +93,10 @@ async function finishedAlready(db: Db, source: PrintSource, request: SheetReques
 			.where(
 				and(
 					eq(printJobs.gameId, source.gameId),
+					eq(printJobs.requestSha256, requestSha256),
 					eq(printJobs.state, 'done'),
 					isNotNull(printJobs.fileKey),
-					gt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS)),
-					sql`${printJobs.request} = ${JSON.stringify(request)}::jsonb`
+					gt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS))
 				)
 			)
 			.orderBy(desc(printJobs.finishedAt))
@@ -104,6 +108,7 @@ async function finishedAlready(db: Db, source: PrintSource, request: SheetReques
 				userId: source.actor.userId,
 				gameId: source.gameId,
 				request: done.request,
+				requestSha256,
 				fileName,
 				fileKey: done.fileKey,
 				state: 'done',

@@ -472,6 +472,8 @@ export const printJobs = pgTable(
 		total: integer('total').notNull().default(0),
 		/** What to build, fixed when queued: the game as data and the options. */
 		request: jsonb('request').$type<Record<string, unknown>>().notNull(),
+		/** SHA-256 of the request as queued: a job asking for what was built a moment ago finds that file by it. */
+		requestSha256: text('request_sha256'),
 		fileName: text('file_name').notNull(),
 		fileKey: text('file_key'),
 		/** Sheets, pages, bytes and warnings of the finished file. */
@@ -482,7 +484,7 @@ export const printJobs = pgTable(
 		createdAt: createdAt(),
 		finishedAt: timestamp('finished_at', { withTimezone: true })
 	},
-	(t) => [index('print_jobs_user').on(t.userId, t.createdAt)]
+	(t) => [index('print_jobs_user').on(t.userId, t.createdAt), index('print_jobs_request').on(t.gameId, t.requestSha256)]
 );
 
 export const ODDS_JOB_STATES = ['queued', 'running', 'done', 'failed', 'cancelled'] as const;
