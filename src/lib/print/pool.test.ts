@@ -4,7 +4,7 @@ import type { Game } from '../game/model';
 import { zipPngParts } from './png-job';
 import type { GamePdfOptions } from './sheet-job';
 import { PrintOptionsError } from './options';
-import { PrintBusyError, PrintPool } from './pool';
+import { PrintBusyError, PrintPool, defaultPoolSize } from './pool';
 import { pdfinfoBoxes, qpdfCheck } from './testing/poppler';
 
 let demo: { game: Game; art: Map<string, Uint8Array> };
@@ -132,5 +132,15 @@ describe('PrintPool', () => {
 		for (const r of results) qpdfCheck(r.bytes);
 		expect(new Set(results.map((r) => r.workerId)).size).toBe(2);
 		expect(pool.running + pool.waiting).toBe(0);
+	});
+});
+
+describe('defaultPoolSize', () => {
+	it('is one worker per core unless a count is chosen', () => {
+		expect(defaultPoolSize(undefined, 2)).toBe(2);
+		expect(defaultPoolSize(undefined, 8)).toBe(8);
+		expect(defaultPoolSize('3', 2)).toBe(3);
+		// Not a count: the default stands.
+		for (const bad of ['0', '-2', '1.5', 'many', '']) expect(defaultPoolSize(bad, 4)).toBe(4);
 	});
 });

@@ -115,8 +115,12 @@ export interface PrintRunner {
 	close(): Promise<void>;
 }
 
-/** One per core: builds are CPU-bound. */
-export const DEFAULT_POOL_SIZE = Math.max(1, availableParallelism());
+/** Builds are CPU-bound: one worker per core, or as many as PADDOCK_PRINT_WORKERS says. */
+export function defaultPoolSize(env = process.env.PADDOCK_PRINT_WORKERS, cores = availableParallelism()): number {
+	const chosen = Number(env);
+	if (env && Number.isInteger(chosen) && chosen >= 1) return chosen;
+	return Math.max(1, cores);
+}
 export const DEFAULT_MAX_QUEUE = 16;
 export const DEFAULT_IDLE_SIZE = 1;
 const DEFAULT_IDLE_MS = 60_000;
@@ -162,7 +166,7 @@ export class PrintPool implements PrintRunner {
 	private warm: Promise<void>;
 
 	constructor(options: PrintPoolOptions = {}) {
-		this.size = Math.max(1, Math.floor(options.size ?? DEFAULT_POOL_SIZE));
+		this.size = Math.max(1, Math.floor(options.size ?? defaultPoolSize()));
 		this.idleSize = Math.min(this.size, Math.max(1, Math.floor(options.idleSize ?? DEFAULT_IDLE_SIZE)));
 		this.maxQueue = Math.max(0, Math.floor(options.maxQueue ?? DEFAULT_MAX_QUEUE));
 		this.workerPath = resolveWorkerPath(options.workerPath);
