@@ -53,26 +53,33 @@ function share(font: Font): SharedFont {
 	return { font, shaped: new Map(), cmapGlyphs };
 }
 
+/** A string's shaping, remembered in the shared font. */
+function shapedIn({ font, shaped, cmapGlyphs }: SharedFont, sharedKey: string, text: string, features?: unknown) {
+	const key = features === undefined ? text : `${text}\u0000${JSON.stringify(features)}`;
+	let entry = shaped.get(key);
+	if (!entry) {
+		if (shaped.size >= MAX_SHAPED_STRINGS) shaped.clear();
+		changed.add(sharedKey);
+		const run = font.layout(text, features as never);
+		entry = { run, beyondCmap: run.glyphs.filter((g) => !cmapGlyphs.has(g.id) && g.codePoints.length) };
+		shaped.set(key, entry);
+	}
+	return entry;
+}
+
 /**
  * One document's view of a shared font. The glyphs beyond the cmap it lists are the ones this
  * document's texts produced, so the same texts always give the same font dictionaries, whatever
  * else the process printed before.
  */
-function forDocument({ font, shaped, cmapGlyphs }: SharedFont, sharedKey: string): Font {
+function forDocument(shared: SharedFont, sharedKey: string): Font {
+	const { font } = shared;
 	/** Glyphs shaping produced beyond the cmap, with the code points they stand for. */
 	const extra = new Map<number, Glyph>();
 
 	const layout = (text: string, features?: unknown, ...rest: unknown[]): Run => {
 		if (rest.length) return font.layout(text, features as never, ...(rest as []));
-		const key = features === undefined ? text : `${text}\u0000${JSON.stringify(features)}`;
-		let entry = shaped.get(key);
-		if (!entry) {
-			if (shaped.size >= MAX_SHAPED_STRINGS) shaped.clear();
-			changed.add(sharedKey);
-			const run = font.layout(text, features as never);
-			entry = { run, beyondCmap: run.glyphs.filter((g) => !cmapGlyphs.has(g.id) && g.codePoints.length) };
-			shaped.set(key, entry);
-		}
+		const entry = shapedIn(shared, sharedKey, text, features);
 		for (const g of entry.beyondCmap) if (!extra.has(g.id)) extra.set(g.id, g);
 		return entry.run;
 	};
@@ -118,7 +125,8 @@ export const sharedFontkit = {
 /**
  * The fontkit font of these TrueType bytes, parsed once for measuring (the layout) and for the
  * documents alike: the tables shaping reads and the glyphs it loads are then read once, not
- * twice. A font answered from a record is no parsed font: measuring then parses its own.
+ * twice, and a string is shaped once for both. A font answered from a record is no parsed
+ * font: measuring then parses its own.
  */
 export function parsedFont(bytes: Uint8Array): Font {
 	const key = `${fileKey(bytes)}:`;
@@ -128,7 +136,19 @@ export function parsedFont(bytes: Uint8Array): Font {
 		fonts.set(key, shared);
 		if (records) changed.add(key);
 	}
-	return shared.fromRecord ? fontkit().create(bytes) : shared.font;
+	if (shared.fromRecord) return fontkit().create(bytes);
+	// Shaping through the documents' memo: a line the layout shaped (for its ink box) is not shaped again when drawn.
+	const { font } = shared;
+	const sharedFont = shared;
+	const layout = (text: string, features?: unknown, ...rest: unknown[]): Run =>
+		rest.length ? font.layout(text, features as never, ...(rest as [])) : shapedIn(sharedFont, key, text, features).run;
+	return new Proxy({} as Font, {
+		get(_blank, prop) {
+			if (prop === 'layout') return layout;
+			const value = Reflect.get(font, prop, font);
+			return typeof value === 'function' ? value.bind(font) : value;
+		}
+	});
 }
 
 /* --------------------------------------------------------- kept records */
