@@ -100,7 +100,8 @@ try {
 	writeFileSync('soak-results.json', JSON.stringify(summary, null, '\t') + '\n');
 	console.log(
 		`Soak ${minutes} min: RSS start ${start.rssMb} MB, peak ${peakMb} MB, end of load ${endOfLoad.rssMb} MB, after ${summary.quietSeconds} s quiet ${after.rssMb} MB` +
-			` (load average ${summary.loadAverage.min}–${summary.loadAverage.max}, mean ${summary.loadAverage.mean}); ${load.requests} requests, ${load.edits} edits, ${load.builds} builds, ${load.errors} errors`
+			` (load average ${summary.loadAverage.min}–${summary.loadAverage.max}, mean ${summary.loadAverage.mean}); ${load.requests} requests, ${load.edits} edits, ${load.builds} builds, ${load.errors} errors` +
+			(Object.keys(load.failures).length ? ` (failed outright: ${JSON.stringify(load.failures)})` : '')
 	);
 	console.log(`  after the quiet spell: ${after.rssMb} MB (target < ${TARGET_MB} MB) — ${summary.afterUnderTarget ? 'met' : 'NOT met'}`);
 	console.log(
