@@ -15,13 +15,19 @@
 // no limit it lets a heap run to about four times what it still uses before collecting, and
 // every page of that stays resident. A stated limit makes it collect sooner (the server's own
 // heap uses ~100 MB after a busy spell). Options of the caller's own come after, so theirs win.
+//
+// UV_THREADPOOL_SIZE: libuv's four threads serve file reads and writes and the session cookie's
+// cryptography alike. While builds read art and write files, a signed-in request's decryption
+// would wait in that queue; more threads keep it short (they sleep when there is nothing to do).
 export const HEAP_LIMIT_MB = 512;
+export const THREADPOOL_SIZE = 16;
 const LARGE_BLOCK_BYTES = String(128 * 1024);
 
 export function appEnv(env = process.env) {
 	return {
 		...env,
 		MALLOC_ARENA_MAX: env.MALLOC_ARENA_MAX ?? '2',
+		UV_THREADPOOL_SIZE: env.UV_THREADPOOL_SIZE ?? String(THREADPOOL_SIZE),
 		MALLOC_MMAP_THRESHOLD_: env.MALLOC_MMAP_THRESHOLD_ ?? LARGE_BLOCK_BYTES,
 		MALLOC_TRIM_THRESHOLD_: env.MALLOC_TRIM_THRESHOLD_ ?? LARGE_BLOCK_BYTES,
 		NODE_OPTIONS: [`--max-old-space-size=${HEAP_LIMIT_MB}`, env.NODE_OPTIONS].filter(Boolean).join(' ')
