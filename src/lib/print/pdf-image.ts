@@ -9,7 +9,7 @@
  */
 import { createRequire } from 'node:module';
 import { promisify } from 'node:util';
-import { deflate, deflateSync, inflate, inflateSync } from 'node:zlib';
+import { deflate, deflateSync, inflateSync } from 'node:zlib';
 import { PDFDocument, PDFName, PDFRef } from 'pdf-lib';
 import type { ImageAsset } from './display-list';
 import type { PressColour } from './colour/cmm';
@@ -418,12 +418,8 @@ function readPngChunks(bytes: Uint8Array): PngChunks | null {
 
 // Inflated rows are read once and dropped: no copy out of the Buffer.
 const syncZlib = { inflate: (b: Uint8Array): Uint8Array => inflateSync(b), deflate: (b: Uint8Array) => new Uint8Array(deflateSync(b, { level: 6 })) };
-const inflateAsync = promisify(inflate);
 const deflateAsync = promisify(deflate);
-const asyncZlib = {
-	inflate: (b: Uint8Array): Promise<Uint8Array> => inflateAsync(b),
-	deflate: async (b: Uint8Array) => new Uint8Array(await deflateAsync(b, { level: 6 }))
-};
+const asyncZlib = { deflate: async (b: Uint8Array) => new Uint8Array(await deflateAsync(b, { level: 6 })) };
 
 /** A PNG asset's pixels for a plain (not press) document: its rows as they are where it can, else decoded. */
 async function encodePngAsset(asset: ImageAsset): Promise<EncodedPixels> {
@@ -436,12 +432,15 @@ async function encodePngAsset(asset: ImageAsset): Promise<EncodedPixels> {
  * Starts encoding the PNG pictures the store does not hold yet. Resolves once their rows are
  * split (the part on this thread), with `compressed`, which resolves when the compression, on
  * libuv's threads meanwhile, is done and the store holds them: a caller lays out faces in
- * between and finds the pictures ready when it draws. Pictures that need decoding, or fail, are
+ * between (await this first, so the compression starts before the layout does) and finds the
+ * pictures ready when it draws. Pictures that need decoding, or fail, are
  * left to the document (which reports a damaged one where it draws it).
  */
 export async function encodeImagesAhead(assets: Iterable<ImageAsset>, store: EncodedImageStore): Promise<{ compressed: Promise<void> }> {
 	const todo = [...assets].filter((a) => a.mime === 'image/png' && !store.get(pixelKey(a)));
-	const split = await Promise.all(todo.map((asset) => splitPngRows(asset.bytes, asyncZlib.inflate).catch(() => null)));
+	// Inflated here and now (native, quick): an inflate on libuv's threads would only come back
+	// once this thread is idle, after the layout it was meant to run beside.
+	const split = await Promise.all(todo.map((asset) => splitPngRows(asset.bytes, syncZlib.inflate).catch(() => null)));
 	const compressed = Promise.all(
 		split.map(async (rows, i) => {
 			if (!rows) return;

@@ -92,7 +92,7 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 	keepFontRecords(disk && fontRecordsIn(disk));
 	// A process that prints one file (the CLI, with its disk cache) compresses the pictures on
 	// libuv's threads while this one lays out the faces. Press files convert theirs (./press.ts).
-	const picturesAhead = disk && !options.pdfx ? encodeImagesAhead((await loadGameImages(game, art, cache)).images.values(), disk) : undefined;
+	const picturesAhead = disk && !options.pdfx ? await encodeImagesAhead((await loadGameImages(game, art, cache)).images.values(), disk) : undefined;
 	const faces = await renderGameFaces(game, art, {
 		kinds: kinds.map((k) => k.id),
 		cache,
@@ -112,7 +112,7 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 	pageTotal = count.total;
 	const ink: string[] = [];
 	const fonts = await loadFontFiles();
-	await (await picturesAhead)?.compressed;
+	await picturesAhead?.compressed;
 	// Forms are kept for plain RGB or CMYK; a press file draws its own (subset fonts, the profile's colours).
 	const keepForms = disk && !options.pdfx ? sheetOptions.colour : undefined;
 	const drawn = keepForms ? restoreForms(disk!, distinctFaces(faces.cards), keepForms, fonts) : undefined;
