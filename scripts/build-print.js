@@ -1,10 +1,13 @@
 // Part of `npm run build`: the print worker, the odds worker and the print CLI compiled to plain JavaScript
 // (esbuild), so neither needs a TypeScript loader at run time. The workers leave packages in node_modules.
 // The CLI, started anew for every file, carries its plain-JavaScript packages inside (one file to load
-// instead of hundreds; build/print.cjs) and loads the rest (WebAssembly, fontkit) from node_modules only
-// when it uses them. build/print.js starts it from a V8 code cache (see LAUNCHER).
+// instead of hundreds; build/print.cjs) and loads the rest (WebAssembly, jimp) from node_modules only
+// when it uses them (fontkit is inside, started on first use). build/print.js starts it from a V8 code
+// cache (see LAUNCHER), made here by one run.
 import { createHash } from 'node:crypto';
-import { readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { build } from 'esbuild';
 
@@ -77,6 +80,26 @@ export async function buildPrint({ quiet = false } = {}) {
 			banner: { js: "const __paddockUrl = require('node:url').pathToFileURL(__filename).href;" }
 		}).then(writeLauncher)
 	]);
+	makeCodeCache();
+}
+
+/**
+ * Runs the compiled CLI once on the demo game, into a throw-away file and an empty face cache,
+ * so that its V8 code cache exists before anyone's first run (the launcher writes it at the end
+ * of a run that found none): a first run then neither compiles the bundle nor lays out with
+ * cold code. It also keeps the demo art (node_modules/.cache), as any first demo run would.
+ */
+function makeCodeCache() {
+	const dir = mkdtempSync(join(tmpdir(), 'paddock-print-build-'));
+	try {
+		const run = spawnSync(process.execPath, [join(root, 'build', 'print.js'), '--demo', '--cache', join(dir, 'cache'), '--out', join(dir, 'demo.pdf')], {
+			cwd: root,
+			encoding: 'utf8'
+		});
+		if (run.status !== 0) throw new Error(`build-print: the compiled CLI failed on the demo game:\n${run.stderr}`);
+	} finally {
+		rmSync(dir, { recursive: true, force: true });
+	}
 }
 
 /**
