@@ -12,7 +12,6 @@
  */
 import { createHash } from 'node:crypto';
 import { mkdirSync, readdirSync, readFileSync, renameSync, statSync, unlinkSync, utimesSync, writeFileSync } from 'node:fs';
-import { mkdir, rename, writeFile } from 'node:fs/promises';
 import { homedir } from 'node:os';
 import { join } from 'node:path';
 import type { FaceLayout } from './display-list';
@@ -57,9 +56,6 @@ export class PrintDiskCache implements EncodedImageStore {
 	private ready = false;
 	/** Images already asked for in this process, so `set` after a miss writes once. */
 	private pixelMemo = new Map<string, EncodedPixels>();
-	private pending: Promise<void>[] = [];
-	private made: Promise<unknown> | undefined;
-	private writes = 0;
 
 	constructor(
 		readonly dir: string,
@@ -102,34 +98,6 @@ export class PrintDiskCache implements EncodedImageStore {
 		return payload;
 	}
 
-	/**
-	 * Keeps the entry without waiting: the file is written and renamed on libuv's threads while
-	 * this one goes on (a first run writes hundreds). `settled` waits for every such write.
-	 */
-	writeSoon(area: DiskArea, key: string, payload: Uint8Array): void {
-		const file = this.path(area, key);
-		const tmp = `${file}.${process.pid}-${++this.writes}.tmp`;
-		const bytes = frame(payload);
-		this.pending.push(
-			(async () => {
-				try {
-					this.made ??= mkdir(this.dir, { recursive: true });
-					await this.made;
-					await writeFile(tmp, bytes);
-					await rename(tmp, file);
-					this.stats.written[area]++;
-				} catch {
-					// Not kept.
-				}
-			})()
-		);
-	}
-
-	/** Resolves when every `writeSoon` so far has finished (or failed: a failed write only costs the next run). */
-	async settled(): Promise<void> {
-		while (this.pending.length) await Promise.all(this.pending.splice(0));
-	}
-
 	/** Keeps the entry; a directory that cannot be written is not an error (the run just makes it again next time). */
 	write(area: DiskArea, key: string, payload: Uint8Array): void {
 		try {
@@ -155,7 +123,7 @@ export class PrintDiskCache implements EncodedImageStore {
 	}
 
 	writeLayout(key: string, face: FaceLayout): void {
-		this.writeSoon('layout', key, new TextEncoder().encode(JSON.stringify(face)));
+		this.write('layout', key, new TextEncoder().encode(JSON.stringify(face)));
 	}
 
 	readForm(key: string): FormRecord | undefined {
@@ -168,7 +136,7 @@ export class PrintDiskCache implements EncodedImageStore {
 	}
 
 	writeForm(key: string, form: FormRecord): void {
-		this.writeSoon('form', key, pack({ colour: form.colour, images: form.images, texts: form.texts }, [form.content]));
+		this.write('form', key, pack({ colour: form.colour, images: form.images, texts: form.texts }, [form.content]));
 	}
 
 	/* EncodedImageStore: encoded pixels by ./pdf-image.ts `pixelKey` (a content hash). */
@@ -195,7 +163,7 @@ export class PrintDiskCache implements EncodedImageStore {
 	set(key: string, pixels: EncodedPixels): void {
 		this.pixelMemo.set(key, pixels);
 		const { colour, alpha, ...head } = pixels;
-		this.writeSoon('pixels', key, pack({ ...head, alpha: !!alpha }, alpha ? [colour, alpha] : [colour]));
+		this.write('pixels', key, pack({ ...head, alpha: !!alpha }, alpha ? [colour, alpha] : [colour]));
 	}
 
 	/* FontRecordStore */
@@ -205,7 +173,7 @@ export class PrintDiskCache implements EncodedImageStore {
 	}
 
 	writeFont(key: string, record: FontRecord): void {
-		this.writeSoon('font', key, new TextEncoder().encode(JSON.stringify(record)));
+		this.write('font', key, new TextEncoder().encode(JSON.stringify(record)));
 	}
 
 	/** Removes the least recently used entries (and stray temporary files) until the directory is under `maxBytes`. */

@@ -134,7 +134,6 @@ export async function buildGamePdf(game: Game, art: ReadonlyMap<string, Uint8Arr
 	if (disk) {
 		if (drawn?.size) keepDrawnForms(disk, drawn, keepForms!, fonts);
 		saveFontRecords();
-		await disk.settled();
 		if (Object.values(disk.stats.written).some(Boolean)) disk.trim();
 	}
 	return { pdf, sheets: plan.sheetCount, pages: pageTotal, guidePages: count.guidePages, warnings: [...faces.warnings, ...plan.warnings, ...ink] };
