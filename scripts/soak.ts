@@ -79,8 +79,12 @@ try {
 	const peakMb = Math.max(...samples.map((x) => x.rssMb));
 	const loads = samples.map((x) => x.load);
 	// What the caches may hold once the load is over: the face cache and each print worker still started.
-	const bounds = { faceCacheMb: vitals.faceCache.maxBytes / MB, printCachesMb: (vitals.printWorkersIdle * vitals.printCacheMaxBytes) / MB };
-	const boundsMb = bounds.faceCacheMb + bounds.printCachesMb;
+	const bounds = {
+		faceCacheMb: vitals.faceCache.maxBytes / MB,
+		faceKeysMb: (vitals.faceCache.keys?.maxBytes ?? 0) / MB,
+		printCachesMb: (vitals.printWorkersIdle * vitals.printCacheMaxBytes) / MB
+	};
+	const boundsMb = bounds.faceCacheMb + bounds.faceKeysMb + bounds.printCachesMb;
 	const growthMb = after.rssMb - start.rssMb;
 	const summary = {
 		minutes,
@@ -105,7 +109,7 @@ try {
 	);
 	console.log(`  after the quiet spell: ${after.rssMb} MB (target < ${TARGET_MB} MB) — ${summary.afterUnderTarget ? 'met' : 'NOT met'}`);
 	console.log(
-		`  growth start → after: ${growthMb} MB; caches' byte bounds ${boundsMb} MB (face cache ${bounds.faceCacheMb} + ${vitals.printWorkersIdle} print worker × ${vitals.printCacheMaxBytes / MB}) — ${summary.growthWithinBounds ? 'within' : 'BEYOND'}`
+		`  growth start → after: ${growthMb} MB; caches' byte bounds ${boundsMb} MB (face cache ${bounds.faceCacheMb} + its key map ${bounds.faceKeysMb} + ${vitals.printWorkersIdle} print worker × ${vitals.printCacheMaxBytes / MB}) — ${summary.growthWithinBounds ? 'within' : 'BEYOND'}`
 	);
 } finally {
 	await server.stop();

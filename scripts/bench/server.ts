@@ -21,7 +21,7 @@ export interface Vitals {
 	externalMb: number;
 	arrayBuffersMb: number;
 	loopDelayMs: { p50: number; p99: number; max: number };
-	faceCache: { entries: number; bytes: number; maxBytes: number };
+	faceCache: { entries: number; bytes: number; maxBytes: number; keys?: { entries: number; bytes: number; maxBytes: number } };
 	printWorkersWarm: boolean;
 	/** Print worker threads started now, kept while idle, and at most. */
 	printWorkers: number;

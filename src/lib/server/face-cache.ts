@@ -20,13 +20,21 @@ export interface KeptFace {
 	warnings: number;
 }
 
+/** JavaScript strings take up to two bytes a character; the rest is the entry's own bookkeeping (a rough figure). */
+const ENTRY_OVERHEAD_BYTES = 64;
+
 const faces = new LRUCache<string, KeptFace>({
 	maxSize: FACE_CACHE_BYTES,
-	sizeCalculation: (f) => f.svg.length * 2 + 64
+	sizeCalculation: (f) => f.svg.length * 2 + ENTRY_OVERHEAD_BYTES
 });
 
-/** (game, version, card, side, variant) → content key; entries are small, so a count bounds it. */
-const byVersion = new LRUCache<string, string>({ max: 20_000 });
+/** Room for the (game, version, card, side, variant) → content key map: some tens of thousands of keys. */
+export const KEY_CACHE_BYTES = 4 * 1024 * 1024;
+
+const byVersion = new LRUCache<string, string>({
+	maxSize: KEY_CACHE_BYTES,
+	sizeCalculation: (contentKey, versionKey) => (versionKey.length + contentKey.length) * 2 + ENTRY_OVERHEAD_BYTES
+});
 
 /** The content key of one face drawn one way (`variant`: guides, resolution, format). */
 export function faceContentKey(game: Game, kind: CardKind, card: Card | undefined, side: 'front' | 'back', variant: string): string {
@@ -53,7 +61,12 @@ export function rememberKey(versionKey: string, contentKey: string): void {
 
 /** What the cache holds now (for the benchmark). */
 export function faceCacheStats() {
-	return { entries: faces.size, bytes: faces.calculatedSize, maxBytes: FACE_CACHE_BYTES };
+	return {
+		entries: faces.size,
+		bytes: faces.calculatedSize,
+		maxBytes: FACE_CACHE_BYTES,
+		keys: { entries: byVersion.size, bytes: byVersion.calculatedSize, maxBytes: KEY_CACHE_BYTES }
+	};
 }
 
 /** An ETag from a content key (RFC 9110 §8.8.3: a quoted opaque string). */
