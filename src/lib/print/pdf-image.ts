@@ -31,33 +31,10 @@ const PNG_SIGNATURE = [137, 80, 78, 71, 13, 10, 26, 10];
  * Returns null for interlaced files, which the caller decodes the slow way.
  */
 export function decodePng(bytes: Uint8Array): DecodedPng | null {
-	for (let i = 0; i < 8; i++) if (bytes[i] !== PNG_SIGNATURE[i]) throw new Error('not a PNG file');
-	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-	let width = 0;
-	let height = 0;
-	let depth = 8;
-	let type = 0;
-	let interlace = 0;
-	let palette: Uint8Array | undefined;
-	let transparency: Uint8Array | undefined;
-	const data: Uint8Array[] = [];
-	for (let at = 8; at + 8 <= bytes.length; ) {
-		const length = view.getUint32(at);
-		const name = String.fromCharCode(bytes[at + 4], bytes[at + 5], bytes[at + 6], bytes[at + 7]);
-		const body = bytes.subarray(at + 8, at + 8 + length);
-		if (name === 'IHDR') {
-			width = view.getUint32(at + 8);
-			height = view.getUint32(at + 12);
-			depth = body[8];
-			type = body[9];
-			interlace = body[12];
-		} else if (name === 'PLTE') palette = body;
-		else if (name === 'tRNS') transparency = body;
-		else if (name === 'IDAT') data.push(body);
-		else if (name === 'IEND') break;
-		at += 12 + length;
-	}
-	if (interlace !== 0) return null;
+	const png = readPngChunks(bytes);
+	if (!png) throw new Error('not a PNG file');
+	const { width, height, depth, type, palette, transparency, data } = png;
+	if (png.interlace !== 0) return null;
 	const samples = { 0: 1, 2: 3, 3: 1, 4: 2, 6: 4 }[type];
 	if (!samples || !width || !height) throw new Error('unsupported PNG header');
 
@@ -335,7 +312,7 @@ interface SplitRows {
 
 async function splitPngRows(bytes: Uint8Array, inflate: (b: Uint8Array) => Uint8Array | Promise<Uint8Array>): Promise<SplitRows | null> {
 	const png = readPngChunks(bytes);
-	if (!png || png.depth !== 8 || png.interlace !== 0 || png.transparency || png.palette) return null;
+	if (!png || !png.width || !png.height || !png.data.length || png.depth !== 8 || png.interlace !== 0 || png.transparency || png.palette) return null;
 	const channels: 1 | 3 | undefined = png.type === 0 || png.type === 4 ? 1 : png.type === 2 || png.type === 6 ? 3 : undefined;
 	if (!channels) return null;
 	const { width, height } = png;
@@ -393,10 +370,11 @@ interface PngChunks {
 	data: Uint8Array[];
 }
 
+/** The header fields and chunks decoding needs (ISO/IEC 15948 §5, §11.2); null when the signature is not a PNG's. */
 function readPngChunks(bytes: Uint8Array): PngChunks | null {
 	for (let i = 0; i < 8; i++) if (bytes[i] !== PNG_SIGNATURE[i]) return null;
 	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-	const png: PngChunks = { width: 0, height: 0, depth: 0, type: 0, interlace: 0, data: [] };
+	const png: PngChunks = { width: 0, height: 0, depth: 8, type: 0, interlace: 0, data: [] };
 	for (let at = 8; at + 8 <= bytes.length; ) {
 		const length = view.getUint32(at);
 		const name = String.fromCharCode(bytes[at + 4], bytes[at + 5], bytes[at + 6], bytes[at + 7]);
@@ -413,7 +391,7 @@ function readPngChunks(bytes: Uint8Array): PngChunks | null {
 		else if (name === 'IEND') break;
 		at += 12 + length;
 	}
-	return png.width && png.height && png.data.length ? png : null;
+	return png;
 }
 
 // Inflated rows are read once and dropped: no copy out of the Buffer.
