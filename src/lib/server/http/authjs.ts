@@ -14,6 +14,7 @@ import { findUserByEmail } from '../users';
 import { checkPassword } from '../auth/passwords';
 import { signInRefused, recordFailure, WINDOW_MS } from '../auth/throttle';
 import { currentClient } from '../auth/client-address';
+import { decodeSessionCookie, encodeSessionCookie } from '../auth/session-cookie';
 import { SESSION_MAX_AGE_S, endSession, openSessionUser, startSession } from '../auth/sessions';
 
 const credentials = z.object({ email: z.string().trim().email(), password: z.string().min(1).max(200) });
@@ -30,6 +31,8 @@ export const { handle: authHandle, signIn, signOut } = SvelteKitAuth(async () =>
 	trustHost: true,
 	useSecureCookies: secureCookies(),
 	session: { strategy: 'jwt', maxAge: SESSION_MAX_AGE_S },
+	// Auth.js's own cookie format, decrypted once per process and re-encrypted at most hourly.
+	jwt: { encode: encodeSessionCookie, decode: decodeSessionCookie },
 	pages: { signIn: '/signin' },
 	providers: [
 		Credentials({
