@@ -1,7 +1,7 @@
 import type { Handle, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { authHandle } from '$lib/server/http/authjs';
-import { knowClient, cookiePolicy, signInLimitAnswer } from '$lib/server/http/request-hooks';
+import { knowClient, backgroundRequests, cookiePolicy, signInLimitAnswer } from '$lib/server/http/request-hooks';
 import { startRuntime, db, StartupError } from '$lib/server/runtime';
 import { userForToken } from '$lib/server/api-tokens';
 import { apiError } from '$lib/server/http/api';
@@ -58,6 +58,6 @@ const identify: Handle = async ({ event, resolve }) => {
 };
 
 /** In order; exported so integration tests can run the same chain without the server. */
-export const handlers: Handle[] = [knowClient, cookiePolicy, signInLimitAnswer, authHandle, identify, refuseControlCharacters];
+export const handlers: Handle[] = [knowClient, backgroundRequests, cookiePolicy, signInLimitAnswer, authHandle, identify, refuseControlCharacters];
 
 export const handle = sequence(...handlers);

@@ -58,19 +58,18 @@ export class PrintQueueFull extends Busy {
 }
 
 /**
- * Writes a print job's row with `insert` if the queue has room, all in one transaction; throws
- * PrintQueueFull (and writes nothing) when it has none.
+ * Writes a print job's row with `insert` if the queue has room; throws PrintQueueFull (and
+ * writes nothing) when it has none. Runs inside the caller's transaction `tx`, whose end
+ * releases the lock.
  */
-export async function admitPrintJob<T>(db: Db, insert: (tx: Db) => Promise<T>, max = printQueueMax()): Promise<T> {
-	return db.transaction(async (tx) => {
-		await tx.execute(sql`select pg_advisory_xact_lock(${ADMIT_LOCK})`);
-		const rows = await tx
-			.select({ state: printJobs.state, n: count() })
-			.from(printJobs)
-			.where(inArray(printJobs.state, ['queued', 'running']))
-			.groupBy(printJobs.state);
-		const open = rows.reduce((n, r) => n + r.n, 0);
-		if (open >= max) throw new PrintQueueFull(open, retryAfterSeconds(rows.find((r) => r.state === 'running')?.n ?? 0));
-		return insert(tx as unknown as Db);
-	});
+export async function admitPrintJob<T>(tx: Db, insert: () => Promise<T>, max = printQueueMax()): Promise<T> {
+	await tx.execute(sql`select pg_advisory_xact_lock(${ADMIT_LOCK})`);
+	const rows = await tx
+		.select({ state: printJobs.state, n: count() })
+		.from(printJobs)
+		.where(inArray(printJobs.state, ['queued', 'running']))
+		.groupBy(printJobs.state);
+	const open = rows.reduce((n, r) => n + r.n, 0);
+	if (open >= max) throw new PrintQueueFull(open, retryAfterSeconds(rows.find((r) => r.state === 'running')?.n ?? 0));
+	return insert();
 }

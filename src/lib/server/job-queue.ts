@@ -11,6 +11,13 @@ export interface JobKind {
 	run: (id: string) => Promise<void>;
 	/** After the last attempt failed. */
 	giveUp: (id: string, error: unknown) => Promise<void>;
+	/**
+	 * Jobs of this kind started at once in this process (default: no limit). The rest wait in
+	 * the queue, their rows still `queued`, and start as others finish: starting a job reads its
+	 * whole request, and eight started together would hold up the server's thread for nothing
+	 * while they all wait for the same few workers.
+	 */
+	atOnce?: () => number;
 }
 
 export interface JobQueue {
@@ -33,18 +40,35 @@ function kindOf(name: string): JobKind {
 	return kind;
 }
 
-/** Runs each job now, in this process; one attempt. */
+/** Runs each job in this process, at once or when one of its kind finishes (`atOnce`); one attempt. */
 export function inProcessQueue(): JobQueue {
 	const running = new Set<Promise<void>>();
+	const waiting = new Map<string, Array<() => void>>();
+	const started = new Map<string, number>();
+	const startNext = (name: string) => {
+		const kind = kindOf(name);
+		const queue = waiting.get(name) ?? [];
+		while (queue.length > 0 && (started.get(name) ?? 0) < Math.max(1, kind.atOnce?.() ?? Infinity)) {
+			started.set(name, (started.get(name) ?? 0) + 1);
+			queue.shift()!();
+		}
+	};
 	return {
 		shared: false,
 		async send(name, id) {
 			const kind = kindOf(name);
-			const p = kind
-				.run(id)
+			const p = new Promise<void>((go) => {
+				waiting.set(name, [...(waiting.get(name) ?? []), go]);
+				startNext(name);
+			})
+				.then(() => kind.run(id))
 				.catch((e) => kind.giveUp(id, e))
 				.catch((e) => console.error(e))
-				.finally(() => running.delete(p));
+				.finally(() => {
+					running.delete(p);
+					started.set(name, (started.get(name) ?? 1) - 1);
+					startNext(name);
+				});
 			running.add(p);
 		},
 		async stop(timeoutMs = 30_000) {

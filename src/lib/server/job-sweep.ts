@@ -10,6 +10,7 @@
  */
 import { and, inArray, isNotNull, lt, sql } from 'drizzle-orm';
 import type { Db } from './db';
+import { asBackground } from './db/turns';
 import { oddsJobs, printJobs } from './db/schema';
 import { storage } from './storage';
 
@@ -106,7 +107,7 @@ export async function closeJobsLeftOpen(db: Db, now = new Date()): Promise<numbe
 export function startSweeping(db: Db): () => void {
 	let running: Promise<unknown> = Promise.resolve();
 	const timer = setInterval(() => {
-		running = sweepFinishedJobs(db).catch((e) => console.error(`Sweeping finished jobs: ${(e as Error).message}`));
+		running = asBackground(() => sweepFinishedJobs(db)).catch((e) => console.error(`Sweeping finished jobs: ${(e as Error).message}`));
 	}, SWEEP_EVERY_MS);
 	timer.unref();
 	return () => {

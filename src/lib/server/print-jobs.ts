@@ -9,7 +9,7 @@
  * only the first build to finish is recorded, so a job never ends with two different files.
  */
 import { createHash } from 'node:crypto';
-import { and, desc, eq, getTableColumns, gt, isNotNull, lt, ne, sql } from 'drizzle-orm';
+import { and, desc, eq, getTableColumns, gt, isNotNull, ne, sql } from 'drizzle-orm';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
 import { Conflict, NotFound, Refusal } from './refusals';
@@ -62,64 +62,66 @@ export async function startPngJob(db: Db, source: PrintSource, options: PngJobOp
 }
 
 async function queueJob(db: Db, source: PrintSource, request: SheetRequest | PngRequest, fileName: string): Promise<PrintJobRow> {
-	await db.delete(printJobs).where(lt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS)));
 	// The request is the whole game as data: compared by its hash, an indexed column, not as JSON.
 	// Its keys come in one order (the game read in position order, the options as their schema parsed them).
 	const requestSha256 = createHash('sha256').update(JSON.stringify(request)).digest('hex');
-	const again = await finishedAlready(db, source, requestSha256, fileName);
-	if (again) return again;
-	// A full queue refuses now (503), before the row is written, rather than as a failed job later.
-	const row = await admitPrintJob(db, async (tx) => {
-		const [inserted] = await tx
-			.insert(printJobs)
-			.values({ userId: source.actor.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, requestSha256, fileName })
-			.returning(FOLLOWED);
-		return inserted;
+	// One transaction, under the sweep's shared lock (so a twin's file cannot go between finding
+	// and naming it): a twin finished a moment ago answers at once; otherwise the queue admits the
+	// job, or refuses it now (503) with nothing written, rather than as a failed job later.
+	const { row, queued } = await holdingJobFiles(db, async (tx) => {
+		const twin = await finishedTwin(tx, source, requestSha256, fileName);
+		if (twin) return { row: twin, queued: false };
+		const inserted = await admitPrintJob(tx, async () => {
+			const [job] = await tx
+				.insert(printJobs)
+				.values({ userId: source.actor.userId, gameId: source.gameId, request: request as unknown as Record<string, unknown>, requestSha256, fileName })
+				.returning(FOLLOWED);
+			return job;
+		});
+		return { row: inserted, queued: true };
 	});
-	await jobQueue().send('print', row.id);
+	if (queued) await jobQueue().send('print', row.id);
 	return row;
 }
 
 /**
  * The same request built a moment ago (the game as data and the options alike, so the same file):
  * a new job, already done, on that file. A second download of a proof's sheets or PNGs is then
- * at once. Under the sweep's shared lock, so the file cannot go between finding and naming it.
+ * at once. Run inside `holdingJobFiles`.
  */
-async function finishedAlready(db: Db, source: PrintSource, requestSha256: string, fileName: string): Promise<PrintJobRow | null> {
-	return holdingJobFiles(db, async (tx) => {
-		const [done] = await tx
-			.select()
-			.from(printJobs)
-			.where(
-				and(
-					eq(printJobs.gameId, source.gameId),
-					eq(printJobs.requestSha256, requestSha256),
-					eq(printJobs.state, 'done'),
-					isNotNull(printJobs.fileKey),
-					gt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS))
-				)
+async function finishedTwin(tx: Db, source: PrintSource, requestSha256: string, fileName: string): Promise<PrintJobRow | null> {
+	const [done] = await tx
+		.select()
+		.from(printJobs)
+		.where(
+			and(
+				eq(printJobs.gameId, source.gameId),
+				eq(printJobs.requestSha256, requestSha256),
+				eq(printJobs.state, 'done'),
+				isNotNull(printJobs.fileKey),
+				gt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS))
 			)
-			.orderBy(desc(printJobs.finishedAt))
-			.limit(1);
-		if (!done) return null;
-		const [row] = await tx
-			.insert(printJobs)
-			.values({
-				userId: source.actor.userId,
-				gameId: source.gameId,
-				request: done.request,
-				requestSha256,
-				fileName,
-				fileKey: done.fileKey,
-				state: 'done',
-				done: done.done,
-				total: done.total,
-				result: done.result,
-				finishedAt: new Date()
-			})
-			.returning(FOLLOWED);
-		return row;
-	});
+		)
+		.orderBy(desc(printJobs.finishedAt))
+		.limit(1);
+	if (!done) return null;
+	const [row] = await tx
+		.insert(printJobs)
+		.values({
+			userId: source.actor.userId,
+			gameId: source.gameId,
+			request: done.request,
+			requestSha256,
+			fileName,
+			fileKey: done.fileKey,
+			state: 'done',
+			done: done.done,
+			total: done.total,
+			result: done.result,
+			finishedAt: new Date()
+		})
+		.returning(FOLLOWED);
+	return row;
 }
 
 export async function jobFor(db: Db, userId: string, id: string): Promise<PrintJobRow> {

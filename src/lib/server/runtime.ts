@@ -7,7 +7,7 @@ import { caughtMail } from './db/schema';
 import { startCatcher } from './mail/catcher';
 import { configureMail } from './mail';
 import { config } from './config';
-import { printPool, closePrintPool } from '$lib/print/pool';
+import { printPool, closePrintPool, defaultPoolSize } from '$lib/print/pool';
 import { watchVitals } from './vitals';
 import { collectWhenQuiet } from '$lib/threads/quiet-gc';
 import { warmRecentGames } from './print-warmup';
@@ -15,6 +15,7 @@ import { defineJob, jobQueue, sharedQueue, useJobQueue } from './job-queue';
 import { buildQueuedJob, failJob } from './print-jobs';
 import { failOddsJob, runQueuedOddsJob, stopOddsRunsHere } from './odds';
 import { closeJobsLeftOpen, startSweeping } from './job-sweep';
+import { asBackground } from './db/turns';
 
 interface Runtime {
 	database: Database;
@@ -42,8 +43,13 @@ export async function startMail(db: Db, smtpUrl: string | null) {
 
 /** The kinds of queued work, each reading its job's row from this database. */
 function defineJobs(db: Db) {
-	defineJob('print', { run: (id) => buildQueuedJob(db, id), giveUp: (id) => failJob(db, id) });
-	defineJob('odds', { run: (id) => runQueuedOddsJob(db, id), giveUp: (id, e) => failOddsJob(db, id, e) });
+	// Background work: a person's clicks go first at the database (./db/turns.ts).
+	defineJob('print', {
+		run: (id) => asBackground(() => buildQueuedJob(db, id)),
+		giveUp: (id) => asBackground(() => failJob(db, id)),
+		atOnce: defaultPoolSize
+	});
+	defineJob('odds', { run: (id) => asBackground(() => runQueuedOddsJob(db, id)), giveUp: (id, e) => asBackground(() => failOddsJob(db, id, e)) });
 }
 
 /** Refusal to start with a message for the operator (printed without a stack, exit 1). */
@@ -70,7 +76,7 @@ async function start(): Promise<Runtime> {
 	const pool = printPool({ cacheBytes: WORKER_CACHE_BYTES });
 	void pool
 		.ready()
-		.then(() => warmRecentGames(database.db, pool))
+		.then(() => asBackground(() => warmRecentGames(database.db, pool)))
 		.catch((e) => console.error('warming the print workers failed:', e))
 		.finally(() => (printWarm = true));
 	// The print caches' bounds ride along, so a soak can tell growth within them from a leak.

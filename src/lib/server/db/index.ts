@@ -16,6 +16,7 @@ import { resolve } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import * as schema from './schema';
 import { lockDataDir } from './lock';
+import { takeTurns } from './turns';
 import { describeServerError, serverName } from './server-errors';
 
 export type Db = PgDatabase<PgQueryResultHKT, typeof schema>;
@@ -76,6 +77,7 @@ export async function openDatabase(dataDir: string | null, migrationsFolder = MI
 		if (pgDir && !existsSync(resolve(pgDir, 'PG_VERSION'))) await initDataDir(pgDir);
 		const client = new PGlite(pgDir ?? undefined, { startParams: EMBEDDED_PARAMS });
 		await client.waitReady;
+		takeTurns(client);
 		const db = drizzlePglite({ client, schema });
 		const migrate = (folder: string) => migratePglite(db, { migrationsFolder: folder });
 		await migrate(migrationsFolder);

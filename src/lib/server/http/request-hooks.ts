@@ -7,6 +7,7 @@ import { config, secureCookies } from '../config';
 import { addressFrom, withClient } from '../auth/client-address';
 import { SIGN_IN_LIMITED_MESSAGE } from './authjs';
 import { WINDOW_MS } from '../auth/throttle';
+import { asBackground } from '../db/turns';
 
 export const knowClient: Handle = ({ event, resolve }) =>
 	withClient(
@@ -16,6 +17,13 @@ export const knowClient: Handle = ({ event, resolve }) =>
 		},
 		() => resolve(event)
 	);
+
+/** Requests that start print jobs: background work, whose database calls let a person's clicks go first. */
+const STARTS_PRINT_JOB = '/api/v1/games/[gameId=id]/print-jobs';
+
+/** Starting a print job waits its turn at the database behind everything else (../db/turns.ts). */
+export const backgroundRequests: Handle = ({ event, resolve }) =>
+	event.request.method === 'POST' && event.route.id === STARTS_PRINT_JOB ? asBackground(() => resolve(event)) : resolve(event);
 
 /**
  * Every cookie: HttpOnly, SameSite=Lax, and Secure exactly when the origin is https. Auth.js
