@@ -43,31 +43,32 @@ function kindOf(name: string): JobKind {
 /** Runs each job in this process, at once or when one of its kind finishes (`atOnce`); one attempt. */
 export function inProcessQueue(): JobQueue {
 	const running = new Set<Promise<void>>();
-	const waiting = new Map<string, Array<() => void>>();
-	const started = new Map<string, number>();
-	const startNext = (name: string) => {
-		const kind = kindOf(name);
-		const queue = waiting.get(name) ?? [];
-		while (queue.length > 0 && (started.get(name) ?? 0) < Math.max(1, kind.atOnce?.() ?? Infinity)) {
-			started.set(name, (started.get(name) ?? 0) + 1);
-			queue.shift()!();
+	/** Per kind: jobs waiting for a place, and how many have started and not finished. */
+	const lanes = new Map<string, { waiting: Array<() => void>; started: number }>();
+	const startNext = (name: string, lane: { waiting: Array<() => void>; started: number }) => {
+		const atOnce = Math.max(1, kindOf(name).atOnce?.() ?? Infinity);
+		while (lane.waiting.length > 0 && lane.started < atOnce) {
+			lane.started++;
+			lane.waiting.shift()!();
 		}
 	};
 	return {
 		shared: false,
 		async send(name, id) {
 			const kind = kindOf(name);
+			let lane = lanes.get(name);
+			if (!lane) lanes.set(name, (lane = { waiting: [], started: 0 }));
 			const p = new Promise<void>((go) => {
-				waiting.set(name, [...(waiting.get(name) ?? []), go]);
-				startNext(name);
+				lane.waiting.push(go);
+				startNext(name, lane);
 			})
 				.then(() => kind.run(id))
 				.catch((e) => kind.giveUp(id, e))
 				.catch((e) => console.error(e))
 				.finally(() => {
 					running.delete(p);
-					started.set(name, (started.get(name) ?? 1) - 1);
-					startNext(name);
+					lane.started--;
+					startNext(name, lane);
 				});
 			running.add(p);
 		},

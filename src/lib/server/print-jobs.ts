@@ -16,7 +16,7 @@ import { Conflict, NotFound, Refusal } from './refusals';
 import { artBytes, buildPngZip, sheetsName, pngZipName, runPrint, type PngJobOptions, type PrintSource } from './printing';
 import { storage, StorageUnavailableError, type StoredFile } from './storage';
 import { jobQueue } from './job-queue';
-import { holdingJobFiles } from './job-sweep';
+import { holdingJobFiles, JOB_KEEP_MS } from './job-sweep';
 import { admitPrintJob, noteBuildSeconds } from './job-admission';
 import type { Game } from '$lib/game/model';
 import type { GamePdfOptions } from '$lib/print/sheet-job';
@@ -45,8 +45,6 @@ interface PngRequest {
 	options: PngJobOptions;
 }
 
-/** A finished job's row and file stay this long for download. */
-const KEEP_MS = 10 * 60 * 1000;
 /** Progress is written at most this often. */
 const PROGRESS_MS = 400;
 
@@ -99,7 +97,7 @@ async function finishedTwin(tx: Db, source: PrintSource, requestSha256: string, 
 				eq(printJobs.requestSha256, requestSha256),
 				eq(printJobs.state, 'done'),
 				isNotNull(printJobs.fileKey),
-				gt(printJobs.finishedAt, new Date(Date.now() - KEEP_MS))
+				gt(printJobs.finishedAt, new Date(Date.now() - JOB_KEEP_MS))
 			)
 		)
 		.orderBy(desc(printJobs.finishedAt))
