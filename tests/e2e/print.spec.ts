@@ -15,9 +15,21 @@ test('a printer picks a profile, downloads the sheet PDF of the released demo pr
 	await page.getByLabel('Printer profile').selectOption({ label: 'Office laser, A4 duplex' });
 	await expect(page.getByTestId('sheet-preview')).toBeVisible({ timeout: 30_000 });
 	await expect(page.getByTestId('plan')).toContainText('cards a sheet');
-	await page.getByRole('button', { name: 'Build the sheet PDF' }).click();
+	// The page follows the build by its event stream, not by asking again and again.
+	const asked: string[] = [];
+	page.on('request', (r) => {
+		if (r.url().includes('/api/v1/print-jobs/')) asked.push(new URL(r.url()).pathname);
+	});
+	const [started] = await Promise.all([
+		page.waitForResponse((r) => r.request().method() === 'POST' && r.url().endsWith('/print-jobs')),
+		page.getByRole('button', { name: 'Build the sheet PDF' }).click()
+	]);
 	const link = page.getByTestId('download-sheets');
 	await expect(link).toBeVisible({ timeout: 60_000 });
+	// A build of the very same file a moment ago answers done at once, with nothing to follow.
+	const followed = ((await started.json()) as { state: string }).state === 'done' ? 0 : 1;
+	expect(asked.filter((p) => p.endsWith('/events'))).toHaveLength(followed);
+	expect(asked.filter((p) => /\/print-jobs\/[^/]+$/.test(p))).toHaveLength(0);
 	const [download] = await Promise.all([page.waitForEvent('download'), link.click()]);
 	const file = join(mkdtempSync(join(tmpdir(), 'paddock-print-')), 'sheets.pdf');
 	await download.saveAs(file);

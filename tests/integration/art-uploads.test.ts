@@ -14,6 +14,7 @@ import { as, g } from './role-table';
 import { useStorage, storageFor, type Storage } from '$lib/server/storage';
 import { artFiles, artVersions, gameObjects, games } from '$lib/server/db/schema';
 import { loadGame } from '$lib/server/game-store';
+import { readArtFile } from '$lib/server/art-files';
 import * as uploadApi from '../../src/routes/api/v1/games/[gameId=id]/art/upload/+server';
 import * as artFileApi from '../../src/routes/api/v1/games/[gameId=id]/art-files/[sha256]/+server';
 import * as readyz from '../../src/routes/readyz/+server';
@@ -240,6 +241,14 @@ describe('valid uploads', () => {
 		const t = imageSize(new Uint8Array(await thumb.arrayBuffer()));
 		expect(Math.max(t.width, t.height)).toBeLessThanOrEqual(320);
 		first = { id: res.body.art.id, sha256: sha, bytes };
+	});
+
+	it('art read for printing is read from the store once, then kept by its hash', async () => {
+		const read = await readArtFile(first.sha256);
+		expect(sha256(read)).toBe(first.sha256);
+		// The second read is the very bytes kept: the store is not asked again.
+		expect(await readArtFile(first.sha256)).toBe(read);
+		await expect(readArtFile('../not-a-hash')).rejects.toThrow(/Not an art file name/);
 	});
 
 	it('the same bytes sent again make a second asset but no second file', async () => {

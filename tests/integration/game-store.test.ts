@@ -5,7 +5,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openWorld, type World, actorIn } from './harness';
 import { teamActorOf } from '$lib/server/actor';
-import { loadGame, applyChanges } from '$lib/server/game-store';
+import { eq } from 'drizzle-orm';
+import { loadGame, applyChanges, keptGame } from '$lib/server/game-store';
 import { Invalid } from '$lib/server/refusals';
 import { exportBundle, importBundle } from '$lib/server/game-io';
 import { demoGame } from '$lib/demo/demo';
@@ -93,5 +94,35 @@ describe('art through the object API', () => {
 		expect(after.status).toBe('final');
 		const made = await collectionApi.POST(ev({ params: { gameId: w.gameId, collection: 'art' }, json: { ...art, id: 'sneaky', sha256: other } }));
 		expect(made.status).toBe(405);
+	});
+});
+
+describe('games kept by version', () => {
+	const rowNow = async () => (await w.db.select().from(games).where(eq(games.id, w.gameId)))[0];
+
+	it('answers as the game is read, a copy of its own for each caller, and follows every save', async () => {
+		const row = await rowNow();
+		const kept = await keptGame(w.db, row);
+		expect(kept).toEqual(await loadGame(w.db, w.gameId, row));
+		kept.cards[0].name = 'Changed by one caller only';
+		const again = await keptGame(w.db, row);
+		expect(again.cards[0].name).not.toBe('Changed by one caller only');
+		// A save bumps the game's version; at the new version the save is there.
+		const table = again.moneyTables[0];
+		await applyChanges(w.db, actorIn(w, 'designer'), { changes: [{ collection: 'moneyTable', id: table.id, baseVersion: table.version!, object: { ...table, name: 'Kept table' } }], action: 'test' });
+		const after = await rowNow();
+		expect(after.version).toBeGreaterThan(row.version);
+		const fresh = await keptGame(w.db, after);
+		expect(fresh.moneyTables.find((t) => t.id === table.id)!.name).toBe('Kept table');
+		expect(fresh).toEqual(await loadGame(w.db, w.gameId, after));
+	});
+
+	it("takes the row's own fields (name, size, version) from the row read now", async () => {
+		const row = await rowNow();
+		await keptGame(w.db, row);
+		const renamed = await keptGame(w.db, { ...row, name: 'Renamed in the row only', defaultCardSize: 'bridge' });
+		expect(renamed.name).toBe('Renamed in the row only');
+		expect(renamed.defaultSize.preset).toBe('bridge');
+		expect(renamed.version).toBe(row.version);
 	});
 });

@@ -3,6 +3,7 @@
  * static/): each file is stored once, named by its SHA-256, and served only through authorised routes.
  */
 import { createHash } from 'node:crypto';
+import { LRUCache } from 'lru-cache';
 import type { Db } from './db';
 import { artFiles } from './db/schema';
 import { storage, artKey, StorageMissingError, type StoredFile } from './storage';
@@ -41,8 +42,25 @@ export async function storeArtFile(db: Db, inspected: InspectedArt): Promise<str
 	return sha256;
 }
 
+/**
+ * Art read lately, by hash, bounded by bytes (lru-cache): every print job, face and export of a
+ * game reads the same files again. A file never changes under its name, so nothing kept goes stale.
+ */
+export const ART_CACHE_BYTES = 48 * 1024 * 1024;
+const recentArt = new LRUCache<string, Uint8Array>({
+	maxSize: ART_CACHE_BYTES,
+	sizeCalculation: (bytes) => Math.max(1, bytes.byteLength),
+	// One huge scan must not empty the cache of everything else.
+	maxEntrySize: ART_CACHE_BYTES / 4
+});
+
+/** The art file's bytes; shared with other readers, so never written to. */
 export async function readArtFile(sha256: string): Promise<Uint8Array> {
-	return storage().get(artKey(checked(sha256)));
+	const kept = recentArt.get(checked(sha256));
+	if (kept) return kept;
+	const bytes = await storage().get(artKey(sha256));
+	recentArt.set(sha256, bytes);
+	return bytes;
 }
 
 /** The file as a stream (downloads), with the thumbnail instead when asked and one was made. */

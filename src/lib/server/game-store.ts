@@ -5,6 +5,7 @@
  * whole game (references between objects) before it is written.
  */
 import { and, asc, eq, max, sql } from 'drizzle-orm';
+import { LRUCache } from 'lru-cache';
 import { z } from 'zod';
 import type { Db } from './db';
 import { games, gameObjects, gameSettings, objectVersions, SETTINGS_OBJECT_ID, type Collection } from './db/schema';
@@ -67,8 +68,19 @@ const objectWhere = (gameId: string, collection: Collection, id: string) =>
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Conn = Db | Tx;
 
+type GameRow = typeof games.$inferSelect;
+
+/** The document's fields that come from the game row itself. */
+const rowFields = (game: GameRow) => ({
+	name: game.name,
+	slug: game.slug,
+	bleedStandard: game.bleedStandard,
+	defaultSize: defaultSizeOf(game.defaultCardSize),
+	version: game.version
+});
+
 /** The whole game as one document, each object carrying its row version (`row`: the game row, when read already). */
-export async function loadGame(db: Conn, gameId: string, row?: typeof games.$inferSelect): Promise<Game> {
+export async function loadGame(db: Conn, gameId: string, row?: GameRow): Promise<Game> {
 	const [game] = row ? [row] : await db.select().from(games).where(eq(games.id, gameId));
 	if (!game) throw new NotFound('No such game');
 	const [settings] = await db.select().from(gameSettings).where(eq(gameSettings.gameId, gameId));
@@ -77,18 +89,16 @@ export async function loadGame(db: Conn, gameId: string, row?: typeof games.$inf
 		.from(gameObjects)
 		.where(eq(gameObjects.gameId, gameId))
 		.orderBy(asc(gameObjects.position), asc(gameObjects.id));
+	const { version, ...fields } = rowFields(game);
 	const doc: Game = {
 		formatVersion: GAME_FORMAT_VERSION,
-		name: game.name,
-		slug: game.slug,
-		bleedStandard: game.bleedStandard,
-		defaultSize: defaultSizeOf(game.defaultCardSize),
+		...fields,
 		runners: [],
 		moneyTables: [],
 		kinds: [],
 		cards: [],
 		art: [],
-		version: game.version
+		version
 	};
 	const stored = settings ? SettingsSchema.parse(settings.data) : {};
 	// The rogue runner is saved with the settings, so it carries their version.
@@ -98,6 +108,28 @@ export async function loadGame(db: Conn, gameId: string, row?: typeof games.$inf
 		(doc[COLLECTION_FIELD[row.collection]] as unknown[]).push({ ...row.data, version: row.version });
 	}
 	return doc;
+}
+
+/** Game documents read lately, by game and version (`keptGame`), bounded by bytes (lru-cache). */
+export const GAME_CACHE_BYTES = 16 * 1024 * 1024;
+const keptGames = new LRUCache<string, Game>({ maxSize: GAME_CACHE_BYTES, maxEntrySize: GAME_CACHE_BYTES / 4 });
+
+/**
+ * The game as `loadGame` reads it, for a request that has just read the game row (`row`) and
+ * reads the game outside a transaction. Every write of a game's objects or settings bumps the
+ * row's version in its own transaction (`touchGame`; an import writes the row and its content in
+ * one), so the objects and settings read once at a version are the game's at that version; the
+ * row's own fields (name, sizes) are taken from `row`. Each caller gets a copy of its own.
+ */
+export async function keptGame(db: Db, row: GameRow): Promise<Game> {
+	const key = `${row.id}:${row.version}`;
+	let doc = keptGames.get(key);
+	if (!doc) {
+		doc = await loadGame(db, row.id, row);
+		// JavaScript strings take up to two bytes a character: a rough size of the document in memory.
+		keptGames.set(key, doc, { size: JSON.stringify(doc).length * 2 });
+	}
+	return { ...structuredClone(doc), ...rowFields(row) };
 }
 
 /** The game's default card size from its preset name (poker when the name is unknown). */

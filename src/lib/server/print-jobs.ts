@@ -8,7 +8,9 @@
  * date), in isolation from any worker cache, so a retry after a crash makes the same bytes; and
  * only the first build to finish is recorded, so a job never ends with two different files.
  */
+import { AsyncResource } from 'node:async_hooks';
 import { createHash } from 'node:crypto';
+import { EventEmitter } from 'node:events';
 import { and, desc, eq, getTableColumns, gt, isNotNull, ne, sql } from 'drizzle-orm';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
@@ -44,6 +46,28 @@ interface PngRequest {
 	game: Game;
 	options: PngJobOptions;
 }
+
+/**
+ * Jobs whose row this process has just changed, by id: whoever follows a job here (the events
+ * route) reads it again at once instead of on its next round. A job built by another process is
+ * not heard of here; followers read it again every so often for that.
+ */
+const changes = new EventEmitter().setMaxListeners(0);
+
+/**
+ * Calls `listener` after each change this process makes to the job's row; returns the way to stop.
+ * The listener runs as part of the caller's work (a person's request), not the build's background.
+ */
+export function onJobChange(id: string, listener: () => void): () => void {
+	const bound = AsyncResource.bind(listener);
+	changes.on(id, bound);
+	return () => void changes.off(id, bound);
+}
+
+/** Followers of a job in this process now. */
+export const jobFollowers = (id: string) => changes.listenerCount(id);
+
+const changed = (id: string) => void changes.emit(id);
 
 /** Progress is written at most this often. */
 const PROGRESS_MS = 400;
@@ -169,6 +193,7 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done'), ne(printJobs.state, 'failed')))
 		.returning();
 	if (!job) return;
+	changed(id);
 	// Which process builds what, for operators following a shared queue.
 	if (jobQueue().shared) console.log(`Building print job ${id} (attempt ${job.attempts}) in process ${process.pid}`);
 	const request = job.request as unknown as SheetRequest | PngRequest;
@@ -180,7 +205,7 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		last = now;
 		writing = writing
 			.then(() => db.update(printJobs).set({ done, total }).where(and(eq(printJobs.id, id), eq(printJobs.state, 'running'))))
-			.then(() => undefined, () => undefined);
+			.then(() => changed(id), () => undefined);
 	};
 	const started = performance.now();
 	try {
@@ -214,6 +239,7 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 				})
 				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
 		});
+		changed(id);
 	} catch (e) {
 		await writing;
 		// A refusal (bad options, a missing card) fails for good; a busy store is tried again.
@@ -222,6 +248,7 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 				.update(printJobs)
 				.set({ state: 'failed', error: { reason: e.reason, message: e.message }, finishedAt: new Date() })
 				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
+			changed(id);
 			return;
 		}
 		if (!(e instanceof StorageUnavailableError)) console.error(e);
@@ -235,4 +262,5 @@ export async function failJob(db: Db, id: string, message = 'The build failed') 
 		.update(printJobs)
 		.set({ state: 'failed', error: { message }, finishedAt: new Date() })
 		.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
+	changed(id);
 }

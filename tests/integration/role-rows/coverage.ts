@@ -9,6 +9,7 @@ import * as verdictsApi from '../../../src/routes/api/v1/games/[gameId=id]/proof
 import * as proofBack from '../../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/cards/[cardId]/back.svg/+server';
 import * as jobApi from '../../../src/routes/api/v1/print-jobs/[jobId=id]/+server';
 import * as jobFileApi from '../../../src/routes/api/v1/print-jobs/[jobId=id]/file/+server';
+import * as jobEventsApi from '../../../src/routes/api/v1/print-jobs/[jobId=id]/events/+server';
 import * as tablesPage from '../../../src/routes/(app)/games/[gameId=id]/money-tables/+page.server';
 import * as runnersPage from '../../../src/routes/(app)/games/[gameId=id]/runners/+page.server';
 
@@ -44,6 +45,11 @@ export const rows: Row[] = [
 	{
 		route: 'GET /api/v1/print-jobs/{jobId} (no job of the caller)',
 		run: (w, who) => statusOf(() => jobApi.GET(as(w, who, { params: { jobId: unknownJob } }))),
+		expect: { default: 404, anonymous: 401 }
+	},
+	{
+		route: 'GET /api/v1/print-jobs/{jobId}/events (no job of the caller)',
+		run: (w, who) => statusOf(() => jobEventsApi.GET(as(w, who, { params: { jobId: unknownJob } }))),
 		expect: { default: 404, anonymous: 401 }
 	},
 	{

@@ -5,7 +5,7 @@
  */
 import type { Db } from '../db';
 import type { Role } from '../db/schema';
-import { loadGame } from '../game-store';
+import { keptGame } from '../game-store';
 import { gameAccess, may, roleIn, type GameRow, type Permission, type SignedIn } from '../access';
 import { gameActorOf, teamActorOf, type GameActor, type TeamActor } from '../actor';
 export { actorOf } from '../actor';
@@ -89,7 +89,7 @@ export async function requireGameRole(db: Db, locals: App.Locals, gameId: string
 export async function requireGame(db: Db, locals: App.Locals, gameId: string, permission: Permission): Promise<GameAccess & { doc: Game }> {
 	const access = await requireGameRole(db, locals, gameId, permission);
 	const entry = requestGame(db, locals, access.user, gameId);
-	entry.doc ??= loadGame(db, gameId, access.game);
+	entry.doc ??= keptGame(db, access.game);
 	return { ...access, doc: await entry.doc };
 }
 

@@ -165,6 +165,11 @@ const PATHS: Record<string, Record<string, Operation>> = {
 	'/api/v1/press-colour': { get: op('A screen colour (?hex=) as it will print', { 200: answer('The colour') }) },
 	'/api/v1/openapi.json': { get: op('This document', { 200: answer('The OpenAPI document') }) },
 	'/api/v1/print-jobs/{jobId}': { get: op("A build's progress", { 200: answer('The job', 'PrintJob') }) },
+	'/api/v1/print-jobs/{jobId}/events': {
+		get: op("A build's progress as server-sent events: `state` events (each the job as GET /api/v1/print-jobs/{jobId} answers it) until it is done or failed", {
+			200: file('text/event-stream', 'The events')
+		})
+	},
 	'/api/v1/print-jobs/{jobId}/file': { get: op("A finished build's PDF", { 200: file('application/pdf', 'The PDF') }) },
 	'/api/v1/games/{gameId}/mute': {
 		get: op("Whether the game's e-mail to the caller is off", { 200: answer('The setting', 'Mute') }),
