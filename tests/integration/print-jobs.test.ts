@@ -15,7 +15,7 @@ import { as, g } from './role-table';
 import { printJobs } from '$lib/server/db/schema';
 import { buildQueuedJob } from '$lib/server/print-jobs';
 import { artBytes, buildPngZip } from '$lib/server/printing';
-import { storage } from '$lib/server/storage';
+import { storage, useStorage } from '$lib/server/storage';
 import { loadGame } from '$lib/server/game-store';
 import * as queueApi from '../../src/routes/api/v1/games/[gameId=id]/print-jobs/+server';
 import * as jobApi from '../../src/routes/api/v1/print-jobs/[jobId=id]/+server';
@@ -84,6 +84,36 @@ describe('a queued sheet build', () => {
 		expect(after.fileKey).toBe(first.fileKey);
 		const stored = (await storage().list('print/')).filter((k) => k === first.fileKey);
 		expect(stored).toEqual([first.fileKey]);
+	});
+
+	it('a file swept away between its write and its record is written again under the lock', async () => {
+		const real = storage();
+		let taken = 0;
+		// As if a sweep ran right after the first write: the file is there for a moment, then gone.
+		const sweptOnce = new Proxy(real, {
+			get(target, name) {
+				if (name === 'putOnce')
+					return async (key: string, bytes: Uint8Array, type: string) => {
+						await target.putOnce(key, bytes, type);
+						if (key.startsWith('print/') && taken++ === 0) await target.remove(key);
+					};
+				const value = Reflect.get(target, name);
+				return typeof value === 'function' ? value.bind(target) : value;
+			}
+		});
+		useStorage(sweptOnce);
+		try {
+			const job = await queue({ paper: 'a4', kinds: kind, margin: '4.91' });
+			const done = await waitDone(job.id);
+			expect(done.state).toBe('done');
+			expect(taken).toBe(2);
+			const file = (await fileApi.GET(as(w, 'designer', { params: { jobId: job.id } }))) as Response;
+			expect(file.status).toBe(200);
+			// poppler reads the file that was put back.
+			expect(pdfPages(new Uint8Array(await file.arrayBuffer()))).toBe(done.pages);
+		} finally {
+			useStorage(real);
+		}
 	});
 
 	it('bad options fail the job for good with the reason, no retry', async () => {

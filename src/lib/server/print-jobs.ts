@@ -223,6 +223,12 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		const [extension, type] = request.type === 'pngs' ? ['zip', 'application/zip'] : ['pdf', 'application/pdf'];
 		const fileKey = `print/${sha256.slice(0, 2)}/${sha256}.${extension}`;
 		await writing;
+		// Written before the database's turn is taken, since writing is the slow part. A sweep in
+		// between may take away a file no row names yet: the second write, under the sweep's lock,
+		// puts it back, and otherwise only finds it there.
+		await storage()
+			.putOnce(fileKey, result.bytes, type)
+			.catch(() => undefined);
 		// Stored and recorded with no sweep in between (./job-sweep.ts): the key may name a file an
 		// older job left. The first build to get here wins; any other keeps its hands off the row.
 		await holdingJobFiles(db, async (tx) => {
