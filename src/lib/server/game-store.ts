@@ -25,6 +25,7 @@ import {
 	type Game
 } from '$lib/game/model';
 import { logActivity } from './activity';
+import type { GameRow } from './access';
 import type { GameActor } from './actor';
 import type { ReadinessItem } from '$lib/game/readiness';
 import { NotFound, Conflict, Invalid } from './refusals';
@@ -67,8 +68,6 @@ const objectWhere = (gameId: string, collection: Collection, id: string) =>
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Conn = Db | Tx;
-
-type GameRow = typeof games.$inferSelect;
 
 /** The document's fields that come from the game row itself. */
 const rowFields = (game: GameRow) => ({

@@ -7,7 +7,7 @@ import { caughtMail } from './db/schema';
 import { startCatcher } from './mail/catcher';
 import { configureMail } from './mail';
 import { config } from './config';
-import { printPool, closePrintPool, defaultPoolSize } from '$lib/print/pool';
+import { printPool, closePrintPool } from '$lib/print/pool';
 import { watchVitals } from './vitals';
 import { collectWhenQuiet } from '$lib/threads/quiet-gc';
 import { warmRecentGames } from './print-warmup';
@@ -47,7 +47,7 @@ function defineJobs(db: Db) {
 	defineJob('print', {
 		run: (id) => asBackground(() => buildQueuedJob(db, id)),
 		giveUp: (id) => asBackground(() => failJob(db, id)),
-		atOnce: defaultPoolSize
+		atOnce: () => printPool().size
 	});
 	defineJob('odds', { run: (id) => asBackground(() => runQueuedOddsJob(db, id)), giveUp: (id, e) => asBackground(() => failOddsJob(db, id, e)) });
 }
