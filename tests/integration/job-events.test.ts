@@ -2,8 +2,9 @@
  * A print job followed by its event stream (GET /api/v1/print-jobs/{id}/events): read with
  * eventsource-parser, an independent reader of the HTML standard's `text/event-stream` format.
  * The stream's states end as the job's own state (GET /api/v1/print-jobs/{id}) ends; the stream
- * ends with the job, or at its time limit with a `retry` for the browser; a job changed elsewhere
- * (another process) is seen by the stream's own re-reads; nobody follows another's job; a stream
+ * ends with the job, or at its time limit with a `retry` for the browser; a change made in this
+ * process arrives with its row, and a job changed elsewhere (another process) is seen by the
+ * stream's own re-reads; nobody follows another's job; a stream
  * that ends leaves no follower behind.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -12,7 +13,7 @@ import { EventSourceParserStream } from 'eventsource-parser/stream';
 import { openWorld, type World } from './harness';
 import { as, g } from './role-table';
 import { printJobs } from '$lib/server/db/schema';
-import { jobFor, jobFollowers } from '$lib/server/print-jobs';
+import { failJob, jobFor, jobFollowers } from '$lib/server/print-jobs';
 import { jobEventStream } from '$lib/server/http/job-events';
 import * as queueApi from '../../src/routes/api/v1/games/[gameId=id]/print-jobs/+server';
 import * as jobApi from '../../src/routes/api/v1/print-jobs/[jobId=id]/+server';
@@ -95,6 +96,18 @@ describe('following a print job by its events', () => {
 			['running', 2, 9],
 			['done', 9, 9]
 		]);
+	});
+
+	it('hears a change made in this process with no read of its own', async () => {
+		const id = await idleJob();
+		const first = await jobFor(w.db, w.callers.designer!.id, id);
+		// Re-reads an hour apart: only the row handed over with the change can end this stream.
+		const reading = readAll(jobEventStream(w.db, w.callers.designer!.id, first, new AbortController().signal, { checkMs: 3_600_000 }));
+		await new Promise((r) => setTimeout(r, 50));
+		await failJob(w.db, id, 'Stopped by the test');
+		const { states } = await reading;
+		expect(states.map((s) => s.state)).toEqual(['queued', 'failed']);
+		expect(jobFollowers(id)).toBe(0);
 	});
 
 	it('ends unfinished at its time limit, telling the browser when to connect again', async () => {

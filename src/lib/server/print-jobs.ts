@@ -48,17 +48,18 @@ interface PngRequest {
 }
 
 /**
- * Jobs whose row this process has just changed, by id: whoever follows a job here (the events
- * route) reads it again at once instead of on its next round. A job built by another process is
- * not heard of here; followers read it again every so often for that.
+ * Jobs whose row this process has just changed, by id, with the row as written: whoever follows
+ * a job here (the events route) sends it at once, with no read of its own. A job built by another
+ * process is not heard of here; followers read it again every so often for that.
  */
 const changes = new EventEmitter().setMaxListeners(0);
 
 /**
- * Calls `listener` after each change this process makes to the job's row; returns the way to stop.
- * The listener runs as part of the caller's work (a person's request), not the build's background.
+ * Calls `listener` with the job's row after each change this process makes to it; returns the way
+ * to stop. The listener runs as part of the caller's work (a person's request), not the build's
+ * background.
  */
-export function onJobChange(id: string, listener: () => void): () => void {
+export function onJobChange(id: string, listener: (row: PrintJobRow) => void): () => void {
 	const bound = AsyncResource.bind(listener);
 	changes.on(id, bound);
 	return () => void changes.off(id, bound);
@@ -67,10 +68,11 @@ export function onJobChange(id: string, listener: () => void): () => void {
 /** Followers of a job in this process now. */
 export const jobFollowers = (id: string) => changes.listenerCount(id);
 
-const changed = (id: string) => void changes.emit(id);
+/** Tells this process's followers of the job its row as just written (none when no row was changed). */
+const changed = (row: PrintJobRow | undefined) => void (row && changes.emit(row.id, row));
 
 /** Progress is written at most this often. */
-const PROGRESS_MS = 400;
+const PROGRESS_MS = 1_000;
 
 /** Queues a sheet build and returns at once; progress is read with `jobFor` and `jobState`. */
 export async function startSheetJob(db: Db, source: PrintSource, options: GamePdfOptions): Promise<PrintJobRow> {
@@ -193,7 +195,7 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done'), ne(printJobs.state, 'failed')))
 		.returning();
 	if (!job) return;
-	changed(id);
+	changed(job);
 	// Which process builds what, for operators following a shared queue.
 	if (jobQueue().shared) console.log(`Building print job ${id} (attempt ${job.attempts}) in process ${process.pid}`);
 	const request = job.request as unknown as SheetRequest | PngRequest;
@@ -204,8 +206,8 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 		if (now - last < PROGRESS_MS && done < total) return;
 		last = now;
 		writing = writing
-			.then(() => db.update(printJobs).set({ done, total }).where(and(eq(printJobs.id, id), eq(printJobs.state, 'running'))))
-			.then(() => changed(id), () => undefined);
+			.then(() => db.update(printJobs).set({ done, total }).where(and(eq(printJobs.id, id), eq(printJobs.state, 'running'))).returning(FOLLOWED))
+			.then(([row]) => changed(row), () => undefined);
 	};
 	const started = performance.now();
 	try {
@@ -231,9 +233,9 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 			.catch(() => undefined);
 		// Stored and recorded with no sweep in between (./job-sweep.ts): the key may name a file an
 		// older job left. The first build to get here wins; any other keeps its hands off the row.
-		await holdingJobFiles(db, async (tx) => {
+		const [finished] = await holdingJobFiles(db, async (tx) => {
 			await storage().putOnce(fileKey, result.bytes, type);
-			await tx
+			return tx
 				.update(printJobs)
 				.set({
 					state: 'done',
@@ -243,18 +245,20 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 					result: { sheets: result.sheets, pages: result.pages, guidePages: result.guidePages, bytes: result.bytes.byteLength, warnings: result.warnings },
 					finishedAt: new Date()
 				})
-				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
+				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')))
+				.returning(FOLLOWED);
 		});
-		changed(id);
+		changed(finished);
 	} catch (e) {
 		await writing;
 		// A refusal (bad options, a missing card) fails for good; a busy store is tried again.
 		if (e instanceof Refusal && e.reason !== 'busy') {
-			await db
+			const [failed] = await db
 				.update(printJobs)
 				.set({ state: 'failed', error: { reason: e.reason, message: e.message }, finishedAt: new Date() })
-				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
-			changed(id);
+				.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')))
+				.returning(FOLLOWED);
+			changed(failed);
 			return;
 		}
 		if (!(e instanceof StorageUnavailableError)) console.error(e);
@@ -264,9 +268,10 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 
 /** Gives up on a job after its last attempt. */
 export async function failJob(db: Db, id: string, message = 'The build failed') {
-	await db
+	const [failed] = await db
 		.update(printJobs)
 		.set({ state: 'failed', error: { message }, finishedAt: new Date() })
-		.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')));
-	changed(id);
+		.where(and(eq(printJobs.id, id), ne(printJobs.state, 'done')))
+		.returning(FOLLOWED);
+	changed(failed);
 }

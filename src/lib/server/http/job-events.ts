@@ -5,14 +5,19 @@
  * event is `state`, its data the job as `GET /api/v1/print-jobs/{id}` answers it, sent when it
  * changes; the stream ends when the job is done or failed.
  *
- * The row is read again when this process changes it (./print-jobs.ts `onJobChange`) and every
- * `CHECK_MS` besides (another process may be building it). A stream lasts at most `STREAM_MS`:
- * the browser then connects again, so a session ended meanwhile stops it.
+ * A change this process makes to the row comes with the row as written (./print-jobs.ts
+ * `onJobChange`) and is sent with no read. On a shared queue another process may build the job, so
+ * the row is also read again every `CHECK_MS`; otherwise every change is made here, and the row is
+ * read again only every `QUIET_CHECK_MS`, for what no build writes (a sweep taking the row away).
+ * A stream lasts at most `STREAM_MS`: the browser then connects again, so a session ended
+ * meanwhile stops it.
  */
 import type { Db } from '../db';
 import { jobFor, jobState, onJobChange, type PrintJobRow } from '../print-jobs';
+import { jobQueue } from '../job-queue';
 
 export const CHECK_MS = 1_000;
+export const QUIET_CHECK_MS = 10_000;
 export const STREAM_MS = 60_000;
 /** How soon a browser connects again after the stream ends unfinished (the `retry` field). */
 const RETRY_MS = 500;
@@ -50,10 +55,12 @@ export function jobEventStream(db: Db, userId: string, first: PrintJobRow, signa
 				}
 				if (finished(row)) end();
 			};
-			// One read at a time; a change heard during a read is read once more after it.
+			// One read at a time; a row heard of meanwhile is sent after it, so states never go back.
 			let reading = false;
 			let again = false;
-			const check = async () => {
+			let heard: PrintJobRow | undefined;
+			const check = async (row?: PrintJobRow) => {
+				if (row) heard = row;
 				if (reading) {
 					again = true;
 					return;
@@ -62,8 +69,10 @@ export function jobEventStream(db: Db, userId: string, first: PrintJobRow, signa
 				try {
 					do {
 						again = false;
-						send(await jobFor(db, userId, first.id));
-					} while (again && open);
+						const next = heard ?? (await jobFor(db, userId, first.id));
+						heard = undefined;
+						send(next);
+					} while ((again || heard) && open);
 				} catch {
 					// Gone (swept) or the database out of reach: the browser asks again and is answered.
 					end();
@@ -74,8 +83,8 @@ export function jobEventStream(db: Db, userId: string, first: PrintJobRow, signa
 			controller.enqueue(encoder.encode(`retry: ${RETRY_MS}\n\n`));
 			send(first);
 			if (!open) return;
-			stops.push(onJobChange(first.id, () => void check()));
-			const every = setInterval(() => void check(), options.checkMs ?? CHECK_MS);
+			stops.push(onJobChange(first.id, (row) => void check(row)));
+			const every = setInterval(() => void check(), options.checkMs ?? (jobQueue().shared ? CHECK_MS : QUIET_CHECK_MS));
 			const deadline = setTimeout(end, options.streamMs ?? STREAM_MS);
 			stops.push(() => clearInterval(every), () => clearTimeout(deadline));
 			if (signal.aborted) return end();
