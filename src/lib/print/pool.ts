@@ -27,6 +27,7 @@ import type { PngPart, PngShard, PngZipOptions } from './png-job';
 import { PrintOptionsError } from './options';
 import { resolveCompiledWorker, tsxEsmApi, type TsWorkerData } from '../threads/ts-worker';
 import { WORKER_NICE } from '../threads/priority';
+import { countSetting } from '../settings';
 
 type Plain<T> = Omit<T, 'onProgress' | 'cache'>;
 
@@ -117,9 +118,7 @@ export interface PrintRunner {
 
 /** Builds are CPU-bound: one worker per core, or as many as PADDOCK_PRINT_WORKERS says. */
 export function defaultPoolSize(env = process.env.PADDOCK_PRINT_WORKERS, cores = availableParallelism()): number {
-	const chosen = Number(env);
-	if (env && Number.isInteger(chosen) && chosen >= 1) return chosen;
-	return Math.max(1, cores);
+	return countSetting(env, Math.max(1, cores));
 }
 export const DEFAULT_MAX_QUEUE = 16;
 export const DEFAULT_IDLE_SIZE = 1;

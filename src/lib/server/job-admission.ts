@@ -10,14 +10,13 @@ import { count, inArray, sql } from 'drizzle-orm';
 import type { Db } from './db';
 import { printJobs } from './db/schema';
 import { Busy } from './refusals';
+import { countSetting } from '../settings';
 
 /** Print jobs queued or running at once, across all processes (PADDOCK_PRINT_QUEUE_MAX). */
 export const DEFAULT_PRINT_QUEUE_MAX = 16;
 
 export function printQueueMax(): number {
-	const raw = process.env.PADDOCK_PRINT_QUEUE_MAX;
-	const n = raw === undefined || raw === '' ? DEFAULT_PRINT_QUEUE_MAX : Number(raw);
-	return Number.isInteger(n) && n >= 1 ? n : DEFAULT_PRINT_QUEUE_MAX;
+	return countSetting(process.env.PADDOCK_PRINT_QUEUE_MAX, DEFAULT_PRINT_QUEUE_MAX);
 }
 
 /** The advisory lock's key for admitting print jobs (any fixed number, the same in every process). */

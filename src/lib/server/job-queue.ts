@@ -5,6 +5,7 @@
  * A job is only an id here; what to do is in the database row the id names.
  */
 import PgBoss from 'pg-boss';
+import { countSetting } from '../settings';
 
 export interface JobKind {
 	/** Does the work; throws to be tried again. */
@@ -110,12 +111,12 @@ export async function sharedQueue(databaseUrl: string, options: SharedQueueOptio
 	const boss = new PgBoss({
 		connectionString: databaseUrl,
 		max: 4,
-		maintenanceIntervalSeconds: options.maintenanceSeconds ?? Number(process.env.PADDOCK_JOB_MAINTENANCE_SECONDS ?? 30)
+		maintenanceIntervalSeconds: options.maintenanceSeconds ?? countSetting(process.env.PADDOCK_JOB_MAINTENANCE_SECONDS, 30)
 	});
 	boss.on('error', (e) => console.error(`Job queue: ${e.message}`));
 	await boss.start();
 	const attempts = options.attempts ?? 3;
-	const expireInSeconds = options.expireSeconds ?? Number(process.env.PADDOCK_JOB_EXPIRE_SECONDS ?? 300);
+	const expireInSeconds = options.expireSeconds ?? countSetting(process.env.PADDOCK_JOB_EXPIRE_SECONDS, 300);
 	const names = [...kinds.keys()];
 	for (const name of names) {
 		await createQueueOnce(boss, name, { name, retryLimit: attempts - 1, retryDelay: 1, expireInSeconds, policy: 'standard' });

@@ -13,6 +13,7 @@ import type { Db } from './db';
 import { asBackground } from './db/turns';
 import { oddsJobs, printJobs } from './db/schema';
 import { storage } from './storage';
+import { countSetting } from '../settings';
 
 /** A finished job's row and file stay this long to be read. */
 export const JOB_KEEP_MS = 10 * 60 * 1000;
@@ -22,7 +23,7 @@ export const JOB_KEEP_MS = 10 * 60 * 1000;
  */
 export const JOB_LOST_MS = 6 * 60 * 60 * 1000;
 /** How often each process offers to sweep. */
-const SWEEP_EVERY_MS = Number(process.env.PADDOCK_SWEEP_SECONDS ?? 60) * 1000;
+const SWEEP_EVERY_MS = countSetting(process.env.PADDOCK_SWEEP_SECONDS, 60) * 1000;
 /** The advisory lock's key (any fixed number, the same in every process). */
 export const JOB_FILES_LOCK = 0x70616464_6f636b01n;
 

@@ -18,6 +18,7 @@ import * as schema from './schema';
 import { lockDataDir } from './lock';
 import { takeTurns } from './turns';
 import { describeServerError, serverName } from './server-errors';
+import { countSetting } from '../../settings';
 
 export type Db = PgDatabase<PgQueryResultHKT, typeof schema>;
 
@@ -117,7 +118,7 @@ export interface ServerOptions {
 export async function connectDatabase(url: string, options: ServerOptions = {}): Promise<Database> {
 	const pool = new pg.Pool({
 		connectionString: url,
-		max: options.poolSize ?? Number(process.env.DATABASE_POOL_SIZE ?? 10),
+		max: options.poolSize ?? countSetting(process.env.DATABASE_POOL_SIZE, 10),
 		connectionTimeoutMillis: 10_000,
 		idleTimeoutMillis: 30_000
 	});
