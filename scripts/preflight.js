@@ -1,10 +1,14 @@
 // Before any test: the machine tools the tests use. Debian's chromium (browser tests), poppler-utils
-// and qpdf (independent PDF readers), liblcms2-utils (transicc, colour conversions), postgresql (the suite's second pass). When some are missing
+// and qpdf (independent PDF readers), liblcms2-utils (transicc, colour conversions), postgresql (the suite's second pass),
+// icc-profiles-free (an sRGB display profile). When some are missing
 // and we run as root with apt, they are installed; otherwise we stop at once with the command.
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { postgresBin } from './services.js';
+
+/** An sRGB profile from Debian's icc-profiles-free (tests/integration/pdfx.test.ts). */
+const SRGB_PROFILE = '/usr/share/color/icc/sRGB.icc';
 
 const onPath = (name) => (process.env.PATH ?? '').split(':').some((dir) => dir && existsSync(join(dir, name)));
 
@@ -13,7 +17,9 @@ const needs = [
 	{ pkg: 'poppler-utils', present: () => onPath('pdfinfo') && onPath('pdftoppm') && onPath('pdftotext') },
 	{ pkg: 'qpdf', present: () => onPath('qpdf') },
 	{ pkg: 'liblcms2-utils', present: () => onPath('transicc') },
-	{ pkg: 'postgresql', present: () => postgresBin() !== null }
+	{ pkg: 'postgresql', present: () => postgresBin() !== null },
+	// An sRGB display profile from outside the project, which a press-profile upload must refuse.
+	{ pkg: 'icc-profiles-free', present: () => existsSync(SRGB_PROFILE) }
 ];
 
 const missing = () => needs.filter((n) => !n.present()).map((n) => n.pkg);

@@ -72,6 +72,7 @@ describe('PDF/X routes', () => {
 		const profile = await saveProfile(w.db, actorIn(w, 'printer'), { ...DEFAULT_PROFILE, name: 'Shop on coated', output: 'pdfx4' });
 		// Not an ICC profile; an RGB display profile: refused, nothing stored.
 		await expect(setPressProfile(w.db, actorIn(w, 'printer'), { id: profile.id, icc: new Uint8Array(500), condition: { conditionIdentifier: 'X', condition: '', registryName: '', totalInkLimitPct: 300 } })).rejects.toThrow(/not an ICC profile|too short/);
+		// An sRGB display profile made outside the project (Debian's icc-profiles-free; scripts/preflight.js installs it).
 		const srgb = new Uint8Array(readFileSync('/usr/share/color/icc/sRGB.icc'));
 		await expect(setPressProfile(w.db, actorIn(w, 'printer'), { id: profile.id, icc: srgb, condition: { conditionIdentifier: 'X', condition: '', registryName: '', totalInkLimitPct: 300 } })).rejects.toThrow(/display profile|RGB/);
 		expect((await findProfile(w.db, w.teamId, profile.id)).press.custom).toBe(false);
