@@ -71,7 +71,7 @@ export const jobFollowers = (id: string) => changes.listenerCount(id);
 /** Tells this process's followers of the job its row as just written (none when no row was changed). */
 const changed = (row: PrintJobRow | undefined) => void (row && changes.emit(row.id, row));
 
-/** Progress is written at most this often. */
+/** Progress is written at most this often, and not before the build has run this long. */
 const PROGRESS_MS = 1_000;
 
 /** Queues a sheet build and returns at once; progress is read with `jobFor` and `jobState`. */
@@ -199,11 +199,13 @@ export async function buildQueuedJob(db: Db, id: string): Promise<void> {
 	// Which process builds what, for operators following a shared queue.
 	if (jobQueue().shared) console.log(`Building print job ${id} (attempt ${job.attempts}) in process ${process.pid}`);
 	const request = job.request as unknown as SheetRequest | PngRequest;
-	let last = 0;
+	// The first write comes a second into the build, so a short build writes none; the last
+	// step is never written, since the finished row says it at once.
+	let last = Date.now();
 	let writing = Promise.resolve();
 	const progress = (done: number, total: number) => {
 		const now = Date.now();
-		if (now - last < PROGRESS_MS && done < total) return;
+		if (done >= total || now - last < PROGRESS_MS) return;
 		last = now;
 		writing = writing
 			.then(() => db.update(printJobs).set({ done, total }).where(and(eq(printJobs.id, id), eq(printJobs.state, 'running'))).returning(FOLLOWED))
