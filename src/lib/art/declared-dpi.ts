@@ -5,20 +5,15 @@
  */
 import exifr from 'exifr';
 import { MM_PER_INCH } from '../game/model';
+import { pngChunks } from './png-chunks';
 
 export interface DeclaredDpi {
 	dpiX: number;
 	dpiY: number;
 }
 
-/** PNG signature, PNG spec (ISO/IEC 15948:2004) §5.2. */
-export const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a] as const;
-
 /** Millimetres per metre, for pixels-per-metre → dots-per-inch. */
 const MM_PER_M = 1000;
-
-const ascii = (bytes: Uint8Array, at: number, length: number) =>
-	String.fromCharCode(...bytes.subarray(at, at + length));
 
 /**
  * PNG `pHYs` chunk, PNG spec (ISO/IEC 15948:2004) §11.3.5.3: pixels per unit X (4 bytes),
@@ -26,23 +21,18 @@ const ascii = (bytes: Uint8Array, at: number, length: number) =>
  * §5.6: pHYs must come before the first IDAT, so the walk stops there.
  */
 export function pngDeclaredDpi(bytes: Uint8Array): DeclaredDpi | undefined {
-	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-	// §5.3: each chunk is length (4), type (4), data (length), CRC (4).
-	let at = PNG_SIGNATURE.length;
-	while (at + 8 <= bytes.length) {
-		const length = view.getUint32(at);
-		const type = ascii(bytes, at + 4, 4);
-		const data = at + 8;
-		if (type === 'IDAT' || type === 'IEND' || data + length > bytes.length) return undefined;
-		if (type === 'pHYs') {
-			if (length !== 9) return undefined;
-			const ppuX = view.getUint32(data);
-			const ppuY = view.getUint32(data + 4);
-			const unit = bytes[data + 8];
+	for (const chunk of pngChunks(bytes)) {
+		if (chunk.type === 'IDAT' || chunk.type === 'IEND' || !chunk.whole) return undefined;
+		if (chunk.type === 'pHYs') {
+			const { data } = chunk;
+			if (data.length !== 9) return undefined;
+			const view = new DataView(data.buffer, data.byteOffset, data.byteLength);
+			const ppuX = view.getUint32(0);
+			const ppuY = view.getUint32(4);
+			const unit = data[8];
 			if (unit !== 1 || ppuX === 0 || ppuY === 0) return undefined;
 			return { dpiX: (ppuX * MM_PER_INCH) / MM_PER_M, dpiY: (ppuY * MM_PER_INCH) / MM_PER_M };
 		}
-		at = data + length + 4;
 	}
 	return undefined;
 }

@@ -13,7 +13,8 @@ import { Jimp } from 'jimp';
 import pLimit from 'p-limit';
 import { MM_PER_INCH, type ArtMime } from '../game/model';
 import { svgToPng } from '../print/png';
-import { jpegDeclaredDpi, pngDeclaredDpi, PNG_SIGNATURE, type DeclaredDpi } from './declared-dpi';
+import { jpegDeclaredDpi, pngDeclaredDpi, type DeclaredDpi } from './declared-dpi';
+import { isPng } from './png-chunks';
 import { ArtRejected } from './rejected';
 import { checkSvg } from './svg-safety';
 import { pngIsInterlaced, pngStripThumbnail, PngStripError } from './png-strips';
@@ -103,7 +104,7 @@ export async function inspectArt(bytes: Uint8Array, fileName: string, limits: Ar
  * optional BOM and white space is `<` — an SVG candidate, confirmed by its <svg> root.
  */
 export function sniffArt(bytes: Uint8Array): ArtMime | undefined {
-	if (bytes.length >= 8 && PNG_SIGNATURE.every((b, i) => bytes[i] === b)) return 'image/png';
+	if (isPng(bytes)) return 'image/png';
 	if (bytes.length >= 3 && bytes[0] === 0xff && bytes[1] === 0xd8 && bytes[2] === 0xff) return 'image/jpeg';
 	let at = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
 	while (at < bytes.length && (bytes[at] === 0x20 || bytes[at] === 0x09 || bytes[at] === 0x0a || bytes[at] === 0x0d))

@@ -6,6 +6,7 @@
  * Interlaced files (Adam7) are not read here; callers decode those whole, under a lower cap.
  */
 import { createInflate } from 'node:zlib';
+import { readPngParts } from './png-chunks';
 
 export interface StripThumbnail {
 	widthPx: number;
@@ -27,29 +28,10 @@ export function pngIsInterlaced(bytes: Uint8Array): boolean {
 }
 
 export async function pngStripThumbnail(bytes: Uint8Array, thumbWidth: number, thumbHeight: number): Promise<StripThumbnail> {
-	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-	let at = 8;
-	let width = 0, height = 0, depth = 0, colour = 0, interlace = 0;
-	let palette: Uint8Array | undefined;
-	let alpha: Uint8Array | undefined;
-	const idat: Uint8Array[] = [];
-	while (at + 8 <= bytes.length) {
-		const length = view.getUint32(at);
-		const type = String.fromCharCode(...bytes.subarray(at + 4, at + 8));
-		const data = bytes.subarray(at + 8, at + 8 + length);
-		if (data.length !== length) throw new PngStripError('the file ends inside a chunk');
-		if (type === 'IHDR') {
-			width = view.getUint32(at + 8);
-			height = view.getUint32(at + 12);
-			depth = data[8];
-			colour = data[9];
-			interlace = data[12];
-		} else if (type === 'PLTE') palette = data;
-		else if (type === 'tRNS') alpha = data;
-		else if (type === 'IDAT') idat.push(data);
-		else if (type === 'IEND') break;
-		at += 12 + length;
-	}
+	const png = readPngParts(bytes);
+	if (!png) throw new PngStripError('it is not a PNG file');
+	if (png.truncated) throw new PngStripError('the file ends inside a chunk');
+	const { width, height, depth, colour, interlace, palette, transparency: alpha, data: idat } = png;
 	const channels = CHANNELS[colour];
 	if (!width || !height || !channels || ![1, 2, 4, 8, 16].includes(depth)) throw new PngStripError('its header is not one PNG allows');
 	if (interlace) throw new PngStripError('interlaced files are decoded whole');

@@ -12,7 +12,7 @@
  */
 import { imageSize } from 'image-size';
 import sax, { type QualifiedTag } from 'sax';
-import { PNG_SIGNATURE } from './declared-dpi';
+import { isPng } from './png-chunks';
 import { ArtRejected } from './rejected';
 
 export interface SvgLimits {
@@ -245,9 +245,8 @@ function checkReference(value: string, where: string, limits: SvgLimits): Refere
 	if (!/^[A-Za-z0-9+/]*={0,2}$/.test(base64) || base64.length % 4 === 1)
 		throw new ArtRejected('unreadable', `An image embedded in this SVG is damaged: its base64 data is not valid (${where}).`);
 	const bytes = new Uint8Array(Buffer.from(base64, 'base64'));
-	const isPng = PNG_SIGNATURE.every((b, i) => bytes[i] === b);
 	const isJpeg = bytes[0] === 0xff && bytes[1] === 0xd8 && bytes[2] === 0xff;
-	if (!isPng && !isJpeg) throw unsafe(`an embedded image that is not really a PNG or JPEG (${where})`);
+	if (!isPng(bytes) && !isJpeg) throw unsafe(`an embedded image that is not really a PNG or JPEG (${where})`);
 	let size: { width: number; height: number };
 	try {
 		size = imageSize(bytes);

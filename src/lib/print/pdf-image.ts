@@ -12,6 +12,7 @@ import { promisify } from 'node:util';
 import { deflate, deflateSync, inflateSync } from 'node:zlib';
 import { PDFDocument, PDFName, PDFRef } from 'pdf-lib';
 import type { ImageAsset } from './display-list';
+import { readPngParts } from '../art/png-chunks';
 import type { PressColour } from './colour/cmm';
 
 export interface DecodedPng {
@@ -24,16 +25,15 @@ export interface DecodedPng {
 	alpha: Uint8Array | null;
 }
 
-const PNG_SIGNATURE = [137, 80, 78, 71, 13, 10, 26, 10];
 
 /**
  * Decodes a non-interlaced PNG of any colour type and bit depth (PNG spec, ISO/IEC 15948).
  * Returns null for interlaced files, which the caller decodes the slow way.
  */
 export function decodePng(bytes: Uint8Array): DecodedPng | null {
-	const png = readPngChunks(bytes);
+	const png = readPngParts(bytes);
 	if (!png) throw new Error('not a PNG file');
-	const { width, height, depth, type, palette, transparency, data } = png;
+	const { width, height, depth, colour: type, palette, transparency, data } = png;
 	if (png.interlace !== 0) return null;
 	const samples = { 0: 1, 2: 3, 3: 1, 4: 2, 6: 4 }[type];
 	if (!samples || !width || !height) throw new Error('unsupported PNG header');
@@ -311,20 +311,20 @@ interface SplitRows {
 }
 
 async function splitPngRows(bytes: Uint8Array, inflate: (b: Uint8Array) => Uint8Array | Promise<Uint8Array>): Promise<SplitRows | null> {
-	const png = readPngChunks(bytes);
+	const png = readPngParts(bytes);
 	if (!png || !png.width || !png.height || !png.data.length || png.depth !== 8 || png.interlace !== 0 || png.transparency || png.palette) return null;
-	const channels: 1 | 3 | undefined = png.type === 0 || png.type === 4 ? 1 : png.type === 2 || png.type === 6 ? 3 : undefined;
+	const channels: 1 | 3 | undefined = png.colour === 0 || png.colour === 4 ? 1 : png.colour === 2 || png.colour === 6 ? 3 : undefined;
 	if (!channels) return null;
 	const { width, height } = png;
 	const head = { widthPx: width, heightPx: height, channels, pngRows: true as const };
 	const stream = concat(png.data);
 	// Inflated even when it goes in as it is: a damaged stream is refused here, not left to the reader.
 	const raw = await inflate(stream);
-	const bpp = png.type === 0 || png.type === 2 ? channels : channels + 1;
+	const bpp = png.colour === 0 || png.colour === 2 ? channels : channels + 1;
 	const stride = width * bpp;
 	if (raw.length < height * (stride + 1)) throw new Error('PNG image data is too short');
 	for (let y = 0; y < height; y++) if (raw[y * (stride + 1)] > 4) throw new Error(`bad PNG filter ${raw[y * (stride + 1)]}`);
-	if (png.type === 0 || png.type === 2) return { head, colour: { zlib: stream }, alphaRows: null };
+	if (png.colour === 0 || png.colour === 2) return { head, colour: { zlib: stream }, alphaRows: null };
 
 	const colour = new Uint8Array(height * (width * channels + 1));
 	const alphaRows = new Uint8Array(height * (width + 1));
@@ -357,41 +357,6 @@ async function compressRows(split: SplitRows, deflate: (b: Uint8Array) => Uint8A
 		split.alphaRows ? deflate(split.alphaRows) : null
 	]);
 	return { ...split.head, colour, alpha };
-}
-
-interface PngChunks {
-	width: number;
-	height: number;
-	depth: number;
-	type: number;
-	interlace: number;
-	palette?: Uint8Array;
-	transparency?: Uint8Array;
-	data: Uint8Array[];
-}
-
-/** The header fields and chunks decoding needs (ISO/IEC 15948 §5, §11.2); null when the signature is not a PNG's. */
-function readPngChunks(bytes: Uint8Array): PngChunks | null {
-	for (let i = 0; i < 8; i++) if (bytes[i] !== PNG_SIGNATURE[i]) return null;
-	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-	const png: PngChunks = { width: 0, height: 0, depth: 8, type: 0, interlace: 0, data: [] };
-	for (let at = 8; at + 8 <= bytes.length; ) {
-		const length = view.getUint32(at);
-		const name = String.fromCharCode(bytes[at + 4], bytes[at + 5], bytes[at + 6], bytes[at + 7]);
-		const body = bytes.subarray(at + 8, at + 8 + length);
-		if (name === 'IHDR') {
-			png.width = view.getUint32(at + 8);
-			png.height = view.getUint32(at + 12);
-			png.depth = body[8];
-			png.type = body[9];
-			png.interlace = body[12];
-		} else if (name === 'PLTE') png.palette = body;
-		else if (name === 'tRNS') png.transparency = body;
-		else if (name === 'IDAT') png.data.push(body);
-		else if (name === 'IEND') break;
-		at += 12 + length;
-	}
-	return png;
 }
 
 // Inflated rows are read once and dropped: no copy out of the Buffer.
