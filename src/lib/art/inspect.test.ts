@@ -8,15 +8,7 @@ import { ArtRejected, inspectArt, MAX_ART_BYTES, THUMBNAIL_MAX_PX } from './insp
 
 /* ------------------------------------------------------------- fixtures */
 
-const concat = (...parts: Uint8Array[]) => {
-	const out = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
-	let at = 0;
-	for (const p of parts) {
-		out.set(p, at);
-		at += p.length;
-	}
-	return out;
-};
+const concat = (...parts: Uint8Array[]) => new Uint8Array(Buffer.concat(parts));
 const u32be = (n: number) => new Uint8Array([n >>> 24, (n >>> 16) & 255, (n >>> 8) & 255, n & 255]);
 const ascii = (s: string) => new Uint8Array([...s].map((c) => c.charCodeAt(0)));
 

@@ -39,7 +39,7 @@ export function decodePng(bytes: Uint8Array): DecodedPng | null {
 	if (!samples || !width || !height) throw new Error('unsupported PNG header');
 
 	// Node's zlib (native) inflates and deflates pixels several times faster than a JS port.
-	const raw = new Uint8Array(inflateSync(concat(data)));
+	const raw = new Uint8Array(inflateSync(Buffer.concat(data)));
 	const bitsPerPixel = samples * depth;
 	const stride = Math.ceil((width * bitsPerPixel) / 8);
 	const bpp = Math.max(1, bitsPerPixel >> 3);
@@ -201,16 +201,6 @@ function unfilterRow(raw: Uint8Array, at: number, out: Uint8Array, prior: Uint8A
 	}
 }
 
-function concat(parts: Uint8Array[]): Uint8Array {
-	const out = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
-	let at = 0;
-	for (const p of parts) {
-		out.set(p, at);
-		at += p.length;
-	}
-	return out;
-}
-
 /** Interlaced PNGs are rare in artwork; they go through jimp, which is slower but complete. */
 async function decodePngSlowly(bytes: Uint8Array): Promise<DecodedPng> {
 	// Required, not imported: the compiled CLI runs from a V8 code cache, where import() is not available.
@@ -317,7 +307,7 @@ async function splitPngRows(bytes: Uint8Array, inflate: (b: Uint8Array) => Uint8
 	if (!channels) return null;
 	const { width, height } = png;
 	const head = { widthPx: width, heightPx: height, channels, pngRows: true as const };
-	const stream = concat(png.data);
+	const stream = Buffer.concat(png.data);
 	// Inflated even when it goes in as it is: a damaged stream is refused here, not left to the reader.
 	const raw = await inflate(stream);
 	const bpp = png.colour === 0 || png.colour === 2 ? channels : channels + 1;
