@@ -6,11 +6,12 @@
  * does nothing (checked on the PostgreSQL pass, where another connection can hold it).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { eq, inArray } from 'drizzle-orm';
+import { eq, inArray, sql } from 'drizzle-orm';
 import pg from 'pg';
 import { openWorld, type World } from './harness';
 import { oddsJobs, printJobs } from '$lib/server/db/schema';
 import { storage } from '$lib/server/storage';
+import { isEmbedded } from '$lib/server/db';
 import { JOB_FILES_LOCK, JOB_KEEP_MS, JOB_LOST_MS, holdingJobFiles, sweepFinishedJobs } from '$lib/server/job-sweep';
 
 let w: World;
@@ -105,6 +106,16 @@ describe('sweeping finished jobs', () => {
 		});
 		await sweepFinishedJobs(w.db);
 		expect(await storage().has(key(5))).toBe(true);
+	});
+
+	it('a job being finished holds the files lock on a database server; the embedded database, one transaction at a time, takes none', async () => {
+		expect(isEmbedded(w.db)).toBe(!w.databaseUrl);
+		// PostgreSQL's lock view (PostgreSQL documentation, "pg_locks"): this session's advisory locks.
+		const held = await holdingJobFiles(w.db, async (tx) => {
+			const res = (await tx.execute(sql`select count(*)::int as n from pg_locks where locktype = 'advisory' and pid = pg_backend_pid()`)) as unknown as { rows: { n: number }[] };
+			return res.rows[0].n;
+		});
+		expect(held).toBe(w.databaseUrl ? 1 : 0);
 	});
 
 	it('closes a job still open long after it was queued as failed, so its waiter hears so, then sweeps it', async () => {

@@ -3,11 +3,12 @@
  * in their database rows, so one bound holds across every app process sharing the database
  * (whether jobs run in this process's worker pool or through the shared queue). Past the bound a
  * new job is refused before its row is written (nothing half-made), with an estimate of when a
- * place frees up. The count and the insert run under one advisory lock, so two processes
- * admitting at the same moment cannot both take the last place.
+ * place frees up. On a database server the count and the insert run under one advisory lock, so
+ * two processes admitting at the same moment cannot both take the last place (the embedded
+ * database runs one transaction at a time already).
  */
 import { count, inArray, sql } from 'drizzle-orm';
-import type { Db } from './db';
+import { isEmbedded, type Db } from './db';
 import { printJobs } from './db/schema';
 import { Busy } from './refusals';
 import { countSetting } from '../settings';
@@ -62,7 +63,7 @@ export class PrintQueueFull extends Busy {
  * releases the lock.
  */
 export async function admitPrintJob<T>(tx: Db, insert: () => Promise<T>, max = printQueueMax()): Promise<T> {
-	await tx.execute(sql`select pg_advisory_xact_lock(${ADMIT_LOCK})`);
+	if (!isEmbedded(tx)) await tx.execute(sql`select pg_advisory_xact_lock(${ADMIT_LOCK})`);
 	const rows = await tx
 		.select({ state: printJobs.state, n: count() })
 		.from(printJobs)

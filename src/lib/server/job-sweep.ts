@@ -6,10 +6,11 @@
  * One process sweeps at a time: the sweep holds a PostgreSQL advisory lock and skips its turn
  * when another holds it. Built files are content-addressed, so a new job may finish onto a file
  * an old one left; finishing a job holds the same lock shared (`holdingJobFiles`), so a sweep
- * never deletes a file between a build finding it in place and its row naming it.
+ * never deletes a file between a build finding it in place and its row naming it. (The embedded
+ * database runs one transaction at a time, which keeps the two apart with no lock.)
  */
 import { and, inArray, isNotNull, lt, sql } from 'drizzle-orm';
-import type { Db } from './db';
+import { isEmbedded, type Db } from './db';
 import { asBackground } from './db/turns';
 import { oddsJobs, printJobs } from './db/schema';
 import { storage } from './storage';
@@ -35,7 +36,7 @@ const lockKey = sql.raw(`${BigInt.asIntN(64, JOB_FILES_LOCK)}`);
 /** Runs `work` (store a job's file, then record it on the row) so that no sweep runs meanwhile. */
 export async function holdingJobFiles<T>(db: Db, work: (tx: Db) => Promise<T>): Promise<T> {
 	return db.transaction(async (tx) => {
-		await tx.execute(sql`select pg_advisory_xact_lock_shared(${lockKey})`);
+		if (!isEmbedded(db)) await tx.execute(sql`select pg_advisory_xact_lock_shared(${lockKey})`);
 		return work(tx as unknown as Db);
 	});
 }

@@ -4,7 +4,7 @@
  * same schema and the same drizzle-kit migrations.
  */
 import { PGlite } from '@electric-sql/pglite';
-import { drizzle as drizzlePglite } from 'drizzle-orm/pglite';
+import { drizzle as drizzlePglite, PgliteDatabase, PgliteTransaction } from 'drizzle-orm/pglite';
 import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator';
 import { drizzle as drizzlePg } from 'drizzle-orm/node-postgres';
 import { migrate as migratePg } from 'drizzle-orm/node-postgres/migrator';
@@ -36,6 +36,13 @@ export interface Database {
 	migrate: (migrationsFolder: string) => Promise<void>;
 	close: () => Promise<void>;
 }
+
+/**
+ * Whether `db` (or a transaction on it) is the embedded database. One process holds it, its calls
+ * run one at a time and a transaction is one call (./turns.ts): nothing comes between a
+ * transaction's statements, so the advisory locks that keep server processes apart are not taken.
+ */
+export const isEmbedded = (db: Db) => db instanceof PgliteDatabase || db instanceof PgliteTransaction;
 
 export const MIGRATIONS_DIR = resolve(process.env.PADDOCK_MIGRATIONS_DIR ?? 'drizzle');
 
