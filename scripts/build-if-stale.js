@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { buildPrint } from './build-print.js';
 import { buildLog } from './build-log.js';
+import { rewriteServerEntry } from './server-entry.js';
 
 const root = new URL('..', import.meta.url).pathname;
 
@@ -31,6 +32,7 @@ export async function buildApp({ log = console.log } = {}) {
 	const { shown, hidden } = buildLog(`${built.stdout ?? ''}\n${built.stderr ?? ''}`, built.status === 0);
 	if (shown) log(shown);
 	if (built.status !== 0) throw new Error(`the build failed (exit ${built.status})`);
+	rewriteServerEntry(join(root, 'build/index.js'));
 	// The print worker and CLI as plain JavaScript (no TypeScript loader in the server's threads).
 	await buildPrint({ quiet: true });
 	log(`Built in ${Math.round((Date.now() - started) / 1000)} s${hidden ? ` (${hidden} bundler notices about third-party packages not shown)` : ''}.`);
