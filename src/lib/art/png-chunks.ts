@@ -5,15 +5,13 @@
  */
 
 /** PNG signature, §5.2. */
-export const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a] as const;
+const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a] as const;
 
 export const isPng = (bytes: Uint8Array) => bytes.length >= PNG_SIGNATURE.length && PNG_SIGNATURE.every((b, i) => bytes[i] === b);
 
 export interface PngChunk {
 	/** The four-letter chunk type, e.g. `IHDR`. */
 	type: string;
-	/** Where the chunk starts in the file (its length field). */
-	at: number;
 	/** The chunk's data (cut short when the file ends inside it). */
 	data: Uint8Array;
 	/** False when the file ends before the chunk's data does. */
@@ -32,7 +30,7 @@ export function* pngChunks(bytes: Uint8Array): Generator<PngChunk> {
 		const type = String.fromCharCode(bytes[at + 4], bytes[at + 5], bytes[at + 6], bytes[at + 7]);
 		const start = at + 8;
 		const whole = start + length <= bytes.length;
-		yield { type, at, data: bytes.subarray(start, start + length), whole };
+		yield { type, data: bytes.subarray(start, start + length), whole };
 		if (!whole) return;
 		at = start + length + 4;
 	}

@@ -25,7 +25,6 @@ export interface DecodedPng {
 	alpha: Uint8Array | null;
 }
 
-
 /**
  * Decodes a non-interlaced PNG of any colour type and bit depth (PNG spec, ISO/IEC 15948).
  * Returns null for interlaced files, which the caller decodes the slow way.
