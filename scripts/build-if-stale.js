@@ -23,7 +23,7 @@ export function isStale(output, sources) {
 	return !existsSync(out) || Math.max(...sources.map((s) => newest(join(root, s)))) > statSync(out).mtimeMs;
 }
 
-const APP_SOURCES = ['src', 'static', 'templates', 'package.json', 'svelte.config.js', 'vite.config.ts'];
+const APP_SOURCES = ['src', 'static', 'templates', 'package.json', 'svelte.config.js', 'vite.config.ts', 'scripts/server-entry.js', 'scripts/helper-threads.js'];
 
 /** Builds the app (`npm run build`): the SvelteKit server and client, then the print worker and CLI. */
 export async function buildApp({ log = console.log } = {}) {

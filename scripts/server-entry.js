@@ -1,9 +1,14 @@
-// The built server's entry (build/index.js, written by the Node adapter) hands each request to the
-// app through `setImmediate`. A request read while the server is busy then waits behind every
-// callback queued before it, so a plain `/api/v1/me` waited a whole turn of the event loop behind
+// The built server's entry (build/index.js, written by the Node adapter) is changed in two ways.
+//
+// Its first module becomes ./helper-threads.js (copied beside it), which lowers the priority of
+// the threads V8 does its background work on.
+//
+// It handed each request to the app through `setImmediate`. A request read while the server was
+// busy then waited behind every callback queued before it, so a plain `/api/v1/me` waited a whole turn of the event loop behind
 // print builds. The adapter's handler is meant to be called straight from Node's `request` event
 // (it works with `http.createServer` alone), so after each build the entry calls it there.
-import { readFileSync, writeFileSync } from 'node:fs';
+import { copyFileSync, readFileSync, writeFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 
 const MOUNT = 'const server = polka({ server: httpServer }).use(handler);';
 const AT_ONCE = 'server.attach = server.handler; // each request is handled as soon as it is read (scripts/server-entry.js)';
@@ -19,7 +24,19 @@ export function handleRequestsAtOnce(source) {
 	return source.replace(MOUNT, `${MOUNT}\n${AT_ONCE}`);
 }
 
+const HELPERS_FIRST = "import './helper-threads.js'; // first: see scripts/helper-threads.js";
+
+/**
+ * The entry's source with ./helper-threads.js as its first module, so it runs before any other
+ * module of the app starts a thread of its own.
+ * @param {string} source
+ */
+export function lowerHelpersFirst(source) {
+	return source.startsWith(HELPERS_FIRST) ? source : `${HELPERS_FIRST}\n${source}`;
+}
+
 /** @param {string} path */
 export function rewriteServerEntry(path) {
-	writeFileSync(path, handleRequestsAtOnce(readFileSync(path, 'utf8')));
+	copyFileSync(new URL('./helper-threads.js', import.meta.url), join(dirname(path), 'helper-threads.js'));
+	writeFileSync(path, lowerHelpersFirst(handleRequestsAtOnce(readFileSync(path, 'utf8'))));
 }
