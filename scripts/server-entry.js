@@ -4,9 +4,10 @@
 // the threads V8 does its background work on.
 //
 // It handed each request to the app through `setImmediate`. A request read while the server was
-// busy then waited behind every callback queued before it, so a plain `/api/v1/me` waited a whole turn of the event loop behind
-// print builds. The adapter's handler is meant to be called straight from Node's `request` event
-// (it works with `http.createServer` alone), so after each build the entry calls it there.
+// busy then waited behind every callback queued before it, so a plain `/api/v1/me` waited a whole
+// turn of the event loop behind print builds. The adapter's handler is meant to be called straight
+// from Node's `request` event (it works with `http.createServer` alone), so after each build the
+// entry calls it there.
 import { copyFileSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 

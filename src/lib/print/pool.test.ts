@@ -136,11 +136,12 @@ describe('PrintPool', () => {
 });
 
 describe('defaultPoolSize', () => {
-	it('is one worker per core unless a count is chosen', () => {
-		expect(defaultPoolSize(undefined, 2)).toBe(2);
-		expect(defaultPoolSize(undefined, 8)).toBe(8);
+	it('is one worker per core but one (at least one) unless a count is chosen', () => {
+		expect(defaultPoolSize(undefined, 1)).toBe(1);
+		expect(defaultPoolSize(undefined, 2)).toBe(1);
+		expect(defaultPoolSize(undefined, 8)).toBe(7);
 		expect(defaultPoolSize('3', 2)).toBe(3);
 		// Not a count: the default stands.
-		for (const bad of ['0', '-2', '1.5', 'many', '']) expect(defaultPoolSize(bad, 4)).toBe(4);
+		for (const bad of ['0', '-2', '1.5', 'many', '']) expect(defaultPoolSize(bad, 4)).toBe(3);
 	});
 });
