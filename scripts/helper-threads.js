@@ -18,16 +18,16 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { setPriority } from 'node:os';
 
 /** The nice value helper threads run at: the print workers' (WORKER_NICE in src/lib/threads/priority.ts). */
-export const HELPER_NICE = 10;
+const HELPER_NICE = 10;
 /** Node's own threads started before V8's helpers: its debug-signal thread and V8's delayed-task thread. */
 const BEFORE_HELPERS = 2;
 const DEFAULT_V8_POOL = 4;
 
 /** V8's helper-thread count: --v8-pool-size on the command line or in NODE_OPTIONS, else Node's default. */
-export function v8PoolSize(execArgv = process.execArgv, nodeOptions = process.env.NODE_OPTIONS ?? '') {
-	const set = [...execArgv, ...nodeOptions.split(/\s+/)].join(' ').match(/--v8-pool-size[= ](\d+)/g);
+function v8PoolSize(execArgv = process.execArgv, nodeOptions = process.env.NODE_OPTIONS ?? '') {
+	const set = [...`${execArgv.join(' ')} ${nodeOptions}`.matchAll(/--v8-pool-size[= ](\d+)/g)];
 	// Node takes 0 to mean "as many as there are cores"; then the helpers are not told apart here.
-	const size = set ? Number(set.at(-1).match(/(\d+)$/)[1]) : DEFAULT_V8_POOL;
+	const size = set.length ? Number(set.at(-1)[1]) : DEFAULT_V8_POOL;
 	return size > 0 ? size : null;
 }
 
@@ -40,26 +40,23 @@ export function threadsInStartOrder(pid = process.pid) {
 		.sort((a, b) => age(a) - age(b));
 }
 
-/** Lowers Node's startup threads (not the main one); the ids lowered. */
-export function lowerHelperThreads(nice = HELPER_NICE) {
+/** Lowers Node's startup threads (not the main one). */
+function lowerHelperThreads() {
 	const pool = v8PoolSize();
-	if (pool === null) return [];
+	if (pool === null) return;
 	let threads;
 	try {
 		threads = threadsInStartOrder();
 	} catch {
-		return [];
+		return;
 	}
-	const lowered = [];
 	for (const tid of threads.slice(1, 1 + BEFORE_HELPERS + pool)) {
 		try {
-			setPriority(tid, nice);
-			lowered.push(tid);
+			setPriority(tid, HELPER_NICE);
 		} catch {
 			// not ours to lower
 		}
 	}
-	return lowered;
 }
 
 lowerHelperThreads();
