@@ -17,6 +17,7 @@ import { Worker } from 'node:worker_threads';
 import * as schema from './schema';
 import { lockDataDir } from './lock';
 import { takeTurns } from './turns';
+import { readTextOnce } from './text-types';
 import { describeServerError, serverName } from './server-errors';
 import { countSetting } from '../../settings';
 
@@ -85,6 +86,7 @@ export async function openDatabase(dataDir: string | null, migrationsFolder = MI
 		if (pgDir && !existsSync(resolve(pgDir, 'PG_VERSION'))) await initDataDir(pgDir);
 		const client = new PGlite(pgDir ?? undefined, { startParams: EMBEDDED_PARAMS });
 		await client.waitReady;
+		readTextOnce(client);
 		takeTurns(client);
 		const db = drizzlePglite({ client, schema });
 		const migrate = (folder: string) => migratePglite(db, { migrationsFolder: folder });
