@@ -9,9 +9,6 @@ export default defineConfig({
 		environment: 'node',
 		testTimeout: 60_000,
 		hookTimeout: 60_000,
-		pool: 'forks',
-		// Test files run side by side and keep every core busy: under the idle policy the print and
-		// odds workers they start would wait for a free core (src/lib/threads/priority.ts).
-		env: { PADDOCK_WORKER_PRIORITY: 'low' }
+		pool: 'forks'
 	}
 });
