@@ -22,13 +22,14 @@ type Parsers = NonNullable<QueryOptions['parsers']>;
  * The types drizzle reads as text (its parsers in drizzle-orm/pglite/session.js): then numeric[],
  * timestamp[], timestamptz[], interval[] and date[] by their type ids (Postgres's pg_type.dat).
  */
-export const TEXT_TYPES = [types.TIMESTAMP, types.TIMESTAMPTZ, types.INTERVAL, types.DATE, 1231, 1115, 1185, 1187, 1182];
+const TEXT_TYPES = [types.TIMESTAMP, types.TIMESTAMPTZ, types.INTERVAL, types.DATE, 1231, 1115, 1185, 1187, 1182];
 
 /** The query's options without parsers the client already applies the same way. */
 function withoutKnownParsers(client: PGlite, options: QueryOptions | undefined): QueryOptions | undefined {
 	const given = options?.parsers;
 	if (!given) return options;
-	const known = (client.parsers as Parsers | undefined) ?? {};
+	// Read at each query: PGlite replaces its map when it learns new types (array types among them).
+	const known = client.parsers as Parsers;
 	for (const [type, parser] of Object.entries(given)) {
 		if (known[Number(type)] !== asText || parser(PROBE, Number(type)) !== PROBE) return options;
 	}
