@@ -30,7 +30,7 @@ test('a designer runs the demo game’s saved scenario and sees the chart and th
 	await page.screenshot({ path: `${SHOTS}/odds-after.png`, fullPage: true });
 });
 
-test('a long run shows its progress and can be cancelled; a printer may not run odds', async ({ page }) => {
+test('a long run shows its progress and can be cancelled; a printer may not run odds', async ({ page, browser }) => {
 	await signIn(page, 'designer@paddock.test');
 	await page.getByRole('link', { name: 'Mossbank Games' }).first().click();
 	await page.getByRole('link', { name: 'The Marrowbed Derby' }).click();
@@ -44,10 +44,13 @@ test('a long run shows its progress and can be cancelled; a printer may not run 
 	await expect(page.getByRole('status')).toHaveText('Cancelled.');
 
 	const gameId = await demoGameId(page);
-	await page.context().clearCookies();
-	await signIn(page, 'printer@paddock.test');
-	const res = await page.request.post(`/api/v1/games/${gameId}/odds`, { data: { finish: 5, stacks: [{ space: 1, bottomToTop: ['x'] }], deck: [], exact: true } });
+	// The printer in a browser of their own, so no answer still coming to the designer's page signs them in again.
+	const context = await browser.newContext();
+	const printer = await context.newPage();
+	await signIn(printer, 'printer@paddock.test');
+	const res = await printer.request.post(`/api/v1/games/${gameId}/odds`, { data: { finish: 5, stacks: [{ space: 1, bottomToTop: ['x'] }], deck: [], exact: true } });
 	expect(res.status()).toBe(403);
+	await context.close();
 });
 
 test('a reviewer sees each wager card’s expected coins at the time of the proof', async ({ page }) => {

@@ -193,16 +193,19 @@ test('proof grid: filters, a card large with pins, arrow keys, a shareable link,
 	}
 });
 
-test('a printer cannot open an unreleased proof or its faces', async ({ page }) => {
+test('a printer cannot open an unreleased proof or its faces', async ({ page, browser }) => {
 	await signIn(page, 'designer@paddock.test');
 	const gameId = await demoGameId(page);
 	const proof = await cut(page, gameId, 'Not for the print shop yet');
 	const { cards } = (await (await page.request.get(`/api/v1/games/${gameId}/cards`)).json()) as { cards: Card[] };
-	await page.context().clearCookies();
-	await signIn(page, 'printer@paddock.test');
-	const view = await page.goto(`/games/${gameId}/proofs/${proof.number}?card=x&changed=changed`);
+	// The printer in a browser of their own, so no answer still coming to the designer's page signs them in again.
+	const context = await browser.newContext();
+	const printer = await context.newPage();
+	await signIn(printer, 'printer@paddock.test');
+	const view = await printer.goto(`/games/${gameId}/proofs/${proof.number}?card=x&changed=changed`);
 	expect(view!.status()).toBe(404);
 	const cardId = cards[0].id;
-	const face = await page.request.get(`/api/v1/games/${gameId}/proofs/${proof.id}/cards/${encodeURIComponent(cardId)}/face.svg`);
+	const face = await printer.request.get(`/api/v1/games/${gameId}/proofs/${proof.id}/cards/${encodeURIComponent(cardId)}/face.svg`);
 	expect(face.status()).toBe(404);
+	await context.close();
 });
