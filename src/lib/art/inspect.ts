@@ -9,10 +9,10 @@
  */
 import { createHash } from 'node:crypto';
 import { imageSize } from 'image-size';
-import { Jimp } from 'jimp';
 import pLimit from 'p-limit';
 import { MM_PER_INCH, type ArtMime } from '../game/model';
-import { svgToPng } from '../print/png';
+import { jimp } from '../print/jimp';
+import { rgbaToPng, svgToPng } from '../print/png';
 import { jpegDeclaredDpi, pngDeclaredDpi, type DeclaredDpi } from './declared-dpi';
 import { isPng } from './png-chunks';
 import { ArtRejected } from './rejected';
@@ -165,9 +165,7 @@ async function pngThumbnail(bytes: Uint8Array, width: number, height: number): P
 		if (!(error instanceof PngStripError)) throw error;
 		throw new ArtRejected('unreadable', `This PNG could not be decoded (${error.message}); the file may be damaged.`);
 	}
-	const image = new Jimp({ data: Buffer.from(strips.rgba), width: box.widthPx, height: box.heightPx });
-	const png = await image.getBuffer('image/png');
-	return { mime: 'image/png', bytes: new Uint8Array(png), widthPx: box.widthPx, heightPx: box.heightPx };
+	return { mime: 'image/png', bytes: rgbaToPng(strips.rgba, box.widthPx, box.heightPx), widthPx: box.widthPx, heightPx: box.heightPx };
 }
 
 /** JPEGs and interlaced PNGs: decoded whole, so under a lower pixel cap and one at a time. */
@@ -185,9 +183,9 @@ async function wholeThumbnail(
 			`This ${mime === 'image/png' ? 'interlaced PNG' : 'JPEG'} is ${width} × ${height} px (${megapixels(width * height)}); ` +
 				`Paddock accepts up to ${megapixels(cap)} for this kind of file. Scale it down, or save it as a non-interlaced PNG.`
 		);
-	let image: Awaited<ReturnType<typeof Jimp.read>>;
+	let image: Awaited<ReturnType<ReturnType<typeof jimp>['read']>>;
 	try {
-		image = await Jimp.read(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), {
+		image = await jimp().read(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), {
 			'image/jpeg': { maxResolutionInMP: cap / 1e6, maxMemoryUsageInMB: jpegMemoryMb(cap) }
 		});
 	} catch (error) {

@@ -7,13 +7,13 @@
  * and written as our own FlateDecode image (§8.9.5). Much faster than a general-purpose
  * embedder that re-packs every PNG the same way.
  */
-import { createRequire } from 'node:module';
 import { promisify } from 'node:util';
 import { deflate, deflateSync, inflateSync } from 'node:zlib';
 import { PDFDocument, PDFName, PDFRef } from 'pdf-lib';
 import type { ImageAsset } from './display-list';
 import { readPngParts } from '../art/png-chunks';
 import type { PressColour } from './colour/cmm';
+import { jimp } from './jimp';
 
 export interface DecodedPng {
 	widthPx: number;
@@ -202,9 +202,7 @@ function unfilterRow(raw: Uint8Array, at: number, out: Uint8Array, prior: Uint8A
 
 /** Interlaced PNGs are rare in artwork; they go through jimp, which is slower but complete. */
 async function decodePngSlowly(bytes: Uint8Array): Promise<DecodedPng> {
-	// Required, not imported: the compiled CLI runs from a V8 code cache, where import() is not available.
-	const { Jimp } = createRequire(import.meta.url)('jimp') as typeof import('jimp');
-	const image = await Jimp.read(Buffer.from(bytes));
+	const image = await jimp().read(Buffer.from(bytes));
 	const { width, height, data } = image.bitmap;
 	const colour = new Uint8Array(width * height * 3);
 	const alpha = new Uint8Array(width * height);

@@ -4,6 +4,7 @@
 import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import { initWasm, Resvg } from '@resvg/resvg-wasm';
+import { PNG } from 'pngjs';
 import { MM_PER_INCH } from '../game/model';
 import { faceWidthMm, type FaceLayout } from './display-list';
 import { FONT_FAMILY, loadFonts } from './fonts';
@@ -25,6 +26,13 @@ export function resvgReady(): Promise<void> {
 		}
 	})();
 	return ready;
+}
+
+/** 8-bit RGBA pixels, row by row, as a PNG file (thumbnails, soft proofs). */
+export function rgbaToPng(rgba: Uint8Array, widthPx: number, heightPx: number): Uint8Array {
+	const image = new PNG({ width: widthPx, height: heightPx });
+	image.data = Buffer.from(rgba.buffer, rgba.byteOffset, rgba.byteLength);
+	return new Uint8Array(PNG.sync.write(image));
 }
 
 /** The root element gives its size in mm. */

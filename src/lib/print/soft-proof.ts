@@ -4,12 +4,11 @@
  * pixel goes through the press profile and back (./colour/cmm.ts, LittleCMS), and colours that
  * move more than a threshold (CIEDE2000, ./colour/delta-e.ts) are striped in a warning colour.
  */
-import { Jimp } from 'jimp';
 import type { FaceLayout } from './display-list';
 import type { PressColour } from './colour/cmm';
 import { GAMUT_WARNING_DELTA_E2000 } from './colour/delta-e';
 import { decodePng } from './pdf-image';
-import { renderFacePng } from './png';
+import { renderFacePng, rgbaToPng } from './png';
 import type { ImageSource } from './svg';
 
 /** Screen previews: enough for a card on a page, a fraction of the print files' 300 dpi. */
@@ -76,9 +75,8 @@ export async function softProofFace(face: FaceLayout, images: ImageSource, optio
 	if (!png) throw new Error('the face could not be read back for the soft proof');
 	const rgb = png.channels === 3 ? png.colour : greyToRgb(png.colour);
 	const proof = softProofPixels(rgb, png.widthPx, png.heightPx, options);
-	const out = await new Jimp({ data: Buffer.from(proof.rgba), width: proof.widthPx, height: proof.heightPx }).getBuffer('image/png');
-	const { rgba: _pixels, ...figures } = proof;
-	return { ...figures, png: new Uint8Array(out) };
+	const { rgba, ...figures } = proof;
+	return { ...figures, png: rgbaToPng(rgba, proof.widthPx, proof.heightPx) };
 }
 
 function greyToRgb(grey: Uint8Array): Uint8Array {
