@@ -5,7 +5,7 @@
  */
 import { test, expect, type Page } from '@playwright/test';
 import { AxeBuilder } from '@axe-core/playwright';
-import { hydrated, signIn, demoGameId } from './helpers';
+import { hydrated, signIn, signInNewBrowser, demoGameId } from './helpers';
 import { appPages, settled } from './pages';
 
 const TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
@@ -72,9 +72,7 @@ test('the proof grid, a filtered grid and a card open large pass the scan for ev
 	for (const role of ['owner', 'designer', 'artist', 'reviewer', 'printer'] as const) {
 		// A browser of its own per role: a face still loading for the role before would otherwise
 		// bring its session cookie back after the cookies were cleared.
-		const context = await browser.newContext();
-		const page = await context.newPage();
-		await signIn(page, `${role}@paddock.test`);
+		const page = await signInNewBrowser(browser, `${role}@paddock.test`);
 		const gameId = await demoGameId(page);
 		// Printers may not read the working game's cards: they get the release page, with no grid.
 		const cardId = role === 'printer' ? 'any' : (await (await page.request.get(`/api/v1/games/${gameId}/cards`)).json()).cards[0].id;
@@ -85,7 +83,7 @@ test('the proof grid, a filtered grid and a card open large pass the scan for ev
 			if (role !== 'printer' && path.includes('card=')) await expect(page.getByTestId('card-large')).toBeVisible();
 			findings.push(...(await scan(page, `${role} ${path}`)));
 		}
-		await context.close();
+		await page.context().close();
 	}
 	expect(findings).toEqual([]);
 });

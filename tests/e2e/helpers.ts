@@ -1,4 +1,4 @@
-import { expect, type Page } from '@playwright/test';
+import { expect, type Browser, type BrowserContextOptions, type Page } from '@playwright/test';
 
 export const DEMO_PASSWORD = 'paddock-demo';
 
@@ -14,6 +14,16 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
 	await page.getByLabel('Password').fill(password);
 	await page.getByRole('button', { name: 'Sign in' }).click();
 	await expect(page).toHaveURL('/');
+}
+
+/**
+ * A person signed in in a browser of their own (a new context: no cookie or answer shared with any
+ * other page). Close it with `page.context().close()`.
+ */
+export async function signInNewBrowser(browser: Browser, email: string, options: BrowserContextOptions = {}): Promise<Page> {
+	const page = await (await browser.newContext(options)).newPage();
+	await signIn(page, email);
+	return page;
 }
 
 /** The demo game's id (other tests add games of their own to the demo team). */

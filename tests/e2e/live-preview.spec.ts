@@ -12,7 +12,7 @@ import { expect, test, type Page } from '@playwright/test';
 import { initWasm, Resvg } from '@resvg/resvg-wasm';
 import pixelmatch from 'pixelmatch';
 import { PNG } from 'pngjs';
-import { demoGameId, hydrated, signIn } from './helpers';
+import { demoGameId, hydrated, signIn, signInNewBrowser } from './helpers';
 
 const require = createRequire(import.meta.url);
 const fontFile = (weight: number) => readFileSync(require.resolve(`@fontsource/roboto-slab/files/roboto-slab-latin-${weight}-normal.woff2`));
@@ -226,9 +226,7 @@ test('a keystroke redraws the card’s face in the page, without a request', asy
 test('an artist and a reviewer see the preview drawn as well', async ({ browser }) => {
 	test.setTimeout(120_000);
 	for (const who of ['artist@paddock.test', 'reviewer@paddock.test']) {
-		const context = await browser.newContext();
-		const page = await context.newPage();
-		await signIn(page, who);
+		const page = await signInNewBrowser(browser, who);
 		const gameId = await demoGameId(page);
 		const preview = await openCard(page, gameId, 'movement');
 		await expect(page.getByRole('alert')).toHaveCount(0);
@@ -238,6 +236,6 @@ test('an artist and a reviewer see the preview drawn as well', async ({ browser 
 		for (const href of new Set(art)) expect((await page.request.get(href!)).status(), href!).toBe(200);
 		await page.waitForLoadState('networkidle');
 		await page.screenshot({ path: `test-results/live-preview-${who.split('@')[0]}.png`, fullPage: true });
-		await context.close();
+		await page.context().close();
 	}
 });

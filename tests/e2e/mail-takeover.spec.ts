@@ -4,7 +4,7 @@
  * they can reach. Caught mail shows to its recipient only, so the link never appears.
  */
 import { test, expect, type Page } from '@playwright/test';
-import { hydrated, signIn } from './helpers';
+import { hydrated, signInNewBrowser } from './helpers';
 
 const VICTIM = 'designer@paddock.test';
 
@@ -48,9 +48,7 @@ test('a self-registered owner never sees the reset link of a person they invited
 	await anon.close();
 
 	// The victim does get the link, on their own page (so the mail was caught by now).
-	const victimContext = await browser.newContext();
-	const victim = await victimContext.newPage();
-	await signIn(victim, VICTIM);
+	const victim = await signInNewBrowser(browser, VICTIM);
 	let resetPath = '';
 	await expect(async () => {
 		await victim.goto('/mail');
@@ -59,7 +57,7 @@ test('a self-registered owner never sees the reset link of a person they invited
 		resetPath = new URL((await message.getByRole('link').first().getAttribute('href'))!).pathname;
 	}).toPass({ timeout: 20_000 });
 	expect(resetPath).toMatch(/^\/reset\/\S+/);
-	await victimContext.close();
+	await victim.context().close();
 
 	// Nowhere the attacker can go shows it, nor any mail to the victim.
 	for (const path of ['/mail', '/', teamPath, '/account']) {

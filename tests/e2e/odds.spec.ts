@@ -1,6 +1,6 @@
 import { test, expect } from '@playwright/test';
 import { mkdirSync } from 'node:fs';
-import { demoGameId, hydrated, signIn } from './helpers';
+import { demoGameId, hydrated, signIn, signInNewBrowser } from './helpers';
 
 const SHOTS = process.env.E2E_SHOTS ?? 'test-results/odds';
 
@@ -45,12 +45,10 @@ test('a long run shows its progress and can be cancelled; a printer may not run 
 
 	const gameId = await demoGameId(page);
 	// The printer in a browser of their own, so no answer still coming to the designer's page signs them in again.
-	const context = await browser.newContext();
-	const printer = await context.newPage();
-	await signIn(printer, 'printer@paddock.test');
+	const printer = await signInNewBrowser(browser, 'printer@paddock.test');
 	const res = await printer.request.post(`/api/v1/games/${gameId}/odds`, { data: { finish: 5, stacks: [{ space: 1, bottomToTop: ['x'] }], deck: [], exact: true } });
 	expect(res.status()).toBe(403);
-	await context.close();
+	await printer.context().close();
 });
 
 test('a reviewer sees each wager card’s expected coins at the time of the proof', async ({ page }) => {

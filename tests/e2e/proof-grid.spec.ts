@@ -6,7 +6,7 @@
  * pixel-difference image (pixelmatch, decoded here by jimp, an independent PNG reader).
  */
 import { test, expect, type Page } from '@playwright/test';
-import { hydrated, signIn, demoGameId } from './helpers';
+import { hydrated, signIn, signInNewBrowser, demoGameId } from './helpers';
 
 // A step that cannot happen fails at its own line instead of using up the whole test's time.
 test.use({ actionTimeout: 30_000 });
@@ -172,9 +172,7 @@ test('proof grid: filters, a card large with pins, arrow keys, a shareable link,
 		expect(marked).toBeGreaterThan(20);
 
 		// Phone width: the grid reflows into columns that fit, nothing wider than the screen.
-		const phone = await browser.newContext({ viewport: { width: 390, height: 844 } });
-		const small = await phone.newPage();
-		await signIn(small, 'reviewer@paddock.test');
+		const small = await signInNewBrowser(browser, 'reviewer@paddock.test', { viewport: { width: 390, height: 844 } });
 		await small.goto(`/games/${gameId}/proofs/${after.number}`);
 		await hydrated(small);
 		const smallThumbs = small.getByTestId('card-thumb');
@@ -187,7 +185,7 @@ test('proof grid: filters, a card large with pins, arrow keys, a shareable link,
 		await smallThumbs.first().click();
 		await expect(small.getByTestId('card-large')).toBeVisible();
 		expect(await small.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
-		await phone.close();
+		await small.context().close();
 	} finally {
 		await saveCard(page, gameId, { ...changed, data: { ...changed.data, steps: stepsBefore } });
 	}
@@ -199,13 +197,11 @@ test('a printer cannot open an unreleased proof or its faces', async ({ page, br
 	const proof = await cut(page, gameId, 'Not for the print shop yet');
 	const { cards } = (await (await page.request.get(`/api/v1/games/${gameId}/cards`)).json()) as { cards: Card[] };
 	// The printer in a browser of their own, so no answer still coming to the designer's page signs them in again.
-	const context = await browser.newContext();
-	const printer = await context.newPage();
-	await signIn(printer, 'printer@paddock.test');
+	const printer = await signInNewBrowser(browser, 'printer@paddock.test');
 	const view = await printer.goto(`/games/${gameId}/proofs/${proof.number}?card=x&changed=changed`);
 	expect(view!.status()).toBe(404);
 	const cardId = cards[0].id;
 	const face = await printer.request.get(`/api/v1/games/${gameId}/proofs/${proof.id}/cards/${encodeURIComponent(cardId)}/face.svg`);
 	expect(face.status()).toBe(404);
-	await context.close();
+	await printer.context().close();
 });

@@ -10,14 +10,9 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { hydrated, signIn, demoGameId } from './helpers';
+import { hydrated, signInNewBrowser, demoGameId } from './helpers';
 
-async function person(browser: Browser, email: string) {
-	const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-	const page = await context.newPage();
-	await signIn(page, email);
-	return page;
-}
+const person = (browser: Browser, email: string) => signInNewBrowser(browser, email, { viewport: { width: 1280, height: 900 } });
 
 /** The path of the first link in the newest caught message to `to` that contains `text`, read by its recipient. */
 async function mailLink(recipient: Page, to: string, text: string) {

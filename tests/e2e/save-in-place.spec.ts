@@ -1,5 +1,5 @@
 import { test, expect, type Page, type Request } from '@playwright/test';
-import { signIn, hydrated, demoGameId } from './helpers';
+import { signIn, signInNewBrowser, hydrated, demoGameId } from './helpers';
 
 /** Every reload of page data SvelteKit makes (its load functions answer at `__data.json`). */
 function dataReloads(page: Page): Request[] {
@@ -63,9 +63,7 @@ test('a card save shows the saved card without reloading the page; the next save
 	await page.screenshot({ path: 'test-results/save-in-place-after-save.png', fullPage: true });
 
 	// A second person opens the same card now (at the version just saved).
-	const other = await browser.newContext({ baseURL });
-	const stale = await other.newPage();
-	await signIn(stale, 'owner@paddock.test');
+	const stale = await signInNewBrowser(browser, 'owner@paddock.test', { baseURL });
 	await openMovementCard(stale, gameId, cardId);
 	await expect(stale.getByRole('textbox', { name: /^Card name/ })).toHaveValue('Steady trot');
 
@@ -84,7 +82,7 @@ test('a card save shows the saved card without reloading the page; the next save
 	expect(await save(stale)).toMatchObject({ type: 'failure', status: 409 });
 	await expect(stale.getByRole('alert').filter({ hasText: 'Someone saved this card after you opened it' })).toBeVisible();
 	await stale.screenshot({ path: 'test-results/save-in-place-stale.png', fullPage: true });
-	await other.close();
+	await stale.context().close();
 
 	// The saved form is not dirty: leaving asks nothing.
 	await page.getByRole('link', { name: 'Runners', exact: true }).click();
