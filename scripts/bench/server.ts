@@ -39,6 +39,11 @@ export interface Server {
 	rssMb(): number;
 	/** The server's own figures (SIGUSR2, see src/lib/server/vitals.ts); resets its loop-delay histogram. */
 	vitals(): Promise<Vitals>;
+	/**
+	 * The server's own thread since it started: ms it ran, and ms it was ready to run but waited
+	 * for a core (Linux's per-thread schedstat; undefined where the kernel keeps none).
+	 */
+	threadTimes(): { runMs: number; waitMs: number } | undefined;
 	stop(): Promise<void>;
 }
 
@@ -78,6 +83,15 @@ export async function startServer(port: number, buildDir = process.env.BENCH_BUI
 		rssMb: () => {
 			const m = readFileSync(`/proc/${child.pid}/status`, 'utf8').match(/VmRSS:\s+(\d+) kB/);
 			return m ? Math.round(Number(m[1]) / 1024) : NaN;
+		},
+		threadTimes: () => {
+			try {
+				// Fields: ns on a core, ns waiting on a run queue, time slices (the kernel's sched-stats documentation).
+				const [run, wait] = readFileSync(`/proc/${child.pid}/task/${child.pid}/schedstat`, 'utf8').trim().split(' ').map(Number);
+				return { runMs: run / 1e6, waitMs: wait / 1e6 };
+			} catch {
+				return undefined;
+			}
 		},
 		vitals: () =>
 			new Promise((resolve) => {
@@ -376,8 +390,10 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 		// wants a few hundred samples: idle is sampled for 10 s (some 360), busy over BUSY_BURSTS
 		// bursts of 8 builds (some 40 each), so both p99s are about the same rank.
 		await srv.vitals();
+		const atIdle = srv.threadTimes();
 		const idle = await probe(me, s.headers, sleep(10_000));
 		const idleLoop = (await srv.vitals()).loopDelayMs;
+		const atBusy = srv.threadTimes();
 		const eightBuilds = (follow: 'events' | number) =>
 			Promise.all(Array.from({ length: 8 }, (_, i) => sheetJob(s, srv.url, { ...SHEETS, sets: String(1 + (i % 3)) }, 'sheets', follow)));
 		const busy: number[] = [];
@@ -389,6 +405,7 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 			burstMax.push(Math.max(...ms));
 		}
 		const busyLoop = (await srv.vitals()).loopDelayMs;
+		const afterBusy = srv.threadTimes();
 		results.push(
 			verdict(
 				`/me p99 during 8 sheet builds ÷ idle (${BUSY_BURSTS} bursts)`,
@@ -397,6 +414,15 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 				p99(busy) <= 2 * p99(idle)
 			)
 		);
+		// How much of the time the server's thread was ready to run it spent waiting for a core (the
+		// builds' worker threads, the bench's own clients and other programs take them meanwhile).
+		const waited = (from?: { runMs: number; waitMs: number }, to?: { runMs: number; waitMs: number }) => {
+			if (!from || !to) return 'not known here';
+			const run = to.runMs - from.runMs;
+			const wait = to.waitMs - from.waitMs;
+			return `ran ${Math.round(run)} ms, waited for a core ${Math.round(wait)} ms (${Math.round((100 * wait) / (run + wait))}% of its ready time)`;
+		};
+		console.log(`  the server's thread while idle: ${waited(atIdle, atBusy)}; during the builds: ${waited(atBusy, afterBusy)}`);
 		// The same with every build followed by polling its state every PAGE_POLL_MS, as an API client might.
 		const polled = await probe(me, s.headers, eightBuilds(PAGE_POLL_MS));
 		console.log(`  /me during 8 builds followed by ${PAGE_POLL_MS} ms polls instead (one burst): p99 ${r1(p99(polled))} ms over ${polled.length} samples, ${r1(p99(polled) / p99(idle))}× idle`);
