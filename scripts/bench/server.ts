@@ -32,6 +32,12 @@ export interface Vitals {
 	printCacheMaxBytes: number;
 }
 
+/** A thread's time since it started: ms it ran, and ms it was ready to run but waited for a core (Linux's per-thread schedstat). */
+export interface ThreadTimes {
+	runMs: number;
+	waitMs: number;
+}
+
 export interface Server {
 	url: string;
 	pid: number;
@@ -39,11 +45,8 @@ export interface Server {
 	rssMb(): number;
 	/** The server's own figures (SIGUSR2, see src/lib/server/vitals.ts); resets its loop-delay histogram. */
 	vitals(): Promise<Vitals>;
-	/**
-	 * The server's own thread since it started: ms it ran, and ms it was ready to run but waited
-	 * for a core (Linux's per-thread schedstat; undefined where the kernel keeps none).
-	 */
-	threadTimes(): { runMs: number; waitMs: number } | undefined;
+	/** The server's own thread since it started (undefined where the kernel keeps no schedstat). */
+	threadTimes(): ThreadTimes | undefined;
 	stop(): Promise<void>;
 }
 
@@ -416,7 +419,7 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 		);
 		// How much of the time the server's thread was ready to run it spent waiting for a core (the
 		// builds' worker threads, the bench's own clients and other programs take them meanwhile).
-		const waited = (from?: { runMs: number; waitMs: number }, to?: { runMs: number; waitMs: number }) => {
+		const waited = (from?: ThreadTimes, to?: ThreadTimes) => {
 			if (!from || !to) return 'not known here';
 			const run = to.runMs - from.runMs;
 			const wait = to.waitMs - from.waitMs;
