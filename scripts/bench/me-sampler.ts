@@ -1,0 +1,31 @@
+/**
+ * A process that does nothing but ask: between a `start` and a `stop` message from its parent
+ * (`meSampler` in ./server.ts) it sends GET `url` every `gapMs` ms, one request at a time, and
+ * answers with each request's latency in ms.
+ */
+interface Start {
+	url: string;
+	headers: Record<string, string>;
+	gapMs: number;
+}
+
+let sampling = false;
+
+process.on('message', async (message: { start?: Start; stop?: true }) => {
+	if (message.stop) {
+		sampling = false;
+		return;
+	}
+	if (!message.start || sampling) return;
+	const { url, headers, gapMs } = message.start;
+	sampling = true;
+	const ms: number[] = [];
+	while (sampling) {
+		const t = performance.now();
+		const res = await fetch(url, { headers });
+		await res.arrayBuffer();
+		ms.push(performance.now() - t);
+		await new Promise((ok) => setTimeout(ok, gapMs));
+	}
+	process.send!({ ms });
+});
