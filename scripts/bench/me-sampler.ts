@@ -3,6 +3,8 @@
  * (`meSampler` in ./server.ts) it sends GET `url` every `gapMs` ms, one request at a time, and
  * answers with each request's latency in ms.
  */
+import { sleep, timeRequest } from './server';
+
 interface Start {
 	url: string;
 	headers: Record<string, string>;
@@ -21,11 +23,8 @@ process.on('message', async (message: { start?: Start; stop?: true }) => {
 	sampling = true;
 	const ms: number[] = [];
 	while (sampling) {
-		const t = performance.now();
-		const res = await fetch(url, { headers });
-		await res.arrayBuffer();
-		ms.push(performance.now() - t);
-		await new Promise((ok) => setTimeout(ok, gapMs));
+		ms.push((await timeRequest(url, { headers })).ms);
+		await sleep(gapMs);
 	}
 	process.send!({ ms });
 });

@@ -456,10 +456,10 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 			return `ran ${Math.round(run)} ms, waited for a core ${Math.round(wait)} ms (${Math.round((100 * wait) / (run + wait))}% of its ready time)`;
 		};
 		console.log(`  the server's thread while idle: ${waited(atIdle, atBusy)}; during the builds: ${waited(atBusy, afterBusy)}`);
-		// The same with every build followed by polling its state every PAGE_POLL_MS, as an API client might.
 		console.log(
 			`  /me is timed from a process of its own: this process's event loop, which follows the builds, was delayed p99 ${r1(ownLoop.percentile(99) / 1e6)} ms during them against ${r1(ownIdleP99)} ms idle`
 		);
+		// The same with every build followed by polling its state every PAGE_POLL_MS, as an API client might.
 		const polled = await sampler.sample(eightBuilds(PAGE_POLL_MS));
 		console.log(`  /me during 8 builds followed by ${PAGE_POLL_MS} ms polls instead (one burst): p99 ${r1(p99(polled))} ms over ${polled.length} samples, ${r1(p99(polled) / p99(idle))}× idle`);
 		// Past the queue: refused with 503 and Retry-After.
