@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { PGlite } from '@electric-sql/pglite';
-import { asBackground, FOREGROUND_RUN, isBackground, takeTurns, Turns } from './turns';
+import { asBackground, backgroundTurn, FOREGROUND_RUN, isBackground, takeTurns, Turns } from './turns';
 
 /** A call that records when it ran and finishes on the next macrotask (as a database call would). */
 function recorder() {
@@ -61,6 +61,20 @@ describe('turns at the embedded database', () => {
 			turns.take(async () => void ran.push('b2'), true)
 		]);
 		expect(ran).toEqual(['b1', 'arrived', 'b2']);
+	});
+
+	it('background turns without a database call: work that waits for them together goes on one per turn of the event loop', async () => {
+		const ran: string[] = [];
+		await Promise.all(
+			[0, 1, 2].map(async (i) => {
+				await backgroundTurn();
+				ran.push(`start ${i}`);
+				// Runs on the event loop's next round: before the next start, if that start waits for it.
+				setImmediate(() => ran.push(`round after ${i}`));
+			})
+		);
+		await new Promise((ok) => setImmediate(ok));
+		expect(ran).toEqual(['start 0', 'round after 0', 'start 1', 'round after 1', 'start 2', 'round after 2']);
 	});
 
 	it('a call that throws before returning a promise frees the turn too', async () => {

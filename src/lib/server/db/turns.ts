@@ -3,12 +3,13 @@
  * in the order the calls came. Eight print requests arriving together make a hundred or so calls
  * (their sessions, the game, the job rows, the builds' progress), and a person's next click would
  * wait behind every one of them. So calls made for background work (print and odds jobs, the
- * requests that start them, the sweep) wait while calls for anything else are waiting; and so
+ * requests that start and follow them, the sweep) wait while calls for anything else are waiting; and so
  * background work still moves under steady traffic, it takes a turn after at most
  * `FOREGROUND_RUN` foreground calls in a row.
  *
  * A transaction is one call here: its statements run inside it, on its own handle, with no turn
- * of their own. A PostgreSQL server answers many calls at once and needs none of this.
+ * of their own. A PostgreSQL server answers many calls at once and needs none of this; the
+ * turns without a call that background requests start on (`backgroundTurn`) apply to it too.
  */
 import { AsyncLocalStorage } from 'node:async_hooks';
 import type { PGlite } from '@electric-sql/pglite';
@@ -91,6 +92,18 @@ export class Turns {
 	}
 }
 
+/** The turns of the database opened last; a database without turns (PostgreSQL) leaves one of their own. */
+let current = new Turns();
+
+/**
+ * Waits for a background turn without a database call: a request that belongs to background work
+ * (../http/request-hooks.ts) takes one before it starts, so eight that arrive together start
+ * one per turn of the event loop instead of all in the turn that read them.
+ */
+export function backgroundTurn(): Promise<void> {
+	return current.take(async () => {}, true);
+}
+
 /**
  * Routes a PGlite client's calls (query, exec, transaction: what drizzle and our own code use)
  * through turns. Patched on the client itself so drizzle keeps a real PGlite.
@@ -102,5 +115,6 @@ export function takeTurns(client: PGlite, turns = new Turns()): Turns {
 	client.query = ((...args: Parameters<typeof query>) => turns.take(() => query(...args))) as typeof client.query;
 	client.exec = ((...args: Parameters<typeof exec>) => turns.take(() => exec(...args))) as typeof client.exec;
 	client.transaction = ((...args: Parameters<typeof transaction>) => turns.take(() => transaction(...args))) as typeof client.transaction;
+	current = turns;
 	return turns;
 }

@@ -7,7 +7,7 @@ import { config, secureCookies } from '../config';
 import { addressFrom, withClient } from '../auth/client-address';
 import { SIGN_IN_LIMITED_MESSAGE } from './authjs';
 import { WINDOW_MS } from '../auth/throttle';
-import { asBackground } from '../db/turns';
+import { asBackground, backgroundTurn } from '../db/turns';
 
 export const knowClient: Handle = ({ event, resolve }) =>
 	withClient(
@@ -20,10 +20,24 @@ export const knowClient: Handle = ({ event, resolve }) =>
 
 /** Requests that start print jobs: background work, whose database calls let a person's clicks go first. */
 const STARTS_PRINT_JOB = '/api/v1/games/[gameId=id]/print-jobs';
+/** Following a print job (its state, its event stream, its file): background work too. */
+const FOLLOWS_PRINT_JOB = new Set(['/api/v1/print-jobs/[jobId=id]', '/api/v1/print-jobs/[jobId=id]/events', '/api/v1/print-jobs/[jobId=id]/file']);
 
-/** Starting a print job waits its turn at the database behind everything else (../db/turns.ts). */
+function isBackgroundRequest(method: string, routeId: string | null) {
+	return method === 'POST' ? routeId === STARTS_PRINT_JOB : method === 'GET' && routeId !== null && FOLLOWS_PRINT_JOB.has(routeId);
+}
+
+/**
+ * Starting and following print jobs waits its turn behind everything else (../db/turns.ts): the
+ * request starts on a background turn of its own, and its database calls take theirs.
+ */
 export const backgroundRequests: Handle = ({ event, resolve }) =>
-	event.request.method === 'POST' && event.route.id === STARTS_PRINT_JOB ? asBackground(() => resolve(event)) : resolve(event);
+	isBackgroundRequest(event.request.method, event.route.id)
+		? asBackground(async () => {
+				await backgroundTurn();
+				return resolve(event);
+			})
+		: resolve(event);
 
 /**
  * Every cookie: HttpOnly, SameSite=Lax, and Secure exactly when the origin is https. Auth.js
