@@ -3,9 +3,9 @@
  * in the order the calls came. Eight print requests arriving together make a hundred or so calls
  * (their sessions, the game, the job rows, the builds' progress), and a person's next click would
  * wait behind every one of them. So calls made for background work (print and odds jobs, the
- * requests that start and follow them, the sweep) wait while calls for anything else are waiting; and so
- * background work still moves under steady traffic, it takes a turn after at most
- * `FOREGROUND_RUN` foreground calls in a row.
+ * requests that start and follow them, the sweep) wait while calls for anything else are
+ * waiting; and so background work still moves under steady traffic, it takes a turn after at
+ * most `FOREGROUND_RUN` foreground calls in a row.
  *
  * A transaction is one call here: its statements run inside it, on its own handle, with no turn
  * of their own. A PostgreSQL server answers many calls at once and needs none of this; the
