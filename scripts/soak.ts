@@ -78,13 +78,19 @@ try {
 
 	const peakMb = Math.max(...samples.map((x) => x.rssMb));
 	const loads = samples.map((x) => x.load);
-	// What the caches may hold once the load is over: the face cache and each print worker still started.
+	// What the caches may hold once the load is over: the server's own (faces and their keys, game
+	// documents, art files) and each print worker still started.
 	const bounds = {
 		faceCacheMb: vitals.faceCache.maxBytes / MB,
 		faceKeysMb: (vitals.faceCache.keys?.maxBytes ?? 0) / MB,
+		gameCacheMb: (vitals.gameCache?.maxBytes ?? 0) / MB,
+		artCacheMb: (vitals.artCache?.maxBytes ?? 0) / MB,
 		printCachesMb: (vitals.printWorkersIdle * vitals.printCacheMaxBytes) / MB
 	};
-	const boundsMb = bounds.faceCacheMb + bounds.faceKeysMb + bounds.printCachesMb;
+	const boundsMb = Object.values(bounds).reduce((a, b) => a + b, 0);
+	// And what the server's own caches hold at the end (the print workers' are not reported).
+	const heldMb = (c?: { bytes: number }) => Math.round(((c?.bytes ?? 0) / MB) * 10) / 10;
+	const held = { faceCacheMb: heldMb(vitals.faceCache), faceKeysMb: heldMb(vitals.faceCache.keys), gameCacheMb: heldMb(vitals.gameCache), artCacheMb: heldMb(vitals.artCache) };
 	const growthMb = after.rssMb - start.rssMb;
 	const summary = {
 		minutes,
@@ -96,6 +102,7 @@ try {
 		afterUnderTarget: after.rssMb < TARGET_MB,
 		growthMb,
 		cacheBoundsMb: { ...bounds, sum: boundsMb },
+		cachesHeldMb: held,
 		growthWithinBounds: growthMb <= boundsMb,
 		loadAverage: { min: Math.min(...loads), max: Math.max(...loads), mean: Math.round((loads.reduce((a, b) => a + b, 0) / loads.length) * 10) / 10 },
 		load,
@@ -109,8 +116,9 @@ try {
 	);
 	console.log(`  after the quiet spell: ${after.rssMb} MB (target < ${TARGET_MB} MB) — ${summary.afterUnderTarget ? 'met' : 'NOT met'}`);
 	console.log(
-		`  growth start → after: ${growthMb} MB; caches' byte bounds ${boundsMb} MB (face cache ${bounds.faceCacheMb} + its key map ${bounds.faceKeysMb} + ${vitals.printWorkersIdle} print worker × ${vitals.printCacheMaxBytes / MB}) — ${summary.growthWithinBounds ? 'within' : 'BEYOND'}`
+		`  growth start → after: ${growthMb} MB; caches' byte bounds ${boundsMb} MB (face cache ${bounds.faceCacheMb} + its key map ${bounds.faceKeysMb} + game documents ${bounds.gameCacheMb} + art ${bounds.artCacheMb} + ${vitals.printWorkersIdle} print worker × ${vitals.printCacheMaxBytes / MB}) — ${summary.growthWithinBounds ? 'within' : 'BEYOND'}`
 	);
+	console.log(`  the server's caches hold at the end: faces ${held.faceCacheMb} MB, their keys ${held.faceKeysMb}, game documents ${held.gameCacheMb}, art ${held.artCacheMb}`);
 } finally {
 	await server.stop();
 }

@@ -14,6 +14,12 @@ import { appEnv } from '../app-env.js';
 
 const ROOT = new URL('../..', import.meta.url).pathname;
 
+export interface CacheStats {
+	entries: number;
+	bytes: number;
+	maxBytes: number;
+}
+
 export interface Vitals {
 	rssMb: number;
 	/** The main thread's V8 heap, used and reserved. */
@@ -23,7 +29,10 @@ export interface Vitals {
 	externalMb: number;
 	arrayBuffersMb: number;
 	loopDelayMs: { p50: number; p99: number; max: number };
-	faceCache: { entries: number; bytes: number; maxBytes: number; keys?: { entries: number; bytes: number; maxBytes: number } };
+	faceCache: CacheStats & { keys?: CacheStats };
+	/** Game documents read lately, and art files read lately (src/lib/server/game-store.ts, art-files.ts). */
+	gameCache?: CacheStats;
+	artCache?: CacheStats;
 	printWorkersWarm: boolean;
 	/** Print worker threads started now, kept while idle, and at most. */
 	printWorkers: number;

@@ -7,6 +7,16 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openWorld, fakeEvent, type World, actorIn } from './harness';
 import { applyChanges, loadGame } from '$lib/server/game-store';
 import { cutProof } from '$lib/server/proofs';
+import { createHash } from 'node:crypto';
+import { readFile } from 'node:fs/promises';
+import { createRequire } from 'node:module';
+import { faceCacheStats } from '$lib/server/face-cache';
+import { renderFaceTemplate } from '$lib/server/faces';
+import { readArtFile } from '$lib/server/art-files';
+import { loadFonts } from '$lib/print/fonts';
+import { layoutFace } from '$lib/print/layout';
+import { renderSvg } from '$lib/print/svg';
+import { artAssets } from '$lib/print/face-svg';
 import * as cardFace from '../../src/routes/api/v1/games/[gameId=id]/cards/[cardId]/face.svg/+server';
 import * as proofFace from '../../src/routes/api/v1/games/[gameId=id]/proofs/[proofId]/cards/[cardId]/face.svg/+server';
 
@@ -53,6 +63,45 @@ describe('working faces', () => {
 		expect(changed.status).toBe(200);
 		expect(changed.headers.get('etag')).not.toBe(etag);
 		expect(await changed.text()).toContain('Renamed runner card');
+	});
+
+	it('are kept without their art and fonts, and answered with both inline, as if drawn with them', async () => {
+		const game = await loadGame(w.db, w.gameId);
+		let withArt: (typeof game.cards)[number] | undefined;
+		for (const c of game.cards) {
+			const kind = game.kinds.find((k) => k.id === c.kindId)!;
+			if ((await renderFaceTemplate({ game, kind, card: c, side: 'front' })).face.art.length) withArt = c;
+		}
+		// The demo game's runner cards carry art.
+		expect(withArt).toBeDefined();
+		const card = withArt!;
+		const kind = game.kinds.find((k) => k.id === card.kindId)!;
+		const before = faceCacheStats();
+		const svg = await (await cardFace.GET(ev({ params: { gameId: w.gameId, cardId: card.id }, path: '/?guides=trim' }))).text();
+		const after = faceCacheStats();
+
+		// The same face drawn the plain way: each art file's bytes inline (svg.ts's own base64), fonts added as before.
+		const fonts = await loadFonts();
+		const images = artAssets(game);
+		for (const image of images.values()) image.bytes = await readArtFile(image.id);
+		const drawn = renderSvg(layoutFace({ game, kind, card, side: 'front', images, fonts }), images, { guides: { trim: true } });
+		expect(svg.replace(/<style>.*?<\/style>/, '')).toBe(drawn);
+
+		// Each inline image decodes to the file its hash names (FIPS 180-4 SHA-256, node:crypto).
+		const uris = [...svg.matchAll(/href="data:image\/(?:png|jpeg);base64,([^"]+)"/g)].map((m) => Buffer.from(m[1], 'base64'));
+		for (const bytes of uris) expect(images.has(createHash('sha256').update(bytes).digest('hex'))).toBe(true);
+		// The fonts inline are the shipped woff2 files, byte for byte.
+		const require = createRequire(import.meta.url);
+		const inline = [...svg.matchAll(/data:font\/woff2;base64,([^)]+)\)/g)].map((m) => Buffer.from(m[1], 'base64'));
+		expect(inline).toEqual([
+			await readFile(require.resolve('@fontsource/roboto-slab/files/roboto-slab-latin-400-normal.woff2')),
+			await readFile(require.resolve('@fontsource/roboto-slab/files/roboto-slab-latin-700-normal.woff2'))
+		]);
+
+		// What the cache took for it is a fraction of what was sent.
+		expect(after.entries).toBe(before.entries + 1);
+		expect(after.bytes - before.bytes).toBeLessThan(svg.length / 2);
+		expect(uris.length).toBeGreaterThan(0);
 	});
 
 	it('an outsider gets no face and no 304, even with the right ETag', async () => {

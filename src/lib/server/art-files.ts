@@ -54,6 +54,9 @@ const recentArt = new LRUCache<string, Uint8Array>({
 	maxEntrySize: ART_CACHE_BYTES / 4
 });
 
+/** What the art cache holds now (for the benchmark). */
+export const artCacheStats = () => ({ entries: recentArt.size, bytes: recentArt.calculatedSize, maxBytes: ART_CACHE_BYTES });
+
 /** The art file's bytes; shared with other readers, so never written to. */
 export async function readArtFile(sha256: string): Promise<Uint8Array> {
 	const kept = recentArt.get(checked(sha256));

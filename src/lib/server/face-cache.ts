@@ -1,5 +1,5 @@
 /**
- * Rendered faces kept for the app's face routes (standalone SVG text), by the hash of everything
+ * Rendered faces kept for the app's face routes (SVG text, art and fonts left out), by the hash of everything
  * a face is drawn from (../print/cache.ts `faceScope`: the card, its kind, runner, money table and
  * art, the engine and its layouts) plus how it is drawn (side, guides). One LRU bounded by bytes
  * (lru-cache), so a busy server never grows past it.
@@ -11,21 +11,26 @@
 import { LRUCache } from 'lru-cache';
 import { ENGINE_SALT, faceScope, hashOf } from '$lib/print/cache';
 import type { Card, CardKind, Game } from '$lib/game/model';
+import type { FaceTemplate } from './faces';
 
-/** Rendered faces: a standalone face SVG carries its fonts (~110 KB); this holds a few hundred. */
-export const FACE_CACHE_BYTES = 32 * 1024 * 1024;
+/**
+ * Rendered faces, kept without their art and fonts (../server/faces.ts `FaceTemplate`), which
+ * each answer fills in: some KB a face, so this holds a few thousand.
+ */
+export const FACE_CACHE_BYTES = 12 * 1024 * 1024;
 
-export interface KeptFace {
-	svg: string;
+export interface KeptFace extends FaceTemplate {
 	warnings: number;
 }
 
 /** JavaScript strings take up to two bytes a character; the rest is the entry's own bookkeeping (a rough figure). */
 const ENTRY_OVERHEAD_BYTES = 64;
+/** One art file named by a face: its hash and type (a rough figure too). */
+const ART_ENTRY_BYTES = 200;
 
 const faces = new LRUCache<string, KeptFace>({
 	maxSize: FACE_CACHE_BYTES,
-	sizeCalculation: (f) => f.svg.length * 2 + ENTRY_OVERHEAD_BYTES
+	sizeCalculation: (f) => f.svg.length * 2 + f.art.length * ART_ENTRY_BYTES + ENTRY_OVERHEAD_BYTES
 });
 
 /** Room for the (game, version, card, side, variant) → content key map: some tens of thousands of keys. */

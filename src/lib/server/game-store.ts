@@ -113,6 +113,9 @@ export async function loadGame(db: Conn, gameId: string, row?: GameRow): Promise
 export const GAME_CACHE_BYTES = 16 * 1024 * 1024;
 const keptGames = new LRUCache<string, Game>({ maxSize: GAME_CACHE_BYTES, maxEntrySize: GAME_CACHE_BYTES / 4 });
 
+/** What the game-document cache holds now (for the benchmark). */
+export const gameCacheStats = () => ({ entries: keptGames.size, bytes: keptGames.calculatedSize, maxBytes: GAME_CACHE_BYTES });
+
 /**
  * The game as `loadGame` reads it, for a request that has just read the game row (`row`) and
  * reads the game outside a transaction. Every write of a game's objects or settings bumps the

@@ -5,6 +5,8 @@
  */
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { faceCacheStats } from './face-cache';
+import { gameCacheStats } from './game-store';
+import { artCacheStats } from './art-files';
 
 const NS_PER_MS = 1e6;
 
@@ -23,6 +25,8 @@ export function watchVitals(more: () => Record<string, unknown> = () => ({})): v
 			arrayBuffersMb: Math.round(m.arrayBuffers / 2 ** 20),
 			loopDelayMs: { p50: ms(loop.percentile(50)), p99: ms(loop.percentile(99)), max: ms(loop.max) },
 			faceCache: faceCacheStats(),
+			gameCache: gameCacheStats(),
+			artCache: artCacheStats(),
 			...more()
 		};
 		console.log(`paddock-vitals ${JSON.stringify(vitals)}`);

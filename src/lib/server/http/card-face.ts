@@ -6,7 +6,7 @@
 import type { RequestEvent } from '@sveltejs/kit';
 import { requireGameRole } from './guard';
 import { loadGame } from '../game-store';
-import { renderFace, parseGuides } from '../faces';
+import { renderFaceTemplate, standaloneSvg, parseGuides } from '../faces';
 import { db } from '../runtime';
 import { etagOf, faceContentKey, keepFace, keptFace, knownKey, notModified, rememberKey, type KeptFace } from '../face-cache';
 import type { Side } from '$lib/print/layout';
@@ -32,11 +32,11 @@ export async function cardFaceSvg(event: RequestEvent<{ gameId: string; cardId: 
 		if (notModified(event.request, etagOf(key))) return unchanged(etagOf(key));
 		face = keptFace(key);
 		if (!face) {
-			const { svg, layout } = await renderFace({ game, kind, card, side, guides });
-			face = keepFace(key, { svg, warnings: layout.warnings.length });
+			const { face: drawn, layout } = await renderFaceTemplate({ game, kind, card, side, guides });
+			face = keepFace(key, { ...drawn, warnings: layout.warnings.length });
 		}
 	}
-	return new Response(face.svg, {
+	return new Response(await standaloneSvg(face), {
 		headers: {
 			'content-type': 'image/svg+xml; charset=utf-8',
 			'x-paddock-warnings': String(face.warnings),

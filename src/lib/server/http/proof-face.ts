@@ -6,7 +6,7 @@
 import type { RequestEvent } from '@sveltejs/kit';
 import { requireProof } from './proof-access';
 import { snapshotOf } from '../proofs';
-import { renderFace, parseGuides } from '../faces';
+import { renderFace, renderFaceTemplate, standaloneSvg, parseGuides } from '../faces';
 import { db } from '../runtime';
 import { etagOf, keepFace, keptFace, notModified } from '../face-cache';
 import { ENGINE_SALT, hashOf } from '$lib/print/cache';
@@ -30,10 +30,10 @@ export async function proofFaceSvg(event: RequestEvent<{ gameId: string; proofId
 		const card = game.cards.find((c) => c.id === event.params.cardId);
 		if (!card) throw new NotFound('No such card in this proof');
 		const kind = game.kinds.find((k) => k.id === card.kindId)!;
-		const { svg, layout } = await renderFace({ game, kind, card, side, guides });
-		face = keepFace(key, { svg, warnings: layout.warnings.length });
+		const { face: drawn, layout } = await renderFaceTemplate({ game, kind, card, side, guides });
+		face = keepFace(key, { ...drawn, warnings: layout.warnings.length });
 	}
-	return new Response(face.svg, {
+	return new Response(await standaloneSvg(face), {
 		headers: { 'content-type': 'image/svg+xml; charset=utf-8', 'x-paddock-warnings': String(face.warnings), etag, 'cache-control': IMMUTABLE }
 	});
 }
