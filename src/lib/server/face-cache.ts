@@ -1,8 +1,8 @@
 /**
- * Rendered faces kept for the app's face routes (SVG text, art and fonts left out), by the hash of everything
- * a face is drawn from (../print/cache.ts `faceScope`: the card, its kind, runner, money table and
- * art, the engine and its layouts) plus how it is drawn (side, guides). One LRU bounded by bytes
- * (lru-cache), so a busy server never grows past it.
+ * Rendered faces kept for the app's face routes (SVG text, art and fonts left out), by the hash
+ * of everything a face is drawn from (../print/cache.ts `faceScope`: the card, its kind, runner,
+ * money table and art, the engine and its layouts) plus how it is drawn (side, guides). One LRU
+ * bounded by bytes (lru-cache), so a busy server never grows past it.
  *
  * A second, small map goes from "this card of this game at this game version" to that hash:
  * every write of a game's content bumps `games.version`, so a repeat request for an unchanged
@@ -14,7 +14,7 @@ import type { Card, CardKind, Game } from '$lib/game/model';
 import type { FaceTemplate } from './faces';
 
 /**
- * Rendered faces, kept without their art and fonts (../server/faces.ts `FaceTemplate`), which
+ * Rendered faces, kept without their art and fonts (./faces.ts `FaceTemplate`), which
  * each answer fills in: some KB a face, so this holds a few thousand.
  */
 export const FACE_CACHE_BYTES = 12 * 1024 * 1024;
