@@ -104,6 +104,30 @@ describe('PrintPool', () => {
 		}
 	});
 
+	it('replaces a worker that drew PNGs once quiet, with a warm one; a worker that built only sheets keeps its cache', async () => {
+		const one = new PrintPool({ size: 1, idleMs: 300 });
+		const quiet = () => new Promise((r) => setTimeout(r, 2000));
+		try {
+			const sheets = await one.run({ type: 'sheets', game: demo.game, art: demo.art, options: { ...OPTIONS, kinds: ['kd-hazard'] } });
+			await quiet();
+			let stats = await one.cacheStats();
+			expect(stats.layout.entries).toBeGreaterThan(0);
+			const zip = await one.run({ type: 'pngs', game: demo.game, art: demo.art, options: { kinds: ['kd-hazard'] } });
+			expect(zip.workerId).toBe(sheets.workerId);
+			expect(zip.cache.png.entries).toBeGreaterThan(0);
+			await quiet();
+			stats = await one.cacheStats();
+			expect(stats.png.entries + stats.layout.entries).toBe(0);
+			expect(one.threads).toBe(1);
+			// The new worker builds as the old one did.
+			const again = await one.run({ type: 'sheets', game: demo.game, art: demo.art, options: { ...OPTIONS, kinds: ['kd-hazard'] } });
+			expect(again.workerId).not.toBe(sheets.workerId);
+			expect(Buffer.from(again.bytes).equals(Buffer.from(sheets.bytes))).toBe(true);
+		} finally {
+			await one.close();
+		}
+	});
+
 	it('sends refusals back as PrintOptionsError with their status', async () => {
 		const err = await pool.run({ type: 'sheets', game: demo.game, art: demo.art, options: { ...OPTIONS, kinds: ['kd-missing'] } }).catch((e) => e);
 		expect(err).toBeInstanceOf(PrintOptionsError);

@@ -11,6 +11,10 @@
  * the slow one; the others start when builds queue up and stop after a quiet minute. They run
  * at a lower scheduling priority than the server's own thread, so builds never starve requests.
  *
+ * A worker that drew PNGs is replaced by a fresh, warm one after the same quiet minute. Drawing
+ * at 300 dpi grows the rasteriser's WebAssembly memory by some 25 MB, which a thread can never
+ * give back, and fills the cache with PNGs; a worker that only built sheets keeps its cache.
+ *
  * Callers see only `PrintRunner` (run, close), so the pool can be swapped for a queue elsewhere.
  */
 import { existsSync } from 'node:fs';
@@ -91,7 +95,10 @@ export interface PrintPoolOptions {
 	size?: number;
 	/** Workers that stay started while idle (default 1); the rest start when builds queue. */
 	idleSize?: number;
-	/** How long an extra worker may sit idle before it stops (default a minute). */
+	/**
+	 * How long the pool may sit quiet before an extra worker stops and a worker that drew PNGs is
+	 * replaced (default a minute).
+	 */
 	idleMs?: number;
 	/** Jobs allowed to wait; beyond this `run` refuses with PrintBusyError. */
 	maxQueue?: number;
@@ -169,6 +176,11 @@ export class PrintPool implements PrintRunner {
 	private lastAffinity = new Map<number, string>();
 	private inFlight = 0;
 	private warm: Promise<void>;
+	/** Workers that drew PNGs since they started (by piscina's worker id), and those being replaced. */
+	private drewPngs = new Set<number>();
+	private readonly leaving = new Set<number>();
+	private lastJobEnded = performance.now();
+	private replacer: ReturnType<typeof setInterval>;
 
 	constructor(options: PrintPoolOptions = {}) {
 		this.size = Math.max(1, Math.floor(options.size ?? defaultPoolSize()));
@@ -182,6 +194,7 @@ export class PrintPool implements PrintRunner {
 			tsx: direct ? undefined : tsxEsmApi(),
 			cacheBytes: options.cacheBytes
 		};
+		const idleMs = options.idleMs ?? DEFAULT_IDLE_MS;
 		this.piscina = new Piscina({
 			filename: direct ? this.workerPath : entryFile(),
 			workerData,
@@ -189,7 +202,7 @@ export class PrintPool implements PrintRunner {
 			// leave after a quiet minute (each thread holds tens of MB of code, fonts and wasm).
 			minThreads: this.idleSize,
 			maxThreads: this.size,
-			idleTimeout: this.idleSize === this.size ? Infinity : options.idleMs ?? DEFAULT_IDLE_MS,
+			idleTimeout: this.idleSize === this.size ? Infinity : idleMs,
 			// The bound is kept in `run`: jobs a caller's bounded queue admitted wait here whatever the count.
 			concurrentTasksPerWorker: 1,
 			// Idle workers wait on a message port, so a job's own async work is never parked.
@@ -206,7 +219,7 @@ export class PrintPool implements PrintRunner {
 					const live = new Set(workers.map((w) => w.id));
 					for (const id of this.lastAffinity.keys()) if (!live.has(id)) this.lastAffinity.delete(id);
 				}
-				const free = workers.filter((w) => w.currentUsage === 0 && !w.terminating && !w.destroyed);
+				const free = workers.filter((w) => w.currentUsage === 0 && !w.terminating && !w.destroyed && !this.leaving.has(w.id));
 				if (!free.length) return null;
 				const affinity = ((task as unknown as Record<symbol, unknown>)[Piscina.queueOptionsSymbol] as QueueOptions | null)?.affinity;
 				const same = affinity ? free.find((w) => this.lastAffinity.get(w.id) === affinity) : undefined;
@@ -228,6 +241,27 @@ export class PrintPool implements PrintRunner {
 			};
 			this.piscina.on('message', onMessage);
 		});
+		this.replacer = setInterval(() => this.replaceQuietWorkers(idleMs), Math.min(10_000, idleMs / 2));
+		this.replacer.unref();
+	}
+
+	/**
+	 * Once nothing has run for `quietMs`, each worker that drew PNGs stops; piscina starts a new
+	 * one in its place, which warms up as every worker does. Only here, on the server's thread and
+	 * with no job in flight, so no job can be on its way to a worker that is stopping.
+	 */
+	private replaceQuietWorkers(quietMs: number): void {
+		if (this.inFlight || !this.drewPngs.size || performance.now() - this.lastJobEnded < quietMs) return;
+		const drew = this.drewPngs;
+		// Ids of extra workers that have stopped meanwhile go with the old set.
+		this.drewPngs = new Set();
+		for (const worker of this.piscina.threads) {
+			const id = worker.threadId;
+			if (!drew.has(id)) continue;
+			this.leaving.add(id);
+			this.lastAffinity.delete(id);
+			void worker.terminate().finally(() => this.leaving.delete(id));
+		}
 	}
 
 	/** Jobs running and waiting now. */
@@ -279,9 +313,11 @@ export class PrintPool implements PrintRunner {
 			throw e;
 		} finally {
 			this.inFlight--;
+			this.lastJobEnded = performance.now();
 		}
 		await progressDone;
 		if ('failed' in out) throw reviveError(out.failed);
+		if (job.type === 'pngs' || job.type === 'png-part') this.drewPngs.add(out.workerId);
 		return out;
 	}
 
@@ -291,6 +327,7 @@ export class PrintPool implements PrintRunner {
 	}
 
 	async close(): Promise<void> {
+		clearInterval(this.replacer);
 		await this.piscina.close({ force: true });
 	}
 }
