@@ -173,7 +173,7 @@ export const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor
 
 /** Margins for successive sheet builds: each request differs, so each is built, not answered from a finished twin. */
 let margins = 0;
-export const freshMargin = () => (4 + (margins++ % 400) / 100).toFixed(2);
+export const freshMargin = () => (4 + (margins++ % 4000) / 1000).toFixed(3);
 
 /**
  * A sheet build through the print page's job route, followed to the end; ms from start to file.
@@ -337,8 +337,9 @@ function meSampler(url: string, headers: Record<string, string>, gapMs = 20) {
 const SHEETS = { paper: 'a4', duplex: 'long' };
 /** How often a client polling a build asks after it (the print page's own fallback, src/lib/client/follow-job.ts). */
 const PAGE_POLL_MS = 300;
-/** Bursts of 8 builds /me is sampled through. */
+/** Bursts of 8 builds /me is sampled through, in each of ME_ROUNDS rounds. */
 const BUSY_BURSTS = 24;
+const ME_ROUNDS = 3;
 /** How long /me is sampled idle: about as many samples as the bursts give. */
 const IDLE_SAMPLE_MS = 30_000;
 
@@ -420,40 +421,49 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 		// /me while 8 sheet builds run, against /me idle; the event loop's delay meanwhile. A p99 of
 		// a few hundred samples is the third or fourth slowest, and one stall of the machine's moves
 		// it: idle is sampled for 30 s (some 1,100), busy over BUSY_BURSTS bursts of 8 builds (some
-		// 30 each), so both p99s are about the same rank and rest on ten or so samples each.
+		// 30 each), so both p99s are about the same rank and rest on ten or so samples each. Even so
+		// the ratio went from 1.5× to 2.1× in five runs of the same build on two cores: it is taken in
+		// ME_ROUNDS rounds and the median is the figure, as for the faces' p99s above. Every round is printed.
 		const sampler = meSampler(me, s.headers);
 		closeSampler = sampler.close;
 		// Its first requests open the connection and compile its code: not counted.
 		await sampler.sample(sleep(2_000));
-		// The bench's own event loop meanwhile: what /me would have gained, timed from here.
-		const ownLoop = monitorEventLoopDelay({ resolution: 1 });
-		ownLoop.enable();
-		await srv.vitals();
-		const atIdle = srv.threadTimes();
-		const idle = await sampler.sample(sleep(IDLE_SAMPLE_MS));
-		const idleLoop = (await srv.vitals()).loopDelayMs;
-		const ownIdleP99 = ownLoop.percentile(99) / 1e6;
-		ownLoop.reset();
-		const atBusy = srv.threadTimes();
 		const eightBuilds = (follow: 'events' | number) =>
 			Promise.all(Array.from({ length: 8 }, (_, i) => sheetJob(s, srv.url, { ...SHEETS, sets: String(1 + (i % 3)) }, 'sheets', follow)));
-		const busy: number[] = [];
-		const burstMax: number[] = [];
-		for (let burst = 0; burst < BUSY_BURSTS; burst++) {
-			// Each build followed as the print page follows it (its event stream).
-			const ms = await sampler.sample(eightBuilds('events'));
-			busy.push(...ms);
-			burstMax.push(Math.max(...ms));
-		}
-		const busyLoop = (await srv.vitals()).loopDelayMs;
-		const afterBusy = srv.threadTimes();
-		ownLoop.disable();
+		const meRound = async () => {
+			// The bench's own event loop meanwhile: what /me would have gained, timed from here.
+			const ownLoop = monitorEventLoopDelay({ resolution: 1 });
+			ownLoop.enable();
+			await srv.vitals();
+			const atIdle = srv.threadTimes();
+			const idle = await sampler.sample(sleep(IDLE_SAMPLE_MS));
+			const idleLoop = (await srv.vitals()).loopDelayMs;
+			const ownIdleP99 = ownLoop.percentile(99) / 1e6;
+			ownLoop.reset();
+			const atBusy = srv.threadTimes();
+			const busy: number[] = [];
+			const burstMax: number[] = [];
+			for (let burst = 0; burst < BUSY_BURSTS; burst++) {
+				// Each build followed as the print page follows it (its event stream).
+				const ms = await sampler.sample(eightBuilds('events'));
+				busy.push(...ms);
+				burstMax.push(Math.max(...ms));
+			}
+			const busyLoop = (await srv.vitals()).loopDelayMs;
+			const ownBusyP99 = ownLoop.percentile(99) / 1e6;
+			ownLoop.disable();
+			return { idle, busy, burstMax, idleLoop, busyLoop, ownIdleP99, ownBusyP99, atIdle, atBusy, afterBusy: srv.threadTimes(), ratio: p99(busy) / p99(idle) };
+		};
+		const rounds: Awaited<ReturnType<typeof meRound>>[] = [];
+		for (let i = 0; i < ME_ROUNDS; i++) rounds.push(await meRound());
+		const mid = [...rounds].sort((a, b) => a.ratio - b.ratio)[Math.floor(rounds.length / 2)];
+		const { idle } = mid;
 		results.push(
 			verdict(
-				`/me p99 during 8 sheet builds ÷ idle (${BUSY_BURSTS} bursts)`,
-				`${r1(p99(busy) / p99(idle))}× (${r1(p99(busy))} vs ${r1(p99(idle))} ms, ${busy.length} vs ${idle.length} samples; slowest per burst ${burstMax.map(r1).join(', ')} ms; event-loop delay p99 ${busyLoop.p99} vs ${idleLoop.p99} ms)`,
+				`/me p99 during 8 sheet builds ÷ idle (median of ${ME_ROUNDS} rounds of ${BUSY_BURSTS} bursts)`,
+				`${r1(mid.ratio)}× (rounds ${rounds.map((r) => `${r1(r.ratio)}× (${r1(p99(r.busy))} vs ${r1(p99(r.idle))} ms)`).join(', ')}; median round: ${mid.busy.length} vs ${idle.length} samples, slowest per burst ${mid.burstMax.map(r1).join(', ')} ms, event-loop delay p99 ${mid.busyLoop.p99} vs ${mid.idleLoop.p99} ms)`,
 				'≤ 2×',
-				p99(busy) <= 2 * p99(idle)
+				mid.ratio <= 2
 			)
 		);
 		// How much of the time the server's thread was ready to run it spent waiting for a core (the
@@ -464,9 +474,9 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 			const wait = to.waitMs - from.waitMs;
 			return `ran ${Math.round(run)} ms, waited for a core ${Math.round(wait)} ms (${Math.round((100 * wait) / (run + wait))}% of its ready time)`;
 		};
-		console.log(`  the server's thread while idle: ${waited(atIdle, atBusy)}; during the builds: ${waited(atBusy, afterBusy)}`);
+		console.log(`  the server's thread in the median round, while idle: ${waited(mid.atIdle, mid.atBusy)}; during the builds: ${waited(mid.atBusy, mid.afterBusy)}`);
 		console.log(
-			`  /me is timed from a process of its own: this process's event loop, which follows the builds, was delayed p99 ${r1(ownLoop.percentile(99) / 1e6)} ms during them against ${r1(ownIdleP99)} ms idle`
+			`  /me is timed from a process of its own: this process's event loop, which follows the builds, was delayed p99 ${r1(mid.ownBusyP99)} ms during them against ${r1(mid.ownIdleP99)} ms idle`
 		);
 		// The same with every build followed by polling its state every PAGE_POLL_MS, as an API client might.
 		const polled = await sampler.sample(eightBuilds(PAGE_POLL_MS));
@@ -513,7 +523,7 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 		console.log('  instant in-browser preview, keystroke to new face: measured by its own section (scripts/bench/preview.ts)');
 		console.log('  queries per game-tab page load and per save: counted by tests/integration/request-queries.test.ts, not timed here');
 		console.log('  30-minute soak: `npx tsx scripts/soak.ts --minutes 30` (RSS every 10 s; start, peak, end)');
-		return { idleRssMb: idleRss, firstSheetMs: firstMs, warmSheetMs: warmMs, meMs: median(meMs), faceMs: median(faceMs), meP99, faceP99, idleP99: p99(idle), busyP99: p99(busy), busyLoop, idleLoop, zipMs: [zip1.ms, zip2.ms], rssAfterBurstMb: after, targets: results };
+		return { idleRssMb: idleRss, firstSheetMs: firstMs, warmSheetMs: warmMs, meMs: median(meMs), faceMs: median(faceMs), meP99, faceP99, idleP99: p99(idle), busyP99: p99(mid.busy), busyRounds: rounds.map((r) => ({ idleP99: p99(r.idle), busyP99: p99(r.busy) })), busyLoop: mid.busyLoop, idleLoop: mid.idleLoop, zipMs: [zip1.ms, zip2.ms], rssAfterBurstMb: after, targets: results };
 	} finally {
 		closeSampler();
 		await server?.stop();
