@@ -2,9 +2,9 @@
  * `npx tsx scripts/soak.ts [--minutes 30] [--port 4430] [--build-dir build] [--quiet-seconds 90]`:
  * the server under the benchmark's mixed HTTP load (scripts/bench/server.ts) for a long while,
  * its RSS sampled every 10 s, then through a quiet spell after the load (after a quiet minute the
- * extra print workers stop and a worker that drew PNGs is replaced). Prints RSS at the start, its peak, at the end of the load and after
- * the quiet spell; whether "after" is under the target; and whether the growth stayed within the
- * caches' byte bounds. Every sample goes to soak-results.json.
+ * extra print workers stop and a worker that drew PNGs is replaced). Prints RSS at the start, its
+ * peak, at the end of the load and after the quiet spell; whether "after" is under the target; and
+ * whether the growth stayed within the caches' byte bounds. Every sample goes to soak-results.json.
  */
 import { writeFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
