@@ -29,6 +29,8 @@ export interface Vitals {
 	externalMb: number;
 	arrayBuffersMb: number;
 	loopDelayMs: { p50: number; p99: number; max: number };
+	/** The main thread's collections since the last report: full and young, each with its longest pause. */
+	gc: { full: number; fullMaxMs: number; young: number; youngMaxMs: number };
 	faceCache: CacheStats & { keys?: CacheStats };
 	/** Game documents read lately, and art files read lately (src/lib/server/game-store.ts, art-files.ts). */
 	gameCache?: CacheStats;
@@ -437,7 +439,7 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 			await srv.vitals();
 			const atIdle = srv.threadTimes();
 			const idle = await sampler.sample(sleep(IDLE_SAMPLE_MS));
-			const idleLoop = (await srv.vitals()).loopDelayMs;
+			const { loopDelayMs: idleLoop, gc: idleGc } = await srv.vitals();
 			const ownIdleP99 = ownLoop.percentile(99) / 1e6;
 			ownLoop.reset();
 			const atBusy = srv.threadTimes();
@@ -449,10 +451,10 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 				busy.push(...ms);
 				burstMax.push(Math.max(...ms));
 			}
-			const busyLoop = (await srv.vitals()).loopDelayMs;
+			const { loopDelayMs: busyLoop, gc: busyGc } = await srv.vitals();
 			const ownBusyP99 = ownLoop.percentile(99) / 1e6;
 			ownLoop.disable();
-			return { idle, busy, burstMax, idleLoop, busyLoop, ownIdleP99, ownBusyP99, atIdle, atBusy, afterBusy: srv.threadTimes(), ratio: p99(busy) / p99(idle) };
+			return { idle, busy, burstMax, idleLoop, busyLoop, idleGc, busyGc, ownIdleP99, ownBusyP99, atIdle, atBusy, afterBusy: srv.threadTimes(), ratio: p99(busy) / p99(idle) };
 		};
 		const rounds: Awaited<ReturnType<typeof meRound>>[] = [];
 		for (let i = 0; i < ME_ROUNDS; i++) rounds.push(await meRound());
@@ -475,6 +477,8 @@ export async function benchServer(options: { port?: number; starts?: number } = 
 			return `ran ${Math.round(run)} ms, waited for a core ${Math.round(wait)} ms (${Math.round((100 * wait) / (run + wait))}% of its ready time)`;
 		};
 		console.log(`  the server's thread in the median round, while idle: ${waited(mid.atIdle, mid.atBusy)}; during the builds: ${waited(mid.atBusy, mid.afterBusy)}`);
+		const collected = (gc: Vitals['gc']) => `${gc.full} full (longest ${gc.fullMaxMs} ms), ${gc.young} young (longest ${gc.youngMaxMs} ms)`;
+		console.log(`  its garbage collections in the median round, while idle: ${collected(mid.idleGc)}; during the builds: ${collected(mid.busyGc)}`);
 		console.log(
 			`  /me is timed from a process of its own: this process's event loop, which follows the builds, was delayed p99 ${r1(mid.ownBusyP99)} ms during them against ${r1(mid.ownIdleP99)} ms idle`
 		);

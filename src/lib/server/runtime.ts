@@ -9,7 +9,7 @@ import { configureMail } from './mail';
 import { config } from './config';
 import { printPool, closePrintPool } from '$lib/print/pool';
 import { watchVitals } from './vitals';
-import { collectWhenQuiet } from '$lib/threads/quiet-gc';
+import { collectWhenQuiet, growHeapsBeforeCollecting } from '$lib/threads/quiet-gc';
 import { warmRecentGames } from './print-warmup';
 import { defineJob, jobQueue, sharedQueue, useJobQueue } from './job-queue';
 import { buildQueuedJob, failJob } from './print-jobs';
@@ -62,6 +62,8 @@ async function start(): Promise<Runtime> {
 				'Make one with `openssl rand -base64 32` and give the same value to every process.'
 		);
 	}
+	// Fewer full collections while builds run (see $lib/threads/quiet-gc.ts).
+	growHeapsBeforeCollecting();
 	const database = await openConfiguredDatabase(config.databaseUrl, config.dataDir);
 	const mail = await startMail(database.db, config.smtpUrl);
 	let demoNote: string | null = null;
