@@ -13,7 +13,8 @@ const NS_PER_MS = 1e6;
 
 /** Collections since the last report: full ones (mark-compact) and young-generation ones, with their longest pause. */
 function watchCollections() {
-	const counts = { full: 0, fullMaxMs: 0, young: 0, youngMaxMs: 0 };
+	const none = () => ({ full: 0, fullMaxMs: 0, young: 0, youngMaxMs: 0 });
+	let counts = none();
 	const observer = new PerformanceObserver((list) => {
 		for (const entry of list.getEntries() as (PerformanceEntry & { detail?: { kind?: number } })[]) {
 			const full = entry.detail?.kind === constants.NODE_PERFORMANCE_GC_MAJOR;
@@ -25,8 +26,8 @@ function watchCollections() {
 	});
 	observer.observe({ entryTypes: ['gc'] });
 	return () => {
-		const report = { ...counts };
-		Object.assign(counts, { full: 0, fullMaxMs: 0, young: 0, youngMaxMs: 0 });
+		const report = counts;
+		counts = none();
 		return report;
 	};
 }
